@@ -1,0 +1,29 @@
+/**
+ * Errors the domain raises. The api's global filter maps them to HTTP:
+ * ValidationError → 400 (details name each field), QuotaError → 429, NotFoundError → 404,
+ * ConflictError → 409, TooLargeError → 413. Anything else is a 500 with no internals.
+ */
+export interface ErrorDetail {
+  /** Field path, dot-separated (`axes.0.min`, `inputs.Te_eV`). */
+  path: string;
+  message: string;
+  line?: number;
+  column?: string;
+}
+
+export class DomainError extends Error {
+  constructor(
+    message: string,
+    readonly details?: ErrorDetail[],
+  ) {
+    super(message);
+    this.name = new.target.name;
+  }
+}
+
+export class ValidationError extends DomainError {}
+export class NotFoundError extends DomainError {}
+export class ConflictError extends DomainError {}
+export class QuotaError extends DomainError {}
+export class TooLargeError extends DomainError {}
+export class ForbiddenError extends DomainError {}
