@@ -1,0 +1,22 @@
+import { Module, type DynamicModule } from '@nestjs/common';
+import { APP_FILTER } from '@nestjs/core';
+import { AuthModule } from './auth/auth.module.js';
+import { ClockModule } from './common/clock.js';
+import { HttpErrorFilter } from './common/http-error.filter.js';
+import type { AppConfig } from './config/app-config.js';
+import { ConfigModule } from './config/config.module.js';
+import { DbModule } from './db/db.module.js';
+import { HealthModule } from './health/health.module.js';
+import { SeedModule } from './seed/seed.module.js';
+import { UsersModule } from './users/users.module.js';
+
+@Module({})
+export class AppModule {
+  static forRoot(config: AppConfig): DynamicModule {
+    return {
+      module: AppModule,
+      imports: [ConfigModule.forRoot(config), ClockModule, DbModule, UsersModule, AuthModule, HealthModule, SeedModule],
+      providers: [{ provide: APP_FILTER, useClass: HttpErrorFilter }],
+    };
+  }
+}

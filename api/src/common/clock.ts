@@ -1,0 +1,16 @@
+import { Global, Module } from '@nestjs/common';
+
+/** The clock is injected so tests can move time (token expiry, rolling quotas). */
+export abstract class Clock {
+  abstract now(): number;
+}
+
+export class SystemClock extends Clock {
+  now(): number {
+    return Date.now();
+  }
+}
+
+@Global()
+@Module({ providers: [{ provide: Clock, useClass: SystemClock }], exports: [Clock] })
+export class ClockModule {}

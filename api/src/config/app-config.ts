@@ -1,0 +1,80 @@
+import { createRequire } from 'node:module';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { DEV_JWT_SECRET, envSchema, type Env } from './config.schema.js';
+
+/** Typed configuration: the environment validated once, with derived paths. */
+export interface AppConfig {
+  env: Env['NODE_ENV'];
+  port: number;
+  host: string;
+  dataDir: string;
+  dbFile: string;
+  archiveDir: string;
+  jwtSecret: string;
+  jwtExpiresIn: string;
+  redisUrl?: string;
+  smtpUrl?: string;
+  mailFrom: string;
+  publicUrl: string;
+  seedDemo: boolean;
+  embeddedWorkers: number;
+  uiDist: string;
+  logLevel: Env['LOG_LEVEL'];
+  uploadMaxBytes: number;
+  uploadMaxRows: number;
+  appVersion: string;
+}
+
+export const APP_CONFIG = Symbol('APP_CONFIG');
+
+export class ConfigError extends Error {}
+
+const here = path.dirname(fileURLToPath(import.meta.url));
+const repoRoot = path.resolve(here, '../../..');
+
+function readAppVersion(): string {
+  const require = createRequire(import.meta.url);
+  return (require(path.join(repoRoot, 'package.json')) as { version: string }).version;
+}
+
+export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
+  const parsed = envSchema.safeParse(source);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`);
+    throw new ConfigError(`Invalid configuration:\n  ${lines.join('\n  ')}`);
+  }
+  const e = parsed.data;
+  const insecureAllowed = e.ALLOW_INSECURE_DEMO === 'true';
+  const seedDemo = e.DEMO_SEED === 'true' || (e.DEMO_SEED === 'auto' && e.NODE_ENV !== 'production');
+  if (e.NODE_ENV === 'production' && !insecureAllowed) {
+    if (e.JWT_SECRET === DEV_JWT_SECRET) {
+      throw new ConfigError('Refusing to start in production with the default JWT_SECRET; set JWT_SECRET (or ALLOW_INSECURE_DEMO=true for a trial).');
+    }
+    if (seedDemo) {
+      throw new ConfigError('Refusing to seed demo users in production; unset DEMO_SEED (or ALLOW_INSECURE_DEMO=true for a trial).');
+    }
+  }
+  const dataDir = path.resolve(e.DATA_DIR);
+  return {
+    env: e.NODE_ENV,
+    port: e.PORT,
+    host: e.HOST,
+    dataDir,
+    dbFile: path.join(dataDir, 'driftgrid.db'),
+    archiveDir: path.join(dataDir, 'archives'),
+    jwtSecret: e.JWT_SECRET,
+    jwtExpiresIn: e.JWT_EXPIRES_IN,
+    redisUrl: e.REDIS_URL,
+    smtpUrl: e.SMTP_URL,
+    mailFrom: e.MAIL_FROM,
+    publicUrl: e.PUBLIC_URL ?? `http://localhost:${e.PORT}`,
+    seedDemo,
+    embeddedWorkers: e.EMBEDDED_WORKERS,
+    uiDist: e.UI_DIST ? path.resolve(e.UI_DIST) : path.join(repoRoot, 'ui', 'dist'),
+    logLevel: e.LOG_LEVEL,
+    uploadMaxBytes: e.UPLOAD_MAX_BYTES,
+    uploadMaxRows: e.UPLOAD_MAX_ROWS,
+    appVersion: readAppVersion(),
+  };
+}

@@ -1,0 +1,35 @@
+import { z } from 'zod';
+
+/** Default secret for development only; production refuses to start with it. */
+export const DEV_JWT_SECRET = 'driftgrid-development-secret-change-me';
+
+const optionalUrl = z
+  .string()
+  .trim()
+  .transform((v) => (v === '' ? undefined : v))
+  .optional();
+
+/** Environment variables, validated once at start. */
+export const envSchema = z.object({
+  NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+  HOST: z.string().default('0.0.0.0'),
+  DATA_DIR: z.string().min(1).default('./data'),
+  JWT_SECRET: z.string().min(16, 'JWT_SECRET must be at least 16 characters').default(DEV_JWT_SECRET),
+  JWT_EXPIRES_IN: z.string().default('8h'),
+  REDIS_URL: optionalUrl,
+  SMTP_URL: optionalUrl,
+  MAIL_FROM: z.string().default('Driftgrid <driftgrid@localhost>'),
+  PUBLIC_URL: optionalUrl,
+  /** Seed the demo users on a new database (always in development; production only when set). */
+  DEMO_SEED: z.enum(['auto', 'true', 'false']).default('auto'),
+  /** Production refuses demo users and the default secret unless this is set (for a trial install). */
+  ALLOW_INSECURE_DEMO: z.enum(['true', 'false']).default('false'),
+  EMBEDDED_WORKERS: z.coerce.number().int().min(0).max(64).default(1),
+  UI_DIST: z.string().optional(),
+  LOG_LEVEL: z.enum(['debug', 'info', 'warn', 'error', 'silent']).default('info'),
+  UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(20 * 1024 * 1024),
+  UPLOAD_MAX_ROWS: z.coerce.number().int().positive().default(200_000),
+});
+
+export type Env = z.infer<typeof envSchema>;

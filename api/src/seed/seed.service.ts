@@ -1,0 +1,43 @@
+import { Inject, Injectable, Logger } from '@nestjs/common';
+import { PasswordService } from '../auth/password.service.js';
+import { Clock } from '../common/clock.js';
+import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
+import { DB_HANDLE } from '../db/db.module.js';
+import type { OpenedDatabase } from '../db/database.js';
+import { UsersRepository } from '../users/users.repository.js';
+import { DEMO_PASSWORD, DEMO_USERS } from './demo-users.js';
+
+/** A step of the demo seed contributed by a feature module (sweeps, datasets, fits). */
+export abstract class DemoSeedStep {
+  abstract readonly order: number;
+  abstract run(users: Record<string, number>): Promise<void>;
+}
+
+/** Seeds the demo only when the database file was created by this start. */
+@Injectable()
+export class SeedService {
+  private readonly logger = new Logger('Seed');
+
+  constructor(
+    @Inject(APP_CONFIG) private readonly config: AppConfig,
+    @Inject(DB_HANDLE) private readonly handle: OpenedDatabase,
+    private readonly users: UsersRepository,
+    private readonly passwords: PasswordService,
+    private readonly clock: Clock,
+  ) {}
+
+  shouldSeed(): boolean {
+    return this.config.seedDemo && this.handle.created && this.users.count() === 0;
+  }
+
+  async seedUsers(): Promise<Record<string, number>> {
+    const hash = await this.passwords.hash(DEMO_PASSWORD);
+    const now = this.clock.now();
+    const ids: Record<string, number> = {};
+    for (const u of DEMO_USERS) {
+      ids[u.role] = this.users.insert({ ...u, passwordHash: hash, active: true, createdAt: now, updatedAt: now }).id;
+    }
+    this.logger.log(`Seeded ${DEMO_USERS.length} demo users`);
+    return ids;
+  }
+}
