@@ -1,0 +1,2 @@
+export * from './worker-config.js';
+export * from './worker.module.js';

@@ -1,0 +1,19 @@
+import os from 'node:os';
+
+/** Standalone worker settings, validated once. Workers never open SQLite: they need only Redis. */
+export interface WorkerConfig {
+  redisUrl: string;
+  concurrency: number;
+  workerId: string;
+}
+
+export function loadWorkerConfig(env: NodeJS.ProcessEnv = process.env): WorkerConfig {
+  const redisUrl = env.REDIS_URL?.trim();
+  if (!redisUrl) throw new Error('REDIS_URL is required for a standalone worker (e.g. redis://127.0.0.1:6379)');
+  if (!/^rediss?:\/\//.test(redisUrl)) throw new Error('REDIS_URL must start with redis:// or rediss://');
+  const concurrency = env.WORKER_CONCURRENCY ? Number(env.WORKER_CONCURRENCY) : 1;
+  if (!Number.isInteger(concurrency) || concurrency < 1 || concurrency > 64) {
+    throw new Error('WORKER_CONCURRENCY must be a whole number from 1 to 64');
+  }
+  return { redisUrl, concurrency, workerId: `${os.hostname()}:${process.pid}` };
+}
