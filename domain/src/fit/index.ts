@@ -1,1 +1,5 @@
-export {};
+// Fit engine: reduced models fitted by Levenberg–Marquardt with standard errors (SPEC §8).
+export { fitModel } from './fit-model.js';
+export { fitRequestSchema, type FitRequest } from './schema.js';
+export { FIT_MODEL_KINDS } from './types.js';
+export type { FitInput, FitResult, FitModelKind, FitParameter, ParameterBound, Column } from './types.js';

@@ -1,0 +1,119 @@
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { fitModel } from './fit-model.js';
+import type { FitResult } from './types.js';
+
+/**
+ * NIST Statistical Reference Datasets (StRD), Nonlinear Regression — certified parameters,
+ * standard deviations and residual sums of squares, computed by NIST in extended precision.
+ * Files copied to tests/reference/strd/ (see the README there for the source).
+ * LRE = −log10(|estimate − certified| / |certified|), the measure StRD results are reported in.
+ */
+const dir = new URL('../../../tests/reference/strd/', import.meta.url);
+
+// The NIST model formulas, written as mathjs expressions (`**` → `^`, `exp[…]` → `exp(…)`).
+const MODELS: Record<string, string> = {
+  DanWood: 'b1*x^b2',
+  Misra1a: 'b1*(1-exp(-b2*x))',
+  Misra1b: 'b1 * (1-(1+b2*x/2)^(-2))',
+  Misra1c: 'b1 * (1-(1+2*b2*x)^(-.5))',
+  Misra1d: 'b1*b2*x*((1+b2*x)^(-1))',
+  BoxBOD: 'b1*(1-exp(-b2*x))',
+  Eckerle4: '(b1/b2) * exp(-0.5*((x-b3)/b2)^2)',
+  Chwirut2: 'exp(-b1*x)/(b2+b3*x)',
+  Chwirut1: 'exp(-b1*x)/(b2+b3*x)',
+  Rat42: 'b1 / (1+exp(b2-b3*x))',
+  Rat43: 'b1 / ((1+exp(b2-b3*x))^(1/b4))',
+  Bennett5: 'b1 * (b2+x)^(-1/b3)',
+  MGH09: 'b1*(x^2+x*b2) / (x^2+x*b3+b4)',
+  Thurber: '(b1 + b2*x + b3*x^2 + b4*x^3) / (1 + b5*x + b6*x^2 + b7*x^3)',
+};
+
+interface Certified {
+  name: string;
+  difficulty: string;
+  rss: number;
+  residualSd: number;
+  params: { name: string; start1: number; start2: number; value: number; sd: number }[];
+}
+
+function csv(file: string): string[][] {
+  return readFileSync(new URL(file, dir), 'utf8')
+    .trim()
+    .split(/\r?\n/)
+    .slice(1)
+    .map((line) => line.split(','));
+}
+
+function loadCertified(): Certified[] {
+  const byName = new Map<string, Certified>();
+  for (const row of csv('certified_summary.csv')) {
+    // dataset,nist_difficulty,model,n_obs,dof,residual_sum_of_squares,residual_std_dev,param,start1,start2,certified_value,certified_std_dev
+    const [name, difficulty, , , , rss, rsd, param, s1, s2, value, sd] = row as [string, string, ...string[]];
+    let entry = byName.get(name);
+    if (!entry) {
+      entry = { name, difficulty, rss: Number(rss), residualSd: Number(rsd), params: [] };
+      byName.set(name, entry);
+    }
+    entry.params.push({ name: param!, start1: Number(s1), start2: Number(s2), value: Number(value), sd: Number(sd) });
+  }
+  return [...byName.values()];
+}
+
+function lre(estimate: number, certified: number): number {
+  const rel = Math.abs(estimate - certified) / Math.abs(certified);
+  return rel === 0 ? 15 : Math.min(15, -Math.log10(rel));
+}
+
+const datasets = loadCertified();
+const table: Record<string, unknown>[] = [];
+
+describe('NIST StRD nonlinear regression (source: NIST ITL Statistical Reference Datasets)', () => {
+  it('covers every dataset in the reference folder', () => {
+    expect(datasets.map((d) => d.name).sort()).toEqual(Object.keys(MODELS).sort());
+    expect(datasets).toHaveLength(14);
+  });
+
+  for (const cert of datasets) {
+    for (const start of [1, 2] as const) {
+      it(`${cert.name} (${cert.difficulty} difficulty) from NIST start ${start}`, () => {
+        const rows = csv(`${cert.name}_data.csv`).map((r) => r.map(Number));
+        const x = rows.map((r) => r[0]!);
+        const y = rows.map((r) => r[1]!);
+        const params = Object.fromEntries(cert.params.map((p) => [p.name, start === 1 ? p.start1 : p.start2]));
+        const result: FitResult = fitModel({ model: 'expression', expr: MODELS[cert.name]!, x: { x }, xNames: ['x'], y, params });
+        const paramLre = cert.params.map((p) => lre(result.parameters.find((q) => q.name === p.name)!.value, p.value));
+        const sdLre = cert.params.map((p) => lre(result.parameters.find((q) => q.name === p.name)!.stdError, p.sd));
+        const rssLre = lre(result.rss, cert.rss);
+        table.push({
+          dataset: cert.name,
+          start,
+          converged: result.converged,
+          its: result.iterations,
+          minLreParam: Math.min(...paramLre).toFixed(1),
+          minLreSd: Math.min(...sdLre).toFixed(1),
+          lreRss: rssLre.toFixed(1),
+        });
+        if (!result.converged) {
+          // Only a higher-difficulty dataset from the far start 1 may fail, and then it must say so.
+          expect(cert.difficulty, result.message).toBe('Higher');
+          expect(start).toBe(1);
+          expect(result.message).toMatch(/not converged/);
+          return;
+        }
+        // A result marked converged must be right: ≥ 5 digits for parameters, ≥ 3 for SDs (NIST certified).
+        expect(Math.min(...paramLre), `parameter LREs ${paramLre.map((v) => v.toFixed(1))}`).toBeGreaterThanOrEqual(5);
+        expect(Math.min(...sdLre), `SD LREs ${sdLre.map((v) => v.toFixed(1))}`).toBeGreaterThanOrEqual(3);
+        // Certified residual sum of squares and residual standard deviation (NIST).
+        expect(rssLre).toBeGreaterThanOrEqual(6);
+        expect(lre(result.residualSd, cert.residualSd)).toBeGreaterThanOrEqual(6);
+        expect(result.dof).toBe(x.length - cert.params.length);
+      });
+    }
+  }
+
+  it('prints the LRE table', () => {
+    console.table(table);
+    expect(table.length).toBe(28);
+  });
+});
