@@ -1,3 +1,4 @@
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { gridDigits, gridIncrement, gridIndex, gridSize } from './grid.js';
 
@@ -40,5 +41,19 @@ describe('grid mixed-radix indexing', () => {
     const big = [100000, 100000, 1000];
     const i = 9_876_543_210_987;
     expect(gridIndex(gridDigits(i, big), big)).toBe(i);
+  });
+
+  it('round-trips random indices of random grids (property test)', () => {
+    fc.assert(
+      fc.property(
+        fc.array(fc.integer({ min: 1, max: 10000 }), { minLength: 1, maxLength: 6 }).chain((radices) =>
+          fc.tuple(fc.constant(radices), fc.integer({ min: 0, max: Math.min(Number.MAX_SAFE_INTEGER, gridSize(radices)) - 1 })),
+        ),
+        ([radices, i]) => {
+          const d = gridDigits(i, radices);
+          return gridIndex(d, radices) === i && Array.from(d).every((x, a) => x >= 0 && x < radices[a]!);
+        },
+      ),
+    );
   });
 });
