@@ -23,7 +23,7 @@ export interface FitInput {
   expr?: string;
   /** Start values by parameter name (required for `expression`, optional overrides otherwise). */
   params?: Record<string, number>;
-  /** Iteration budget for the whole fit (library stage + refinement). Default 500. */
+  /** Iteration budget per attempt (library stage + refinement; one retry from the start values if the first attempt fails). Default 500. */
   maxIterations?: number;
   bounds?: Record<string, ParameterBound>;
 }
