@@ -1,0 +1,101 @@
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useCallback } from 'react';
+import { useNavigate } from 'react-router-dom';
+import { clearSession, getToken, setSession, updateSessionUser, useSession, type Role, type SessionUser } from '../auth/session.js';
+import { api } from './client.js';
+import { queryKeys } from './queryKeys.js';
+
+export type { Role, SessionUser };
+
+export interface LoginRequest {
+  email: string;
+  password: string;
+}
+export interface LoginResponse {
+  accessToken: string;
+  user: SessionUser;
+}
+
+/** SPEC §9 quota fields; every field optional because the api may send only some. */
+export interface Quota {
+  maxPointsPerSweep?: number;
+  maxRunningSweeps?: number;
+  maxPointsPer30Days?: number;
+  maxStoredPoints?: number;
+}
+export interface Usage {
+  runningSweeps?: number;
+  pointsLast30Days?: number;
+  storedPoints?: number;
+  [key: string]: number | undefined;
+}
+export interface Me extends SessionUser {
+  quota?: Quota;
+  usage?: Usage;
+}
+
+export function login(body: LoginRequest): Promise<LoginResponse> {
+  return api.post<LoginResponse>('/auth/login', body, { auth: false });
+}
+
+/** Accepts `{ …user, quota, usage }` or `{ user, quota, usage }`; quota and usage may be absent. */
+export function normaliseMe(raw: unknown): Me {
+  const r = (raw ?? {}) as Record<string, unknown>;
+  const user = (r.user && typeof r.user === 'object' ? r.user : r) as SessionUser;
+  const quota = (r.quota ?? (r.user as Record<string, unknown> | undefined)?.quota) as Quota | undefined;
+  const usage = (r.usage ?? (r.user as Record<string, unknown> | undefined)?.usage) as Usage | undefined;
+  return { id: user.id, email: user.email, name: user.name, role: user.role, quota, usage };
+}
+
+export async function fetchMe(signal?: AbortSignal): Promise<Me> {
+  return normaliseMe(await api.get<unknown>('/auth/me', undefined, signal));
+}
+
+/** The signed-in user, fresh from the server; `undefined` while signed out. */
+export function useMe() {
+  const session = useSession();
+  return useQuery({
+    queryKey: queryKeys.me(),
+    queryFn: async ({ signal }) => {
+      const me = await fetchMe(signal);
+      updateSessionUser({ id: me.id, email: me.email, name: me.name, role: me.role });
+      return me;
+    },
+    enabled: !!session,
+    // Until the server answers, show what sign-in returned.
+    placeholderData: session ? { ...session.user } : undefined,
+  });
+}
+
+/** Sign in: store the session, start from an empty cache, seed `me`. */
+export function useLogin() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: login,
+    onSuccess: (res) => {
+      qc.clear();
+      setSession({ accessToken: res.accessToken, user: res.user });
+      qc.setQueryData(queryKeys.me(), { ...res.user } satisfies Me);
+    },
+  });
+}
+
+/** Sign out on purpose: forget the token and every cached answer. Drafts stay (per user). */
+export function useSignOut() {
+  const qc = useQueryClient();
+  const navigate = useNavigate();
+  return useCallback(() => {
+    clearSession();
+    qc.clear();
+    navigate('/sign-in', { replace: true });
+  }, [qc, navigate]);
+}
+
+export function isSignedIn(): boolean {
+  return getToken() !== null;
+}
+
+export function hasRole(user: Pick<SessionUser, 'role'> | null | undefined, roles: readonly Role[] | undefined): boolean {
+  if (!roles || roles.length === 0) return true;
+  return !!user && roles.includes(user.role);
+}

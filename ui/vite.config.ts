@@ -1,0 +1,41 @@
+import { defineConfig } from 'vite';
+import react from '@vitejs/plugin-react';
+import { fileURLToPath } from 'node:url';
+
+// `@driftgrid/domain` resolves through the workspace package (domain/dist); only vitest aliases
+// it to source. Chart and table libraries are reached only from lazy routes, so they land in
+// their own chunks and the first load (sign-in) carries React, the router and Mantine core only.
+export default defineConfig({
+  root: fileURLToPath(new URL('.', import.meta.url)),
+  plugins: [react()],
+  server: {
+    host: '127.0.0.1',
+    port: 5173,
+    proxy: { '/api': { target: 'http://127.0.0.1:3000' } },
+  },
+  preview: {
+    host: '127.0.0.1',
+    port: 4173,
+    proxy: { '/api': { target: 'http://127.0.0.1:3000' } },
+  },
+  build: {
+    outDir: 'dist',
+    emptyOutDir: true,
+    target: 'es2022',
+    rolldownOptions: {
+      output: {
+        codeSplitting: {
+          groups: [
+            // Stable vendor chunks cache well across releases; lazy-only libraries stay lazy.
+            { name: 'charts', test: /node_modules[\\/](echarts|zrender)[\\/]/, priority: 30 },
+            { name: 'tables', test: /node_modules[\\/](mantine-react-table|@tanstack[\\/](react-table|table-core|react-virtual|virtual-core|match-sorter-utils))[\\/]/, priority: 30 },
+            { name: 'dates', test: /node_modules[\\/](@mantine[\\/]dates|dayjs)[\\/]/, priority: 30 },
+            { name: 'dropzone', test: /node_modules[\\/](@mantine[\\/]dropzone|react-dropzone|attr-accept|file-selector)[\\/]/, priority: 30 },
+            { name: 'react', test: /node_modules[\\/](react|react-dom|scheduler|react-router|react-router-dom|cookie|set-cookie-parser)[\\/]/, priority: 20 },
+            { name: 'mantine', test: /node_modules[\\/](@mantine[\\/](core|hooks|notifications|store)|@floating-ui|react-remove-scroll|react-remove-scroll-bar|react-style-singleton|use-callback-ref|use-sidecar|react-number-format|react-textarea-autosize|clsx|tslib|get-nonce|detect-node-es)[\\/]/, priority: 20 },
+          ],
+        },
+      },
+    },
+  },
+});
