@@ -23,6 +23,9 @@ export interface AppConfig {
   logLevel: Env['LOG_LEVEL'];
   uploadMaxBytes: number;
   uploadMaxRows: number;
+  /** Attempts per IP+e-mail per window on sign-in and password reset (the IP alone gets 5×). */
+  loginThrottleLimit: number;
+  loginThrottleTtlMs: number;
   appVersion: string;
 }
 
@@ -75,6 +78,9 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
     logLevel: e.LOG_LEVEL,
     uploadMaxBytes: e.UPLOAD_MAX_BYTES,
     uploadMaxRows: e.UPLOAD_MAX_ROWS,
+    // Test suites sign in many times from one address; a dedicated test sets a low limit.
+    loginThrottleLimit: e.LOGIN_THROTTLE_LIMIT ?? (e.NODE_ENV === 'test' ? 1000 : 10),
+    loginThrottleTtlMs: e.LOGIN_THROTTLE_TTL_MS,
     appVersion: readAppVersion(),
   };
 }

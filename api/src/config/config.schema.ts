@@ -30,6 +30,9 @@ export const envSchema = z.object({
   LOG_LEVEL: z.enum(['debug', 'info', 'warn', 'error', 'silent']).default('info'),
   UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(20 * 1024 * 1024),
   UPLOAD_MAX_ROWS: z.coerce.number().int().positive().default(200_000),
+  /** Sign-in and password-reset attempts per IP and e-mail address per window (default 10; 1000 under NODE_ENV=test). */
+  LOGIN_THROTTLE_LIMIT: z.coerce.number().int().min(1).optional(),
+  LOGIN_THROTTLE_TTL_MS: z.coerce.number().int().min(1000).default(60_000),
 });
 
 export type Env = z.infer<typeof envSchema>;
