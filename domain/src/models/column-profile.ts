@@ -36,7 +36,7 @@ const inputs: InputSpec[] = [
   { name: 'phi0_V', symbol: 'φ_0', unit: 'V', default: 0, min: -1e7, max: 1e7, meaning: 'Potential on the axis; the potential has the same Gaussian shape.' },
   { name: 'gamma_e', symbol: 'γ_e', unit: '1', default: 1, min: 0, minExclusive: true, max: 10, meaning: 'Electron polytropic index; T_e ∝ n^(γ_e−1).' },
   { name: 'gamma_i', symbol: 'γ_i', unit: '1', default: 1, min: 0, minExclusive: true, max: 10, meaning: 'Ion polytropic index; T_i ∝ n^(γ_i−1).' },
-  { name: 'mu', symbol: 'μ', unit: '1', default: 39.948, min: 1, max: 500, meaning: 'Ion mass in proton masses (39.948 argon, 2 deuterium).' },
+  { name: 'mu', symbol: 'μ', unit: '1', default: 39.66, min: 1, max: 500, meaning: 'Ion mass in proton masses m_i/m_p (argon 39.66, i.e. 39.948 u; deuterium 2).' },
   { name: 'Z', symbol: 'Z', unit: '1', default: 1, min: 1, max: 100, meaning: 'Ion charge state; n_i = n_e/Z.' },
   { name: 'nr', symbol: 'N_r', unit: '1', default: 256, min: 16, max: 8192, integer: true, meaning: 'Number of radial grid nodes from the axis to rmax.' },
   { name: 'rmax_over_a', symbol: 'r_max/a', unit: '1', default: 3, min: 2, max: 20, meaning: 'Outer edge of the radial grid in units of a.' },

@@ -19,7 +19,7 @@ const inputs: InputSpec[] = [
   { name: 'gamma_e', symbol: 'γ_e', unit: '1', default: 1, min: 0, minExclusive: true, max: 10, meaning: 'Electron polytropic index (1 isothermal, 5/3 adiabatic).' },
   { name: 'gamma_i', symbol: 'γ_i', unit: '1', default: 1, min: 0, minExclusive: true, max: 10, meaning: 'Ion polytropic index (1 isothermal, 3 one-dimensional adiabatic).' },
   { name: 'Er_Vm', symbol: 'E_r', unit: 'V/m', default: 0, min: -1e12, max: 1e12, meaning: 'Radial electric field, positive outward.' },
-  { name: 'mu', symbol: 'μ', unit: '1', default: 2, min: 1, max: 500, meaning: 'Ion mass in proton masses (2 deuterium, 39.948 argon).' },
+  { name: 'mu', symbol: 'μ', unit: '1', default: 2, min: 1, max: 500, meaning: 'Ion mass in proton masses m_i/m_p (deuterium 2, argon 39.66).' },
   { name: 'Z', symbol: 'Z', unit: '1', default: 1, min: 1, max: 100, meaning: 'Ion charge state; ion density n_i = n_e/Z.' },
 ];
 

@@ -17,7 +17,7 @@ const inputs: InputSpec[] = [
   { name: 'phi_V', symbol: 'φ', unit: 'V', default: -5, min: -1e7, max: 1e7, meaning: 'Electrostatic potential relative to the reference point.' },
   { name: 'gamma_e', symbol: 'γ_e', unit: '1', default: 1, min: 0, minExclusive: true, max: 10, meaning: 'Electron polytropic index (1 gives the Boltzmann relation).' },
   { name: 'Lpar_m', symbol: 'L_∥', unit: 'm', default: 1, min: 0, minExclusive: true, max: 1e15, meaning: 'Parallel density gradient length n/|∇_∥ n|.' },
-  { name: 'mu', symbol: 'μ', unit: '1', default: 1, min: 1, max: 500, meaning: 'Ion mass in proton masses, for the sheath edge and wall potential (1 hydrogen, 39.948 argon).' },
+  { name: 'mu', symbol: 'μ', unit: '1', default: 1, min: 1, max: 500, meaning: 'Ion mass in proton masses, for the sheath edge and wall potential (hydrogen 1, argon 39.66).' },
 ];
 
 const outputs: OutputSpec[] = [
