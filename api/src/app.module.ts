@@ -9,13 +9,15 @@ import { DbModule } from './db/db.module.js';
 import { HealthModule } from './health/health.module.js';
 import { SeedModule } from './seed/seed.module.js';
 import { UsersModule } from './users/users.module.js';
+import { QueueModule } from './queue/queue.module.js';
+import { SweepsModule } from './sweeps/sweeps.module.js';
 
 @Module({})
 export class AppModule {
   static forRoot(config: AppConfig): DynamicModule {
     return {
       module: AppModule,
-      imports: [ConfigModule.forRoot(config), ClockModule, DbModule, UsersModule, AuthModule, HealthModule, SeedModule],
+      imports: [ConfigModule.forRoot(config), ClockModule, DbModule, UsersModule, AuthModule, HealthModule, SeedModule, QueueModule.forRoot(config), SweepsModule],
       providers: [{ provide: APP_FILTER, useClass: HttpErrorFilter }],
     };
   }

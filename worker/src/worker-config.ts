@@ -4,6 +4,8 @@ import os from 'node:os';
 export interface WorkerConfig {
   redisUrl: string;
   concurrency: number;
+  /** Compute threads; default one per chunk in flight. */
+  threads: number;
   workerId: string;
 }
 
@@ -15,5 +17,7 @@ export function loadWorkerConfig(env: NodeJS.ProcessEnv = process.env): WorkerCo
   if (!Number.isInteger(concurrency) || concurrency < 1 || concurrency > 64) {
     throw new Error('WORKER_CONCURRENCY must be a whole number from 1 to 64');
   }
-  return { redisUrl, concurrency, workerId: `${os.hostname()}:${process.pid}` };
+  const threads = env.WORKER_THREADS ? Number(env.WORKER_THREADS) : concurrency;
+  if (!Number.isInteger(threads) || threads < 0 || threads > 64) throw new Error('WORKER_THREADS must be a whole number from 0 to 64');
+  return { redisUrl, concurrency, threads, workerId: `${os.hostname()}:${process.pid}` };
 }

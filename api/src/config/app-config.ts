@@ -18,7 +18,9 @@ export interface AppConfig {
   mailFrom: string;
   publicUrl: string;
   seedDemo: boolean;
-  embeddedWorkers: number;
+  /** undefined = automatic (1 embedded, 0 with REDIS_URL). */
+  embeddedWorkers?: number;
+  chunkSize: number;
   uiDist: string;
   logLevel: Env['LOG_LEVEL'];
   uploadMaxBytes: number;
@@ -74,6 +76,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
     publicUrl: e.PUBLIC_URL ?? `http://localhost:${e.PORT}`,
     seedDemo,
     embeddedWorkers: e.EMBEDDED_WORKERS,
+    chunkSize: e.CHUNK_SIZE,
     uiDist: e.UI_DIST ? path.resolve(e.UI_DIST) : path.join(repoRoot, 'ui', 'dist'),
     logLevel: e.LOG_LEVEL,
     uploadMaxBytes: e.UPLOAD_MAX_BYTES,

@@ -25,7 +25,9 @@ export const envSchema = z.object({
   DEMO_SEED: z.enum(['auto', 'true', 'false']).default('auto'),
   /** Production refuses demo users and the default secret unless this is set (for a trial install). */
   ALLOW_INSECURE_DEMO: z.enum(['true', 'false']).default('false'),
-  EMBEDDED_WORKERS: z.coerce.number().int().min(0).max(64).default(1),
+  /** Compute threads inside the api; default 1 without REDIS_URL, 0 with it (standalone workers). */
+  EMBEDDED_WORKERS: z.coerce.number().int().min(0).max(64).optional(),
+  CHUNK_SIZE: z.coerce.number().int().min(100).max(100_000).default(5000),
   UI_DIST: z.string().optional(),
   LOG_LEVEL: z.enum(['debug', 'info', 'warn', 'error', 'silent']).default('info'),
   UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(20 * 1024 * 1024),

@@ -1,0 +1,34 @@
+import { Injectable, Logger } from '@nestjs/common';
+import type { RoleName } from '@driftgrid/domain';
+
+export interface QuotaViolation {
+  limit: string;
+  value: number;
+  usage: number;
+  requested: number;
+  message: string;
+}
+
+export interface QuotaVerdict {
+  allowed: boolean;
+  violations: QuotaViolation[];
+}
+
+/** Quota checks the sweep service consults (synchronous, so check + insert is one atomic step). */
+export abstract class QuotaGate {
+  abstract verdict(userId: number, role: RoleName, points: number): QuotaVerdict;
+  abstract assertAllowed(userId: number, role: RoleName, points: number): void;
+}
+
+/** Tells a sweep's owner that it finished (e-mail once the mail module is wired). */
+export abstract class SweepNotifier {
+  abstract sweepFinished(event: { sweepId: number; ownerId: number; name: string; status: 'completed' | 'failed'; error?: string | null }): Promise<void>;
+}
+
+@Injectable()
+export class LogSweepNotifier extends SweepNotifier {
+  private readonly logger = new Logger('SweepNotifier');
+  async sweepFinished(e: { sweepId: number; name: string; status: string; error?: string | null }): Promise<void> {
+    this.logger.log(`sweep ${e.sweepId} "${e.name}" ${e.status}${e.error ? `: ${e.error}` : ''}`);
+  }
+}

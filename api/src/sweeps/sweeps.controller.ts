@@ -1,0 +1,54 @@
+import { Body, Controller, Delete, Get, HttpCode, Param, ParseIntPipe, Post } from '@nestjs/common';
+import { ApiBearerAuth, ApiBody, ApiOperation, ApiTags } from '@nestjs/swagger';
+import { sweepDefinitionSchema } from '@driftgrid/domain';
+import { Roles, SignedIn } from '../auth/access.decorators.js';
+import { CurrentUser, type AuthUser } from '../auth/current-user.js';
+import { openApiSchema } from '../common/openapi.js';
+import { SweepsService } from './sweeps.service.js';
+
+@ApiTags('sweeps')
+@ApiBearerAuth()
+@Controller('sweeps')
+export class SweepsController {
+  constructor(private readonly sweeps: SweepsService) {}
+
+  @Post('preview')
+  @HttpCode(200)
+  @Roles('researcher', 'admin')
+  @ApiOperation({ summary: 'Point count, chunks, time estimate, quota verdict and every definition error' })
+  @ApiBody({ schema: openApiSchema(sweepDefinitionSchema) })
+  preview(@CurrentUser() user: AuthUser, @Body() body: unknown) {
+    return this.sweeps.preview(user, body);
+  }
+
+  @Post()
+  @Roles('researcher', 'admin')
+  @ApiOperation({ summary: 'Submit a sweep: 201 { id, status, points }; 400 bad definition; 429 quota' })
+  @ApiBody({ schema: openApiSchema(sweepDefinitionSchema) })
+  create(@CurrentUser() user: AuthUser, @Body() body: unknown) {
+    return this.sweeps.create(user, body);
+  }
+
+  @Get(':id')
+  @SignedIn()
+  @ApiOperation({ summary: 'Definition, status, progress and provenance of a sweep' })
+  get(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number) {
+    return this.sweeps.get(user, id);
+  }
+
+  @Post(':id/cancel')
+  @HttpCode(200)
+  @Roles('researcher', 'admin')
+  @ApiOperation({ summary: 'Cancel a queued or running sweep (owner or admin)' })
+  cancel(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number) {
+    return this.sweeps.cancel(user, id);
+  }
+
+  @Delete(':id')
+  @HttpCode(204)
+  @Roles('researcher', 'admin')
+  @ApiOperation({ summary: 'Delete a sweep and its results (owner or admin; archived sweeps cannot be deleted)' })
+  async remove(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number): Promise<void> {
+    await this.sweeps.remove(user, id);
+  }
+}

@@ -1,0 +1,24 @@
+import { BullModule } from '@nestjs/bullmq';
+import { Module } from '@nestjs/common';
+import { CHUNK_QUEUE, RESULT_QUEUE } from '@driftgrid/worker';
+import { ChunkDispatcher } from './chunk-dispatcher.js';
+import { LogSweepNotifier, QuotaGate, SweepNotifier } from './ports.js';
+import { PermissiveQuotaGate } from './permissive-quota-gate.js';
+import { ResultsProcessor } from './results.processor.js';
+import { SweepAccess } from './sweep-access.js';
+import { SweepPersistence } from './sweep-persistence.service.js';
+import { SweepsController } from './sweeps.controller.js';
+import { SweepsRepository } from './sweeps.repository.js';
+import { SweepsService } from './sweeps.service.js';
+
+@Module({
+  imports: [BullModule.registerQueue({ name: CHUNK_QUEUE }, { name: RESULT_QUEUE })],
+  controllers: [SweepsController],
+  providers: [
+    SweepsRepository, SweepsService, SweepAccess, SweepPersistence, ChunkDispatcher, ResultsProcessor,
+    { provide: SweepNotifier, useClass: LogSweepNotifier },
+    { provide: QuotaGate, useClass: PermissiveQuotaGate },
+  ],
+  exports: [SweepsRepository, SweepsService, SweepAccess, ChunkDispatcher],
+})
+export class SweepsModule {}

@@ -1,0 +1,132 @@
+import { Inject, Injectable } from '@nestjs/common';
+import {
+  ConflictError, checkSweep, planChunks, ValidationError, type CompiledSweep, type ErrorDetail,
+} from '@driftgrid/domain';
+import type { AuthUser } from '../auth/current-user.js';
+import { Clock } from '../common/clock.js';
+import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
+import { UsersRepository } from '../users/users.repository.js';
+import { ChunkDispatcher } from './chunk-dispatcher.js';
+import { QuotaGate } from './ports.js';
+import { SweepAccess } from './sweep-access.js';
+import { layoutColumns } from './sweep-layout.js';
+import { presentSweep } from './sweep.presenter.js';
+import { SweepsRepository, type SweepRow } from './sweeps.repository.js';
+
+/** Rows per second SQLite persists on this class of machine (refined from finished sweeps). */
+const DEFAULT_PERSIST_RATE = 200_000;
+
+@Injectable()
+export class SweepsService {
+  private persistRate = DEFAULT_PERSIST_RATE;
+
+  constructor(
+    @Inject(APP_CONFIG) private readonly config: AppConfig,
+    private readonly repo: SweepsRepository,
+    private readonly access: SweepAccess,
+    private readonly dispatcher: ChunkDispatcher,
+    private readonly quotas: QuotaGate,
+    private readonly users: UsersRepository,
+    private readonly clock: Clock,
+  ) {}
+
+  /** Everything the builder shows before submitting: counts, estimate, quota verdict, every error. */
+  preview(user: AuthUser, raw: unknown) {
+    const checked = checkSweep(raw);
+    if (!checked.ok) return { ok: false, errors: checked.errors, points: null, chunks: null, estimate: null, quota: null, sample: null };
+    const c = checked.compiled;
+    const quota = this.quotas.verdict(user.id, user.role, c.totalPoints);
+    const kernelRate = this.measureKernel(c);
+    const seconds = c.totalPoints / kernelRate + c.totalPoints / this.persistRate;
+    const sample = c.totalPoints > 0 ? c.evaluatePointAt(0) : null;
+    return {
+      ok: quota.allowed,
+      errors: [] as ErrorDetail[],
+      points: c.totalPoints,
+      chunks: Math.ceil(c.totalPoints / this.config.chunkSize),
+      estimate: { seconds, kernelPointsPerSecond: Math.round(kernelRate), persistRowsPerSecond: Math.round(this.persistRate) },
+      quota,
+      columns: c.columns,
+      sample,
+    };
+  }
+
+  /** Times the kernel on this very sweep (a few thousand points at most). */
+  private measureKernel(c: CompiledSweep): number {
+    const n = Math.min(2000, c.totalPoints);
+    if (n === 0) return 1e6;
+    const t0 = performance.now();
+    c.evaluateChunk(0, n);
+    const ms = Math.max(performance.now() - t0, 0.05);
+    return (n / ms) * 1000;
+  }
+
+  async create(user: AuthUser, raw: unknown): Promise<{ id: number; status: string; points: number }> {
+    const checked = checkSweep(raw);
+    if (!checked.ok) throw new ValidationError(`Invalid sweep definition: ${checked.errors[0].path}: ${checked.errors[0].message}`, checked.errors);
+    const c = checked.compiled;
+    if (c.totalPoints < 1) throw new ValidationError('The sweep has no points', [{ path: 'axes', message: 'at least one point is needed' }]);
+    const layout = layoutColumns(c.columns);
+    const chunks = planChunks(c.totalPoints, this.config.chunkSize);
+    const now = this.clock.now();
+    const d = c.definition;
+    // Quota check and insert in one synchronous transaction: concurrent submits cannot both pass.
+    const row = this.repo.transaction(() => {
+      this.quotas.assertAllowed(user.id, user.role, c.totalPoints);
+      return this.repo.insert({
+        ownerId: user.id, name: d.name, model: d.model, modelVersion: c.model.version, appVersion: this.config.appVersion,
+        status: 'queued', definition: JSON.stringify(raw), columns: JSON.stringify(layout), visibility: d.visibility ?? 'private',
+        points: c.totalPoints, chunkCount: chunks.length, createdAt: now,
+      }, d.tags ?? [], chunks, now);
+    });
+    await this.dispatcher.enqueue(row);
+    return { id: row.id, status: row.status, points: row.points };
+  }
+
+  get(user: AuthUser, id: number) {
+    return this.present(this.access.readable(user, id));
+  }
+
+  present(s: SweepRow) {
+    const owner = this.users.findById(s.ownerId);
+    this.learnPersistRate(s);
+    return presentSweep(s, {
+      tags: this.repo.tags(s.id),
+      owner: { id: s.ownerId, name: owner?.name ?? 'unknown', email: owner?.email ?? '' },
+      workers: this.repo.workerSummary(s.id),
+      sharedWith: this.repo.sharedWith(s.id),
+    });
+  }
+
+  private learnPersistRate(s: SweepRow): void {
+    if (s.status !== 'completed' || !s.startedAt || !s.finishedAt || s.points < 50_000) return;
+    const rate = s.points / Math.max((s.finishedAt - s.startedAt) / 1000, 0.001);
+    this.persistRate = 0.5 * this.persistRate + 0.5 * rate;
+  }
+
+  async cancel(user: AuthUser, id: number) {
+    const s = this.access.manageable(user, id);
+    const now = this.clock.now();
+    const pending = this.repo.transaction(() => {
+      if (!this.repo.transition(id, ['queued', 'running', 'draft'], { status: 'cancelled', finishedAt: now })) {
+        throw new ConflictError(`Sweep ${id} is ${s.status}; only queued or running sweeps can be cancelled`);
+      }
+      const open = this.repo.chunks(id, ['queued', 'running']).map((c) => c.chunkIndex);
+      this.repo.setChunkStates(id, ['queued', 'running'], 'cancelled', now);
+      return open;
+    });
+    await this.dispatcher.withdraw(id, pending);
+    return this.get(user, id);
+  }
+
+  async remove(user: AuthUser, id: number): Promise<void> {
+    const s = this.access.manageable(user, id);
+    if (s.status === 'archived') throw new ConflictError(`Sweep ${id} is archived and cannot be deleted`);
+    let pending: number[] = [];
+    if (s.status === 'queued' || s.status === 'running') {
+      pending = this.repo.chunks(id, ['queued', 'running']).map((c) => c.chunkIndex);
+    }
+    this.repo.delete(id);
+    await this.dispatcher.withdraw(id, pending);
+  }
+}

@@ -1,0 +1,31 @@
+import { compileSweep, type CompiledSweep } from '@driftgrid/domain';
+import type { ChunkJobData } from './chunk-job.js';
+
+export interface ComputedChunk {
+  n: number;
+  columns: Record<string, Float64Array>;
+  flags: Uint32Array;
+  computeMs: number;
+}
+
+// Compiling a definition parses expressions and resolves axes; do it once per sweep per thread.
+const cache = new Map<string, CompiledSweep>();
+const CACHE_LIMIT = 16;
+
+function compiled(data: ChunkJobData): CompiledSweep {
+  const key = `${data.sweepId}:${data.definitionHash}`;
+  let c = cache.get(key);
+  if (!c) {
+    c = compileSweep(data.definition);
+    if (cache.size >= CACHE_LIMIT) cache.delete(cache.keys().next().value as string);
+    cache.set(key, c);
+  }
+  return c;
+}
+
+/** Evaluates the chunk [i0, i1) of a sweep: pure computation, no I/O. */
+export function computeChunk(data: ChunkJobData): ComputedChunk {
+  const started = performance.now();
+  const out = compiled(data).evaluateChunk(data.i0, data.i1);
+  return { n: out.n, columns: out.columns, flags: out.flags, computeMs: performance.now() - started };
+}

@@ -1,0 +1,4 @@
+/** The chunk jobs: one per slice [i0, i1) of a sweep. */
+export const CHUNK_QUEUE = 'sweep-chunks';
+/** Chunk results travel back to the api through this queue; only the api consumes it (it owns SQLite). */
+export const RESULT_QUEUE = 'sweep-results';
