@@ -139,6 +139,30 @@ describe('compileSweep: units and random designs', () => {
     expect(reseeded.pointAt(0).B_T).not.toBe(sweep.pointAt(0).B_T);
   });
 
+  it('spreads a list axis evenly over a latin hypercube (counts fixed up to the two straddling strata)', () => {
+    const sweep = compileSweep({
+      name: 'list balance',
+      model: 'parallel-balance',
+      axes: [
+        { param: 'gamma_e', kind: 'list', values: [1, 1.2, 1.6667] },
+        { param: 'Te_eV', kind: 'log', min: 1, max: 100 },
+      ],
+      sampling: { kind: 'latin-hypercube', samples: 1000, seed: 5 },
+    });
+    const g = sweep.evaluateChunk(0, 1000).columns['gamma_e']!;
+    const counts = new Map<number, number>();
+    for (const v of g) counts.set(v, (counts.get(v) ?? 0) + 1);
+    // Strata 0..332 lie wholly below 1/3, 334..665 wholly in [1/3, 2/3), 667..999 wholly above;
+    // strata 333 and 666 straddle a boundary and go either way with their offset.
+    expect(counts.get(1)! - 333).toBeGreaterThanOrEqual(0);
+    expect(counts.get(1)! - 333).toBeLessThanOrEqual(1);
+    expect(counts.get(1.2)! - 332).toBeGreaterThanOrEqual(0);
+    expect(counts.get(1.2)! - 332).toBeLessThanOrEqual(2);
+    expect(counts.get(1.6667)! - 333).toBeGreaterThanOrEqual(0);
+    expect(counts.get(1.6667)! - 333).toBeLessThanOrEqual(1);
+    expect(counts.get(1)! + counts.get(1.2)! + counts.get(1.6667)!).toBe(1000);
+  });
+
   it('maps Sobol points to axes: u = 0 at the minimum, u = 1/2 at the (log) midpoint, lists by floor(u·count)', () => {
     const sweep = compileSweep(fixture('sheath-sobol.json'));
     expect(sweep.totalPoints).toBe(1024);
