@@ -6,6 +6,9 @@ import request from 'supertest';
 import { loadConfig, type AppConfig } from '../../api/src/config/app-config.js';
 import { createApp } from '../../api/src/bootstrap.js';
 import { DEMO_PASSWORD } from '../../api/src/seed/demo-users.js';
+import { DB_HANDLE } from '../../api/src/db/db.module.js';
+import type { OpenedDatabase } from '../../api/src/db/database.js';
+import type Database from 'better-sqlite3';
 
 export interface TestApp {
   app: INestApplication;
@@ -14,6 +17,8 @@ export interface TestApp {
   http: ReturnType<typeof request>;
   /** Signs in and returns the bearer token. */
   login(email: string, password?: string): Promise<string>;
+  /** The app's own SQLite connection, for checks against the stored data. */
+  sqlite(): Database.Database;
   close(): Promise<void>;
 }
 
@@ -35,6 +40,7 @@ export async function startTestApp(env: Record<string, string> = {}): Promise<Te
       if (res.status !== 200) throw new Error(`login ${email} failed: ${res.status} ${JSON.stringify(res.body)}`);
       return res.body.accessToken as string;
     },
+    sqlite: () => app.get<OpenedDatabase>(DB_HANDLE).sqlite,
     async close() {
       await app.close();
       if (!env.DATA_DIR) fs.rmSync(dataDir, { recursive: true, force: true });

@@ -1,0 +1,95 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { DEMO, startTestApp, type TestApp } from '../support/app.js';
+import { smallSweep, waitForSweep } from '../support/sweeps.js';
+
+let t: TestApp;
+let researcher: string;
+let reviewer: string;
+let admin: string;
+beforeAll(async () => {
+  t = await startTestApp();
+  researcher = await t.login(DEMO.researcher);
+  reviewer = await t.login(DEMO.reviewer);
+  admin = await t.login(DEMO.admin);
+});
+afterAll(async () => {
+  await t?.close();
+});
+
+const auth = (token: string) => ({ authorization: `Bearer ${token}` });
+
+describe('sweep preview', () => {
+  it('counts points and chunks, estimates time and shows a sample point', async () => {
+    const res = await t.http.post('/api/sweeps/preview').set(auth(researcher)).send(smallSweep());
+    expect(res.status).toBe(200);
+    expect(res.body).toMatchObject({ ok: true, points: 35, chunks: 1 });
+    expect(res.body.estimate.seconds).toBeGreaterThan(0);
+    expect(res.body.sample.inputs.Te_eV).toBeCloseTo(1, 12);
+    expect(res.body.sample.inputs.Ti_eV).toBeCloseTo(res.body.sample.inputs.Te_eV, 12);
+  });
+
+  it('reports every definition error with its path', async () => {
+    const res = await t.http.post('/api/sweeps/preview').set(auth(researcher)).send(smallSweep({
+      axes: [{ param: 'Te_eV', kind: 'log', min: -1, max: 100, count: 7 }, { param: 'nonsense', kind: 'linear', min: 0, max: 1, count: 2 }],
+    }));
+    expect(res.status).toBe(200);
+    expect(res.body.ok).toBe(false);
+    const paths = res.body.errors.map((e: { path: string }) => e.path);
+    expect(paths.some((p: string) => p.startsWith('axes.0'))).toBe(true);
+    expect(paths.some((p: string) => p.startsWith('axes.1'))).toBe(true);
+  });
+
+  it('is closed to reviewers', async () => {
+    const res = await t.http.post('/api/sweeps/preview').set(auth(reviewer)).send(smallSweep());
+    expect(res.status).toBe(403);
+  });
+});
+
+describe('sweep life cycle', () => {
+  it('runs a sweep to completion with exactly its points and provenance', async () => {
+    const res = await t.http.post('/api/sweeps').set(auth(researcher)).send(smallSweep());
+    expect(res.status).toBe(201);
+    expect(res.body).toMatchObject({ status: 'queued', points: 35 });
+    const done = await waitForSweep(t, researcher, res.body.id);
+    expect(done.status).toBe('completed');
+    expect(done.progress).toMatchObject({ done: 35, total: 35 });
+    expect(done.provenance.workers.reduce((a: number, w: { points: number }) => a + w.points, 0)).toBe(35);
+    expect(done.provenance.workers[0].id).toMatch(/^.+:\d+$/);
+    expect(done.provenance.modelVersion).toBeTruthy();
+    expect(done.owner.email).toBe(DEMO.researcher);
+    // Exactly one stored row per point, indices 0..34 with no gaps.
+    const rows = t.sqlite().prepare('SELECT id - ? * 4294967296 AS idx FROM results WHERE id BETWEEN ? AND ? ORDER BY id')
+      .all(done.id, done.id * 2 ** 32, (done.id + 1) * 2 ** 32 - 1) as { idx: number }[];
+    expect(rows.map((r) => r.idx)).toEqual(Array.from({ length: 35 }, (_, i) => i));
+  });
+
+  it('rejects a bad definition with 400 naming the field', async () => {
+    const res = await t.http.post('/api/sweeps').set(auth(researcher)).send(smallSweep({ model: 'no-such-model' }));
+    expect(res.status).toBe(400);
+    expect(res.body.details.map((d: { path: string }) => d.path)).toContain('model');
+  });
+
+  it('hides a private sweep from other users with 404 and lets admins see it', async () => {
+    const res = await t.http.post('/api/sweeps').set(auth(researcher)).send(smallSweep({ name: 'private one' }));
+    const id = res.body.id;
+    await waitForSweep(t, researcher, id);
+    expect((await t.http.get(`/api/sweeps/${id}`).set(auth(reviewer))).status).toBe(404);
+    expect((await t.http.get(`/api/sweeps/${id}`).set(auth(admin))).status).toBe(200);
+    expect((await t.http.delete(`/api/sweeps/${id}`).set(auth(reviewer))).status).toBe(403);
+  });
+
+  it('cancels a queued sweep and refuses to cancel it twice', async () => {
+    const big = smallSweep({ name: 'to cancel', axes: [{ param: 'Te_eV', kind: 'log', min: 1, max: 100, count: 400 }, { param: 'B_T', kind: 'linear', min: 0.05, max: 0.5, count: 500 }] });
+    const res = await t.http.post('/api/sweeps').set(auth(researcher)).send(big);
+    expect(res.status).toBe(201);
+    const c = await t.http.post(`/api/sweeps/${res.body.id}/cancel`).set(auth(researcher));
+    expect(c.status).toBe(200);
+    expect(c.body.status).toBe('cancelled');
+    expect(c.body.progress.done).toBeLessThan(200_000);
+    const again = await t.http.post(`/api/sweeps/${res.body.id}/cancel`).set(auth(researcher));
+    expect(again.status).toBe(409);
+    const del = await t.http.delete(`/api/sweeps/${res.body.id}`).set(auth(researcher));
+    expect(del.status).toBe(204);
+    expect((await t.http.get(`/api/sweeps/${res.body.id}`).set(auth(researcher))).status).toBe(404);
+  });
+});
