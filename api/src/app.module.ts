@@ -1,5 +1,6 @@
 import { Module, type DynamicModule } from '@nestjs/common';
 import { APP_FILTER } from '@nestjs/core';
+import { PeopleModule } from './accounts/people.module.js';
 import { AuthModule } from './auth/auth.module.js';
 import { ClockModule } from './common/clock.js';
 import { HttpErrorFilter } from './common/http-error.filter.js';
@@ -17,7 +18,7 @@ export class AppModule {
   static forRoot(config: AppConfig): DynamicModule {
     return {
       module: AppModule,
-      imports: [ConfigModule.forRoot(config), ClockModule, DbModule, UsersModule, AuthModule, HealthModule, SeedModule, QueueModule.forRoot(config), SweepsModule],
+      imports: [ConfigModule.forRoot(config), ClockModule, DbModule, UsersModule, AuthModule, HealthModule, SeedModule, PeopleModule, QueueModule.forRoot(config), SweepsModule],
       providers: [{ provide: APP_FILTER, useClass: HttpErrorFilter }],
     };
   }

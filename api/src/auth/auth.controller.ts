@@ -1,6 +1,7 @@
-import { Body, Controller, Get, HttpCode, Post } from '@nestjs/common';
+import { Body, Controller, Get, HttpCode, Post, UseGuards } from '@nestjs/common';
 import { ApiBearerAuth, ApiBody, ApiOperation, ApiTags } from '@nestjs/swagger';
 import { loginRequestSchema, type LoginRequest } from '@driftgrid/domain';
+import { LoginThrottleGuard } from '../accounts/login-throttle.js';
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
 import { openApiSchema } from '../common/openapi.js';
 import { Public, SignedIn } from './access.decorators.js';
@@ -16,6 +17,7 @@ export class AuthController {
   @Post('login')
   @Public()
   @HttpCode(200)
+  @UseGuards(LoginThrottleGuard)
   @ApiOperation({ summary: 'Sign in with e-mail and password; returns a bearer token' })
   @ApiBody({ schema: openApiSchema(loginRequestSchema) })
   login(@Body(new ZodValidationPipe(loginRequestSchema)) body: LoginRequest) {

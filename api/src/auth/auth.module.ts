@@ -2,18 +2,22 @@ import { Module } from '@nestjs/common';
 import { APP_GUARD } from '@nestjs/core';
 import { JwtModule } from '@nestjs/jwt';
 import { PassportModule } from '@nestjs/passport';
+import { LoginThrottlerModule } from '../accounts/login-throttle.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
+import { QuotaAccountFacts } from '../quotas/quota-account-facts.js';
+import { ApiTokenAuthenticator } from '../tokens/api-token.authenticator.js';
 import { AccessGuard } from './access.guard.js';
 import { AuthController } from './auth.controller.js';
 import { AuthService } from './auth.service.js';
 import { JwtStrategy } from './jwt.strategy.js';
-import { AccountFacts, MeService, NoAccountFacts } from './me.service.js';
+import { AccountFacts, MeService } from './me.service.js';
 import { PasswordService } from './password.service.js';
-import { NoTokenAuthenticator, TokenAuthenticator } from './token-authenticator.js';
+import { TokenAuthenticator } from './token-authenticator.js';
 
 @Module({
   imports: [
     PassportModule,
+    LoginThrottlerModule,
     JwtModule.registerAsync({
       inject: [APP_CONFIG],
       useFactory: (config: AppConfig) => ({ secret: config.jwtSecret, signOptions: { expiresIn: config.jwtExpiresIn as never } }),
@@ -22,8 +26,9 @@ import { NoTokenAuthenticator, TokenAuthenticator } from './token-authenticator.
   controllers: [AuthController],
   providers: [
     AuthService, PasswordService, JwtStrategy, MeService,
-    { provide: TokenAuthenticator, useClass: NoTokenAuthenticator },
-    { provide: AccountFacts, useClass: NoAccountFacts },
+    // Both come from global modules (tokens, quotas) registered by PeopleModule.
+    { provide: TokenAuthenticator, useExisting: ApiTokenAuthenticator },
+    { provide: AccountFacts, useExisting: QuotaAccountFacts },
     { provide: APP_GUARD, useClass: AccessGuard },
   ],
   exports: [AuthService, PasswordService, JwtModule],

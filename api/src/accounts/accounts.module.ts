@@ -1,0 +1,18 @@
+import { Module } from '@nestjs/common';
+import { AuditModule } from '../admin/audit.module.js';
+import { AuthModule } from '../auth/auth.module.js';
+import { AccountsAuthController } from './accounts-auth.controller.js';
+import { AccountsRepository } from './accounts.repository.js';
+import { InvitationsController } from './invitations.controller.js';
+import { InvitationsService } from './invitations.service.js';
+import { LoginThrottleGuard, LoginThrottlerModule } from './login-throttle.js';
+import { PasswordsService } from './passwords.service.js';
+
+/** Invitations, password reset and change of password. */
+@Module({
+  imports: [AuthModule, AuditModule, LoginThrottlerModule],
+  controllers: [AccountsAuthController, InvitationsController],
+  providers: [AccountsRepository, InvitationsService, PasswordsService, LoginThrottleGuard],
+  exports: [PasswordsService],
+})
+export class AccountsModule {}

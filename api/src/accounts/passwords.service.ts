@@ -1,0 +1,87 @@
+import { Inject, Injectable } from '@nestjs/common';
+import {
+  ForbiddenError, PASSWORD_RESET_ACCEPTED, ValidationError,
+  type ChangePasswordRequest, type PasswordResetConfirm, type PasswordResetRequest,
+} from '@driftgrid/domain';
+import type { AuthUser } from '../auth/current-user.js';
+import { PasswordService } from '../auth/password.service.js';
+import { Clock } from '../common/clock.js';
+import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
+import { DB_HANDLE } from '../db/db.module.js';
+import type { OpenedDatabase } from '../db/database.js';
+import { MailService } from '../mail/mail.service.js';
+import { passwordResetMail } from '../mail/templates.js';
+import { UsersRepository } from '../users/users.repository.js';
+import { AccountsRepository } from './accounts.repository.js';
+import { newOneTimeToken, sha256Hex } from './one-time-token.js';
+
+export const RESET_MINUTES = 60;
+
+/** Password reset by e-mail link, and change of password when signed in. */
+@Injectable()
+export class PasswordsService {
+  /** Mails still being sent (the reset answer does not wait for them); tests and shutdown may await. */
+  readonly pending = new Set<Promise<boolean>>();
+
+  constructor(
+    @Inject(APP_CONFIG) private readonly config: AppConfig,
+    @Inject(DB_HANDLE) private readonly handle: OpenedDatabase,
+    private readonly repo: AccountsRepository,
+    private readonly users: UsersRepository,
+    private readonly passwords: PasswordService,
+    private readonly mail: MailService,
+    private readonly clock: Clock,
+  ) {}
+
+  /**
+   * Always the same answer. The mail is sent in the background, so the response time does not
+   * reveal whether the address has an account either.
+   */
+  requestReset(req: PasswordResetRequest): { message: string } {
+    const user = this.users.findByEmail(req.email);
+    if (user && user.active) {
+      const now = this.clock.now();
+      const { token, hash } = newOneTimeToken();
+      this.repo.insertReset({ userId: user.id, tokenHash: hash, createdAt: now, expiresAt: now + RESET_MINUTES * 60_000 });
+      const url = `${this.config.publicUrl.replace(/\/+$/, '')}/reset-password?token=${encodeURIComponent(token)}`;
+      const m = passwordResetMail({ name: user.name, url, expiresInMinutes: RESET_MINUTES });
+      const p = this.mail.sendInBackground({ to: user.email, subject: m.subject, text: m.text, html: m.html });
+      this.pending.add(p);
+      void p.finally(() => this.pending.delete(p));
+    }
+    return { message: PASSWORD_RESET_ACCEPTED };
+  }
+
+  async confirmReset(req: PasswordResetConfirm): Promise<{ message: string }> {
+    const check = () => {
+      const reset = this.repo.resetByHash(sha256Hex(req.token));
+      const field = (message: string) => new ValidationError(message, [{ path: 'token', message }]);
+      if (!reset) throw field('This reset link is not valid; check that you copied the whole link');
+      if (reset.usedAt !== null) throw field('This reset link has already been used; ask for a new one if you still need it');
+      if (reset.expiresAt <= this.clock.now()) throw field(`This reset link has expired (links last ${RESET_MINUTES} minutes); ask for a new one`);
+      const user = this.users.findById(reset.userId);
+      if (!user || !user.active) throw field('This reset link is not valid; check that you copied the whole link');
+      return user;
+    };
+    check();
+    const passwordHash = await this.passwords.hash(req.password);
+    this.handle.sqlite.transaction(() => {
+      const user = check();
+      const now = this.clock.now();
+      this.users.update(user.id, { passwordHash, failedLogins: 0, lockedUntil: null, updatedAt: now });
+      this.repo.useResets(user.id, now);
+    })();
+    return { message: 'Your password has been changed; sign in with the new one' };
+  }
+
+  async change(user: AuthUser, req: ChangePasswordRequest): Promise<{ message: string }> {
+    if (user.via !== 'session') throw new ForbiddenError('Change your password when signed in with it, not with an API token');
+    const row = this.users.findById(user.id);
+    if (!row || !(await this.passwords.verify(req.current, row.passwordHash))) {
+      throw new ValidationError('Invalid body: current: is not your current password', [{ path: 'current', message: 'is not your current password' }]);
+    }
+    const passwordHash = await this.passwords.hash(req.next);
+    this.users.update(user.id, { passwordHash, updatedAt: this.clock.now() });
+    return { message: 'Your password has been changed' };
+  }
+}

@@ -1,0 +1,14 @@
+import { Module } from '@nestjs/common';
+import { AdminUsersController } from './admin-users.controller.js';
+import { AdminUsersService } from './admin-users.service.js';
+import { AuditController } from './audit.controller.js';
+import { AuditModule } from './audit.module.js';
+import { MailboxController } from './mailbox.controller.js';
+
+/** Admin console routes: users, audit log, mailbox (quotas live in quotas/, the queue in sweeps). */
+@Module({
+  imports: [AuditModule],
+  controllers: [AdminUsersController, AuditController, MailboxController],
+  providers: [AdminUsersService],
+})
+export class AdminModule {}
