@@ -5,6 +5,7 @@ import { ChunkDispatcher } from './chunk-dispatcher.js';
 import { LogSweepNotifier, QuotaGate, SweepNotifier } from './ports.js';
 import { PermissiveQuotaGate } from './permissive-quota-gate.js';
 import { ResultsProcessor } from './results.processor.js';
+import { ResultsReader } from './results-reader.js';
 import { SweepAccess } from './sweep-access.js';
 import { SweepPersistence } from './sweep-persistence.service.js';
 import { SweepsController } from './sweeps.controller.js';
@@ -15,10 +16,10 @@ import { SweepsService } from './sweeps.service.js';
   imports: [BullModule.registerQueue({ name: CHUNK_QUEUE }, { name: RESULT_QUEUE })],
   controllers: [SweepsController],
   providers: [
-    SweepsRepository, SweepsService, SweepAccess, SweepPersistence, ChunkDispatcher, ResultsProcessor,
+    SweepsRepository, SweepsService, SweepAccess, SweepPersistence, ChunkDispatcher, ResultsProcessor, ResultsReader,
     { provide: SweepNotifier, useClass: LogSweepNotifier },
     { provide: QuotaGate, useClass: PermissiveQuotaGate },
   ],
-  exports: [SweepsRepository, SweepsService, SweepAccess, ChunkDispatcher],
+  exports: [SweepsRepository, SweepsService, SweepAccess, ChunkDispatcher, ResultsReader, SweepPersistence],
 })
 export class SweepsModule {}
