@@ -76,6 +76,8 @@ export function useLogin() {
       qc.clear();
       setSession({ accessToken: res.accessToken, user: res.user });
       qc.setQueryData(queryKeys.me(), { ...res.user } satisfies Me);
+      // Login returns the bare user; fetch quota and usage straight away.
+      void qc.invalidateQueries({ queryKey: queryKeys.me() });
     },
   });
 }
