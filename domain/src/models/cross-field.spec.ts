@@ -3,6 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { ELEMENTARY_CHARGE as E, VACUUM_PERMEABILITY as MU0 } from '../constants.js';
 import { crossField } from './cross-field.js';
 import { allocateChunk } from './registry.js';
+import { resolveInputs } from './validate.js';
 import { readReferenceCsv, referenceValue } from './reference-csv.js';
 
 const nrl = readReferenceCsv('nrl_coefficients_check.csv');
@@ -134,6 +135,23 @@ describe('cross-field textbook facts', () => {
     // A sweep may move the threshold.
     const strict = crossField.evaluate(defaults, { rho_i_over_Ln_max: 0.01 });
     expect(strict.flags).toEqual(['rho_i_over_Ln']);
+  });
+});
+
+describe('cross-field in the solar wind (unit strings end to end)', () => {
+  it('reproduces the normalised space-plasma values', () => {
+    // n = 1 cm^-3, T = 1e5 K, B = 1 nT, protons: DERIVED values in derived_check_values.csv, agreeing
+    // with the Finnish Meteorological Institute reference table (CONFIRMED to 2 s.f.: 300 km, 7.0 km,
+    // 22 m, 15 mHz, 3.5).
+    const v = (needle: string) => referenceValue(checks, 'quantity', needle, 'value');
+    const asIon = crossField.evaluate(resolveInputs(crossField, { n_m3: '1 cm^-3', Te_eV: '1e5 K', Ti_eV: '1e5 K', B_T: '1 nT', mu: 1, Z: 1, Ln_m: '1e11 m' })).outputs as Record<string, number>;
+    expect(rel(asIon.rho_i_m! / 1e3, v('proton thermal gyroradius'))).toBeLessThan(1e-7);
+    expect(rel(asIon.rho_e_m! / 1e3, v('electron thermal gyroradius'))).toBeLessThan(1e-7);
+    expect(rel(asIon.lambdaD_m!, v('Debye length n=1cm^-3'))).toBeLessThan(1e-7);
+    expect(rel((asIon.omega_ci! / (2 * Math.PI)) * 1e3, v('proton cyclotron freq'))).toBeLessThan(1e-7);
+    expect(rel(asIon.omega_ce! / (2 * Math.PI), v('electron cyclotron freq'))).toBeLessThan(1e-7);
+    // β per species: the model sums both, so with T_i = T_e it is twice the tabulated value.
+    expect(rel(asIon.beta! / 2, v('beta per species'))).toBeLessThan(1e-7);
   });
 });
 
