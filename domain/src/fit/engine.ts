@@ -73,9 +73,16 @@ class Problem {
         this.pTmp.set(params);
         // Relative step ∛ε·|p| balances truncation O(h²) against rounding O(ε/h).
         let h = 6.055454e-6 * Math.max(Math.abs(params[j]!), 1e-3 * this.scale[j]!);
-        const up = params[j]! + h <= max[j]!;
-        const down = params[j]! - h >= min[j]!;
-        if (!up && !down) h = Math.min(max[j]! - params[j]!, params[j]! - min[j]!) / 2;
+        let up = params[j]! + h <= max[j]!;
+        let down = params[j]! - h >= min[j]!;
+        if (!up && !down) {
+          // Bounds closer than the step on both sides: a one-sided difference into the wider room.
+          const roomUp = max[j]! - params[j]!;
+          const roomDown = params[j]! - min[j]!;
+          up = roomUp >= roomDown;
+          down = !up;
+          h = Math.max(roomUp, roomDown) / 2;
+        }
         this.pTmp[j] = up ? params[j]! + h : params[j]!;
         this.model.evaluate(this.pTmp, this.fPlus);
         this.pTmp[j] = down ? params[j]! - h : params[j]!;
@@ -181,6 +188,11 @@ function check(prob: Problem, params: Float64Array, r: Float64Array, jac: Float6
   const singular = !(lin.rcond >= (prob.model.jacobian ? RCOND_ANALYTIC : RCOND_DIFFERENCES));
   const step = new Float64Array(prob.p);
   stepFor(lin, prob.p, 0, step);
+  // Projected step: at an active bound only the part of the step that stays feasible counts.
+  for (let j = 0; j < prob.p; j++) {
+    const to = Math.min(Math.max(params[j]! + step[j]!, prob.model.min[j]!), prob.model.max[j]!);
+    step[j] = to - params[j]!;
+  }
   const dof = prob.n - prob.p;
   const cov = covarianceOf(lin, prob.p, lin.rss / dof);
   // A vanishing residual (noise-free data) is an exact optimum whatever the step says.
@@ -434,6 +446,10 @@ export function runFit(kind: FitModelKind, model: CompiledModel, data: CheckedDa
   const singular = final.singular;
   let converged = outcome.converged && !singular;
   let message = outcome.message;
+  const atBound = model.paramNames.filter((_, j) => params[j] === model.min[j] || params[j] === model.max[j]);
+  if (converged && atBound.length > 0) {
+    message += `; at a bound: ${atBound.join(', ')} (their standard errors assume the bound is not active)`;
+  }
   if (singular) {
     message = `not converged: singular problem (rank-deficient JᵀJ, reciprocal condition ${final.lin.rcond.toExponential(2)}); the parameters cannot all be determined from these data`;
     converged = false;

@@ -88,3 +88,18 @@ describe('fit errors', () => {
     expect(result.message).toMatch(/not converged/);
   });
 });
+
+describe('bounds', () => {
+  it('stops at an active bound and says so', () => {
+    // Unconstrained least squares for y ≈ b·x on these data gives b ≈ 2.03; bounded at 1.5 it must sit on the bound.
+    const result = fitModel({ model: 'expression', expr: 'b*x', x: { x }, xNames: ['x'], y, params: { b: 1 }, bounds: { b: { max: 1.5 } } });
+    expect(result.converged).toBe(true);
+    expect(result.parameters[0]!.value).toBe(1.5);
+    expect(result.message).toMatch(/at a bound: b/);
+  });
+
+  it('rejects bounds on unknown parameters and inverted bounds', () => {
+    expect(validationOf({ model: 'expression', expr: 'b*x', x: { x }, xNames: ['x'], y, params: { b: 1 }, bounds: { c: { max: 1 } } }).details?.[0]?.path).toBe('bounds.c');
+    expect(validationOf({ model: 'expression', expr: 'b*x', x: { x }, xNames: ['x'], y, params: { b: 1 }, bounds: { b: { min: 2, max: 1 } } }).message).toMatch(/min \(2\) must be below max \(1\)/);
+  });
+});

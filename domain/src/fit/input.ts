@@ -73,9 +73,6 @@ export function checkParamNames(input: FitInput, names: string[]): void {
   for (const key of Object.keys(input.params ?? {})) {
     if (!names.includes(key)) fail(`params.${key}`, `is not a parameter of ${input.model} (parameters: ${names.join(', ')})`);
   }
-  for (const key of Object.keys(input.bounds ?? {})) {
-    if (!names.includes(key)) fail(`bounds.${key}`, `is not a parameter of ${input.model} (parameters: ${names.join(', ')})`);
-  }
 }
 
 /**
@@ -88,6 +85,9 @@ export function resolveBounds(
   start: Float64Array,
   own: Record<string, { min?: number; max?: number }> = {},
 ): { min: Float64Array; max: Float64Array } {
+  for (const key of Object.keys(input.bounds ?? {})) {
+    if (!names.includes(key)) fail(`bounds.${key}`, `is not a parameter of ${input.model} (parameters: ${names.join(', ')})`);
+  }
   const p = names.length;
   const min = new Float64Array(p).fill(-Infinity);
   const max = new Float64Array(p).fill(Infinity);
