@@ -1,4 +1,5 @@
 import os from 'node:os';
+import { DEFAULT_QUEUE_PREFIX } from './queue-names.js';
 
 /** Standalone worker settings, validated once. Workers never open SQLite: they need only Redis. */
 export interface WorkerConfig {
@@ -7,6 +8,7 @@ export interface WorkerConfig {
   /** Compute threads; default one per chunk in flight. */
   threads: number;
   workerId: string;
+  queuePrefix: string;
 }
 
 export function loadWorkerConfig(env: NodeJS.ProcessEnv = process.env): WorkerConfig {
@@ -19,5 +21,7 @@ export function loadWorkerConfig(env: NodeJS.ProcessEnv = process.env): WorkerCo
   }
   const threads = env.WORKER_THREADS ? Number(env.WORKER_THREADS) : concurrency;
   if (!Number.isInteger(threads) || threads < 0 || threads > 64) throw new Error('WORKER_THREADS must be a whole number from 0 to 64');
-  return { redisUrl, concurrency, threads, workerId: `${os.hostname()}:${process.pid}` };
+  const queuePrefix = env.QUEUE_PREFIX?.trim() || DEFAULT_QUEUE_PREFIX;
+  if (!/^[A-Za-z0-9_-]{1,32}$/.test(queuePrefix)) throw new Error('QUEUE_PREFIX must be 1–32 letters, digits, - or _');
+  return { redisUrl, concurrency, threads, workerId: `${os.hostname()}:${process.pid}`, queuePrefix };
 }

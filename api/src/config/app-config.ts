@@ -21,6 +21,7 @@ export interface AppConfig {
   /** undefined = automatic (1 embedded, 0 with REDIS_URL). */
   embeddedWorkers?: number;
   chunkSize: number;
+  queuePrefix: string;
   uiDist: string;
   logLevel: Env['LOG_LEVEL'];
   uploadMaxBytes: number;
@@ -77,6 +78,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
     seedDemo,
     embeddedWorkers: e.EMBEDDED_WORKERS,
     chunkSize: e.CHUNK_SIZE,
+    queuePrefix: e.QUEUE_PREFIX,
     uiDist: e.UI_DIST ? path.resolve(e.UI_DIST) : path.join(repoRoot, 'ui', 'dist'),
     logLevel: e.LOG_LEVEL,
     uploadMaxBytes: e.UPLOAD_MAX_BYTES,

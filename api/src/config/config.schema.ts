@@ -27,6 +27,7 @@ export const envSchema = z.object({
   ALLOW_INSECURE_DEMO: z.enum(['true', 'false']).default('false'),
   /** Compute threads inside the api; default 1 without REDIS_URL, 0 with it (standalone workers). */
   EMBEDDED_WORKERS: z.coerce.number().int().min(0).max(64).optional(),
+  QUEUE_PREFIX: z.string().regex(/^[A-Za-z0-9_-]{1,32}$/, '1–32 letters, digits, - or _').default('dg'),
   CHUNK_SIZE: z.coerce.number().int().min(100).max(100_000).default(5000),
   UI_DIST: z.string().optional(),
   LOG_LEVEL: z.enum(['debug', 'info', 'warn', 'error', 'silent']).default('info'),

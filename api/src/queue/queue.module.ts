@@ -36,7 +36,7 @@ export class QueueModule {
     const conn = createQueueConnection(config);
     const embeddedWorkers = config.embeddedWorkers ?? (conn.mode === 'embedded' ? 1 : 0);
     const imports: DynamicModule[] = [
-      BullModule.forRoot({ connection: conn.connection, prefix: 'dg' }),
+      BullModule.forRoot({ connection: conn.connection, prefix: config.queuePrefix }),
       BullModule.registerQueue({ name: CHUNK_QUEUE }, { name: RESULT_QUEUE }),
     ];
     if (embeddedWorkers > 0) {
