@@ -15,7 +15,8 @@ const STEP_TOL = 1e-9;
 /** Looser limit accepted when rounding stops every descent (the precision floor of the data). */
 const STALL_TOL = 1e-6;
 const LIBRARY_CHUNK = 10;
-const LIBRARY_MAX_POINTS = 5_000;
+/** Above this many points the library stage runs on a strided subsample (see fit-model.ts). */
+export const LIBRARY_MAX_POINTS = 5_000;
 
 /** Residuals and Jacobian of the weighted problem r = w·(y − f), with reused buffers. */
 class Problem {
@@ -211,20 +212,24 @@ function sumSquares(y: Float64Array, w: Float64Array): number {
  * RMS) so its absolute damping means the same for every problem; run in chunks and stopped
  * as soon as our own step criterion holds, since its own test is an absolute RSS threshold.
  */
-function libraryStage(prob: Problem, params: Float64Array, budget: number, r: Float64Array, jac: Float64Array): number {
-  const { n, p, scale } = prob;
-  let yScale = Math.sqrt(sumSquares(prob.y, prob.w) / n);
+function libraryStage(
+  prob: Problem,
+  lib: Problem,
+  params: Float64Array,
+  budget: number,
+  r: Float64Array,
+  jac: Float64Array,
+): number {
+  const { p, scale } = prob;
+  const n = lib.n;
+  const libJac = lib === prob ? jac : new Float64Array(n * p);
+  let yScale = Math.sqrt(sumSquares(lib.y, lib.w) / n);
   if (!(yScale > 0) || !Number.isFinite(yScale)) yScale = 1;
-  // The library allocates a matrix row object per point and iteration, so on large data it
-  // works on an evenly strided subsample; the allocation-free refinement then uses every point.
-  const stride = Math.max(1, Math.ceil(n / LIBRARY_MAX_POINTS));
-  const m = Math.ceil(n / stride);
-  const xs = new Float64Array(m);
-  const ys = new Float64Array(m);
-  for (let k = 0; k < m; k++) {
-    const i = k * stride;
-    xs[k] = i;
-    ys[k] = (prob.w[i]! * prob.y[i]!) / yScale;
+  const xs = new Float64Array(n);
+  const ys = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    xs[i] = i;
+    ys[i] = (lib.w[i]! * lib.y[i]!) / yScale;
   }
   const pBuf = new Float64Array(p);
   const fBuf = new Float64Array(n);
@@ -235,15 +240,15 @@ function libraryStage(prob: Problem, params: Float64Array, budget: number, r: Fl
   // The library asks for a function per parameter vector and then calls it for each x (our index).
   const modelFn = (u: number[]) => {
     toParams(u);
-    prob.model.evaluate(pBuf, fBuf);
-    for (let i = 0; i < n; i++) fBuf[i] = (prob.w[i]! * fBuf[i]!) / yScale;
+    lib.model.evaluate(pBuf, fBuf);
+    for (let i = 0; i < n; i++) fBuf[i] = (lib.w[i]! * fBuf[i]!) / yScale;
     return (i: number) => fBuf[i]!;
   };
   const jacobianFn = (u: number[]) => {
     toParams(u);
-    prob.jacobian(pBuf, jac);
+    lib.jacobian(pBuf, libJac);
     return (i: number) => {
-      for (let j = 0; j < p; j++) partials[j] = (jac[j * n + i]! * scale[j]!) / yScale;
+      for (let j = 0; j < p; j++) partials[j] = (libJac[j * n + i]! * scale[j]!) / yScale;
       return partials;
     };
   };
@@ -278,7 +283,7 @@ function libraryStage(prob: Problem, params: Float64Array, budget: number, r: Fl
     best = rss;
     params.set(candidate);
     // On a subsample the full-data step test cannot pass: one chunk brings the start close.
-    if (stride > 1 || check(prob, params, r, jac, STEP_TOL).converged) break;
+    if (lib !== prob || check(prob, params, r, jac, STEP_TOL).converged) break;
   }
   return used;
 }
@@ -417,7 +422,12 @@ function refine(prob: Problem, params: Float64Array, budget: number, r: Float64A
 }
 
 /** Runs both stages and computes the statistics at the end point. */
-export function runFit(kind: FitModelKind, model: CompiledModel, data: CheckedData): FitResult {
+/**
+ * `sub`, for large data: the same model compiled on a strided subsample. The library allocates
+ * a matrix row object per point and iteration, so it only brings the start close on the
+ * subsample; the allocation-free refinement then uses every point.
+ */
+export function runFit(kind: FitModelKind, model: CompiledModel, data: CheckedData, sub?: { model: CompiledModel; data: CheckedData }): FitResult {
   const p = model.paramNames.length;
   requireMorePointsThanParams(data.n, p);
   const prob = new Problem(model, data.y, data.sigma);
@@ -426,7 +436,12 @@ export function runFit(kind: FitModelKind, model: CompiledModel, data: CheckedDa
   const params = Float64Array.from(model.start);
   prob.clamp(params);
   const libraryBudget = Math.max(1, Math.min(100, Math.floor(data.maxIterations / 2)));
-  const libIts = libraryStage(prob, params, libraryBudget, r, jac);
+  let lib = prob;
+  if (sub) {
+    lib = new Problem(sub.model, sub.data.y, sub.data.sigma);
+    lib.scale.set(prob.scale);
+  }
+  const libIts = libraryStage(prob, lib, params, libraryBudget, r, jac);
   let outcome = refine(prob, params, Math.max(1, data.maxIterations - libIts), r, jac);
   if (!outcome.converged) {
     // The library's path can end in a flat region (BoxBOD from NIST start 1); one more try with

@@ -1,10 +1,35 @@
-import { checkInput } from './input.js';
-import { runFit } from './engine.js';
+import { checkInput, type CheckedData } from './input.js';
+import { LIBRARY_MAX_POINTS, runFit } from './engine.js';
 import { compileExpression } from './models/expression.js';
 import { compileExponential } from './models/exponential.js';
 import { compilePolytropic } from './models/polytropic.js';
 import { compilePowerLaw } from './models/power-law.js';
 import type { CompiledModel, FitInput, FitResult } from './types.js';
+
+function compile(request: FitInput, data: CheckedData): CompiledModel {
+  switch (request.model) {
+    case 'power-law':
+      return compilePowerLaw(request, data);
+    case 'exponential':
+      return compileExponential(request, data);
+    case 'polytropic':
+      return compilePolytropic(request, data);
+    case 'expression':
+      return compileExpression(request, data);
+  }
+}
+
+/** Every k-th point, so the subsample spans the whole range of every column. */
+function strided(data: CheckedData, maxPoints: number): CheckedData {
+  const stride = Math.ceil(data.n / maxPoints);
+  const m = Math.ceil(data.n / stride);
+  const pick = (col: Float64Array): Float64Array => {
+    const out = new Float64Array(m);
+    for (let k = 0; k < m; k++) out[k] = col[k * stride]!;
+    return out;
+  };
+  return { ...data, n: m, x: data.x.map(pick), y: pick(data.y), sigma: data.sigma ? pick(data.sigma) : undefined };
+}
 
 /**
  * Fits one of the reduced models to column data. Throws ValidationError for bad input, too few
@@ -13,20 +38,15 @@ import type { CompiledModel, FitInput, FitResult } from './types.js';
  */
 export function fitModel(request: FitInput): FitResult {
   const data = checkInput(request);
-  let model: CompiledModel;
-  switch (request.model) {
-    case 'power-law':
-      model = compilePowerLaw(request, data);
-      break;
-    case 'exponential':
-      model = compileExponential(request, data);
-      break;
-    case 'polytropic':
-      model = compilePolytropic(request, data);
-      break;
-    case 'expression':
-      model = compileExpression(request, data);
-      break;
+  const model = compile(request, data);
+  let sub: { model: CompiledModel; data: CheckedData } | undefined;
+  if (data.n > LIBRARY_MAX_POINTS) {
+    const subData = strided(data, LIBRARY_MAX_POINTS);
+    try {
+      sub = { model: compile(request, subData), data: subData };
+    } catch {
+      sub = undefined; // the subsample alone may be degenerate; the full data were accepted
+    }
   }
-  return runFit(request.model, model, data);
+  return runFit(request.model, model, data, sub);
 }

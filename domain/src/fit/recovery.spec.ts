@@ -77,6 +77,35 @@ describe('power-law recovery', () => {
   });
 });
 
+describe('large data (library stage on a subsample, refinement on all points)', () => {
+  it('recovers a three-exponent power law over 20,000 points from a poor start', () => {
+    const n = 20_000;
+    const noise = normalSource(99);
+    const T = new Float64Array(n);
+    const Bv = new Float64Array(n);
+    const L = new Float64Array(n);
+    const y = new Float64Array(n);
+    for (let i = 0; i < n; i++) {
+      T[i] = 1 + 49 * Math.abs(noise()) / 3;
+      Bv[i] = 0.05 + Math.abs(noise()) / 4;
+      L[i] = 0.01 + Math.abs(noise()) / 20;
+      y[i] = (T[i]! ** 1 * Bv[i]! ** -1 * L[i]! ** -1);
+    }
+    const result = fitModel({
+      model: 'power-law',
+      x: { T, B: Bv, L },
+      xNames: ['T', 'B', 'L'],
+      y,
+      params: { C: 0.3, exp_T: 0.5, exp_B: -0.5, exp_L: -0.5 },
+    });
+    expect(result.converged).toBe(true);
+    expect(Math.abs(byName(result, 'exp_T').value - 1)).toBeLessThan(1e-9);
+    expect(Math.abs(byName(result, 'exp_B').value + 1)).toBeLessThan(1e-9);
+    expect(Math.abs(byName(result, 'exp_L').value + 1)).toBeLessThan(1e-9);
+    expect(Math.abs(byName(result, 'C').value - 1)).toBeLessThan(1e-9);
+  });
+});
+
 describe('exponential (Boltzmann form) recovery', () => {
   it('recovers A and s = Te from n = n0·exp(φ/Te) (Boltzmann relation, common practice)', () => {
     const phi = Array.from({ length: 30 }, (_, i) => -15 + i * 0.6);
