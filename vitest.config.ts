@@ -37,7 +37,7 @@ export default defineConfig({
       },
       {
         resolve: { alias },
-        test: { name: 'api', include: ['tests/api/**/*.test.ts'], environment: 'node', testTimeout: 60000 },
+        test: { name: 'api', include: ['tests/api/**/*.test.ts'], environment: 'node', testTimeout: 120000, hookTimeout: 60000 },
       },
       {
         resolve: { alias },
