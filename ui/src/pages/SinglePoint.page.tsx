@@ -1,31 +1,113 @@
-import { Button } from '@mantine/core';
-import { IconTarget } from '@tabler/icons-react';
-import { Link } from 'react-router-dom';
-import { EmptyState } from '../components/EmptyState/EmptyState.js';
+import { Alert, Badge, Grid, Group, Paper, SegmentedControl, SimpleGrid, Stack, Text, Title } from '@mantine/core';
+import { useDebouncedValue } from '@mantine/hooks';
+import { IconAlertCircle } from '@tabler/icons-react';
+import { useMemo } from 'react';
+import { models, type ModelDefinition, type PointResult, type Profile } from '@driftgrid/domain';
 import { PageHeader } from '../components/PageHeader/PageHeader.js';
+import { QuantityInput } from '../components/QuantityInput/QuantityInput.js';
+import { FlagList, OutputsTable } from '../components/QuantityInput/ModelOutputs.js';
+import { parseInput } from '../components/QuantityInput/parseInput.js';
+import { ProfilePlot } from '../components/ProfilePlot/ProfilePlot.js';
+import { useDraft } from '../hooks/useDraft.js';
+
+// One shared empty object so an untouched model keeps a stable identity (no debounce churn).
+const EMPTY: Record<string, string> = {};
+
+interface SinglePointDraft {
+  model: string;
+  /** What was typed, per model and input; empty means the registry default. */
+  text: Record<string, Record<string, string>>;
+}
+
+interface Evaluation {
+  errors: Record<string, string>;
+  result: PointResult | null;
+  profile: Profile | null;
+  inputs: Record<string, number>;
+}
+
+/** Parses every field and, when all are good, evaluates the point in the browser (no round trip). */
+function evaluate(model: ModelDefinition, text: Record<string, string>): Evaluation {
+  const errors: Record<string, string> = {};
+  const inputs: Record<string, number> = {};
+  for (const spec of model.inputs) {
+    const t = text[spec.name] ?? '';
+    if (t.trim() === '') {
+      inputs[spec.name] = spec.default;
+      continue;
+    }
+    const p = parseInput(spec, t);
+    if (p.ok) inputs[spec.name] = p.value;
+    else errors[spec.name] = p.error;
+  }
+  if (Object.keys(errors).length) return { errors, result: null, profile: null, inputs };
+  return { errors, result: model.evaluate(inputs), profile: model.profile ? model.profile(inputs) : null, inputs };
+}
 
 export default function SinglePointPage() {
+  const [draft, setDraft] = useDraft<SinglePointDraft>('single-point', { model: 'cross-field', text: {} });
+  const model = models.find((m) => m.id === draft.model) ?? models[0]!;
+  const text = draft.text[model.id] ?? EMPTY;
+  // Errors follow every keystroke; the (heavier) evaluation and plots follow after a short pause.
+  const [debounced] = useDebouncedValue(text, 120);
+  const fieldErrors = useMemo(() => evaluate(model, text).errors, [model, text]);
+  const ev = useMemo(() => evaluate(model, debounced), [model, debounced]);
+
+  const setText = (name: string, value: string) =>
+    setDraft((d) => ({ ...d, text: { ...d.text, [model.id]: { ...(d.text[model.id] ?? {}), [name]: value } } }));
+
   return (
     <>
-      <PageHeader title="Single point" description="Evaluate a model at one parameter set and read every output with its unit and flags." />
-      <EmptyState
-        icon={IconTarget}
-        title="Single-point evaluation is on its way"
-        actions={
-          <>
-            <Button component="a" href="/api/docs" variant="light">
-              Evaluate through the API
-            </Button>
-            <Button component={Link} to="/" variant="default">
-              Back to the dashboard
-            </Button>
-          </>
-        }
-      >
-        Pick a model, enter inputs with units (20 eV, 1500 G, 3 cm), and see drift speeds, gyroradii and the
-        validity flags for that point at once, with radial profiles where the model has them. It is the quickest way
-        to sanity-check a region before sweeping it.
-      </EmptyState>
+      <PageHeader
+        title="Single point"
+        description="Evaluate a model at one parameter set. Type numbers in the unit shown or values with units (10 eV, 1500 G, 2 cm, 1e13 cm^-3); empty fields take the default."
+      />
+      <Stack gap="md">
+        <Group gap="sm" align="center">
+          <Text fz="sm" fw={500} id="model-picker-label">Model</Text>
+          <SegmentedControl
+            aria-labelledby="model-picker-label"
+            data-testid="model-picker"
+            value={model.id}
+            onChange={(id) => setDraft((d) => ({ ...d, model: id }))}
+            data={models.map((m) => ({ value: m.id, label: m.title }))}
+          />
+          <Badge variant="light" color="gray" ff="monospace">{model.id} v{model.version}</Badge>
+        </Group>
+        <Text fz="sm" c="dimmed">{model.summary}</Text>
+        <Grid gutter="lg">
+          <Grid.Col span={{ base: 12, md: 5 }}>
+            <Paper withBorder p="md" radius="sm">
+              <Title order={2} fz="h4" mb="sm">Inputs</Title>
+              <SimpleGrid cols={1} spacing="sm">
+                {model.inputs.map((spec) => (
+                  <QuantityInput key={spec.name} spec={spec} value={text[spec.name] ?? ''} onChange={(v) => setText(spec.name, v)} error={fieldErrors[spec.name]} />
+                ))}
+              </SimpleGrid>
+            </Paper>
+          </Grid.Col>
+          <Grid.Col span={{ base: 12, md: 7 }}>
+            <Stack gap="md">
+              {ev.result ? (
+                <>
+                  <FlagList flags={ev.result.flags} specs={model.flags} />
+                  <OutputsTable outputs={model.outputs} values={ev.result.outputs} />
+                </>
+              ) : (
+                <Alert color="red" variant="light" icon={<IconAlertCircle size={18} />} title="Fix the highlighted inputs" data-testid="inputs-invalid">
+                  The outputs appear as soon as every input is a valid value in its allowed range.
+                </Alert>
+              )}
+            </Stack>
+          </Grid.Col>
+        </Grid>
+        {ev.profile ? (
+          <Paper withBorder p="md" radius="sm">
+            <Title order={2} fz="h4" mb="sm">Radial profiles</Title>
+            <ProfilePlot profile={ev.profile} a_m={ev.inputs.a_m!} />
+          </Paper>
+        ) : null}
+      </Stack>
     </>
   );
 }
