@@ -93,3 +93,17 @@ describe('sweep life cycle', () => {
     expect((await t.http.get(`/api/sweeps/${res.body.id}`).set(auth(researcher))).status).toBe(404);
   });
 });
+
+describe('queue administration', () => {
+  it('shows counts to admins only and pauses and resumes the queue', async () => {
+    expect((await t.http.get('/api/admin/queue').set(auth(researcher))).status).toBe(403);
+    const s = await t.http.get('/api/admin/queue').set(auth(admin));
+    expect(s.status).toBe(200);
+    expect(s.body).toMatchObject({ mode: 'embedded', paused: false });
+    expect(typeof s.body.counts.waiting).toBe('number');
+    const p = await t.http.post('/api/admin/queue/pause').set(auth(admin));
+    expect(p.body.paused).toBe(true);
+    const r = await t.http.post('/api/admin/queue/resume').set(auth(admin));
+    expect(r.body.paused).toBe(false);
+  });
+});

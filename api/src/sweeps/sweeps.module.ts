@@ -9,14 +9,16 @@ import { ResultsReader } from './results-reader.js';
 import { SweepAccess } from './sweep-access.js';
 import { SweepPersistence } from './sweep-persistence.service.js';
 import { SweepsController } from './sweeps.controller.js';
+import { QueueAdminController } from './queue-admin.controller.js';
+import { QueueAdminService } from './queue-admin.service.js';
 import { SweepsRepository } from './sweeps.repository.js';
 import { SweepsService } from './sweeps.service.js';
 
 @Module({
   imports: [BullModule.registerQueue({ name: CHUNK_QUEUE }, { name: RESULT_QUEUE })],
-  controllers: [SweepsController],
+  controllers: [SweepsController, QueueAdminController],
   providers: [
-    SweepsRepository, SweepsService, SweepAccess, SweepPersistence, ChunkDispatcher, ResultsProcessor, ResultsReader,
+    SweepsRepository, SweepsService, SweepAccess, SweepPersistence, ChunkDispatcher, ResultsProcessor, ResultsReader, QueueAdminService,
     { provide: SweepNotifier, useClass: LogSweepNotifier },
     { provide: QuotaGate, useClass: PermissiveQuotaGate },
   ],
