@@ -13,13 +13,14 @@ import { UsersModule } from './users/users.module.js';
 import { QueueModule } from './queue/queue.module.js';
 import { SweepsModule } from './sweeps/sweeps.module.js';
 import { ModelsModule } from './models/models.module.js';
+import { CatalogueModule } from './catalogue/catalogue.module.js';
 
 @Module({})
 export class AppModule {
   static forRoot(config: AppConfig): DynamicModule {
     return {
       module: AppModule,
-      imports: [ConfigModule.forRoot(config), ClockModule, DbModule, UsersModule, AuthModule, HealthModule, SeedModule, PeopleModule, QueueModule.forRoot(config), SweepsModule, ModelsModule],
+      imports: [ConfigModule.forRoot(config), ClockModule, DbModule, UsersModule, AuthModule, HealthModule, SeedModule, PeopleModule, QueueModule.forRoot(config), SweepsModule, ModelsModule, CatalogueModule],
       providers: [{ provide: APP_FILTER, useClass: HttpErrorFilter }],
     };
   }

@@ -1,2 +1,4 @@
 export * from './auth.js';
 export * from './accounts.js';
+export * from './catalogue.js';
+export * from './datasets.js';
