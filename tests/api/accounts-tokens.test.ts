@@ -67,7 +67,7 @@ describe('personal API tokens', () => {
   it('lets a read-scope token read but not POST', async () => {
     const res = await t.http.post('/api/tokens').set(auth(researcher)).send({ name: 'read only', scope: 'read' });
     expect((await t.http.get('/api/tokens').set(auth(res.body.token))).status).toBe(200);
-    const post = await t.http.post('/api/sweeps/preview').set(auth(res.body.token)).send({});
+    const post = await t.http.post('/api/sweeps').set(auth(res.body.token)).send({});
     expect(post.status).toBe(403);
     expect(post.body.message).toMatch(/read scope/);
     const del = await t.http.delete(`/api/tokens/${res.body.id}`).set(auth(res.body.token));

@@ -65,7 +65,13 @@ export const ROLE_MATRIX: Record<string, Who> = {
   'POST /api/fits': CREATORS,
   'GET /api/fits': ALL,
   'GET /api/fits/{id}': ALL,
+  'GET /api/users/directory': CREATORS,
+  'PUT /api/sweeps/{id}/sharing': CREATORS,
+  'PUT /api/datasets/{id}/sharing': CREATORS,
 };
+
+/** Non-GET routes that store nothing, so read-scope tokens may call them (marked in their controller). */
+const READ_SCOPE_OK = new Set(['POST /api/models/{id}/evaluate']);
 
 /** Routes served outside the access guard (Swagger's own pages), matched as prefixes. */
 const DOCS_PREFIX = '/api/docs';
@@ -167,7 +173,7 @@ describe('role matrix', () => {
     const wrong: string[] = [];
     for (const route of served) {
       const who = ROLE_MATRIX[route];
-      if (!who || who === 'public' || !who.includes('researcher') || route.startsWith('GET ')) continue;
+      if (!who || who === 'public' || !who.includes('researcher') || route.startsWith('GET ') || READ_SCOPE_OK.has(route)) continue;
       const res = await call(route, readToken);
       if (res.status !== 403) wrong.push(`${route} → ${res.status}`);
     }
