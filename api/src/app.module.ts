@@ -12,6 +12,7 @@ import { SeedModule } from './seed/seed.module.js';
 import { UsersModule } from './users/users.module.js';
 import { QueueModule } from './queue/queue.module.js';
 import { SweepsModule } from './sweeps/sweeps.module.js';
+import { ExportModule } from './export/export.module.js';
 import { ModelsModule } from './models/models.module.js';
 import { CatalogueModule } from './catalogue/catalogue.module.js';
 
@@ -20,7 +21,7 @@ export class AppModule {
   static forRoot(config: AppConfig): DynamicModule {
     return {
       module: AppModule,
-      imports: [ConfigModule.forRoot(config), ClockModule, DbModule, UsersModule, AuthModule, HealthModule, SeedModule, PeopleModule, QueueModule.forRoot(config), SweepsModule, ModelsModule, CatalogueModule],
+      imports: [ConfigModule.forRoot(config), ClockModule, DbModule, UsersModule, AuthModule, HealthModule, SeedModule, PeopleModule, QueueModule.forRoot(config), SweepsModule, ModelsModule, CatalogueModule, ExportModule],
       providers: [{ provide: APP_FILTER, useClass: HttpErrorFilter }],
     };
   }
