@@ -15,6 +15,10 @@ async function main(): Promise<void> {
   }
   const { app } = await createApp(config);
   await app.listen(config.port, config.host);
+  // Longer than the usual client and proxy idle timeouts, so a reused keep-alive socket is not reset.
+  const server = app.getHttpServer() as import('node:http').Server;
+  server.keepAliveTimeout = 65_000;
+  server.headersTimeout = 66_000;
   const url = `http://localhost:${config.port}`;
   const lines = [`Driftgrid ${config.appVersion} is serving ${url} (api docs: ${url}/api/docs)`, `data: ${config.dataDir}`];
   if (config.seedDemo) {

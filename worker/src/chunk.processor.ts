@@ -18,6 +18,13 @@ export interface ChunkRuntimeOptions {
 export const CHUNK_RUNTIME_OPTIONS = Symbol('CHUNK_RUNTIME_OPTIONS');
 
 /**
+ * Results waiting for the api beyond which a worker holds its finished chunk back. Compute outruns
+ * SQLite inserts by an order of magnitude; without this the backlog of encoded chunks would grow
+ * with the sweep (in the api's memory in embedded mode, in Redis otherwise).
+ */
+export const MAX_RESULT_BACKLOG = 6;
+
+/**
  * Computes chunk jobs and sends their results back through the results queue. Never touches SQLite,
  * so the same processor runs inside the api (embedded mode) or in any number of worker processes.
  */
@@ -58,6 +65,7 @@ export class ChunkProcessor extends WorkerHost implements OnApplicationBootstrap
       sweepId: d.sweepId, chunkIndex: d.chunkIndex, i0: d.i0, n: r.n, columns, flags: encodeUint32(r.flags),
       workerId: this.options.workerId, computeMs: r.computeMs, attempt: job.attemptsMade + 1,
     };
+    while ((await this.results.getWaitingCount()) >= MAX_RESULT_BACKLOG) await new Promise((r) => setTimeout(r, 25));
     // One result job per attempt; the api persists idempotently, so a duplicate is harmless.
     await this.results.add('chunk-result', payload, {
       jobId: `${chunkJobId(d.sweepId, d.chunkIndex)}-a${job.attemptsMade + 1}`,
