@@ -1,0 +1,13 @@
+import { Module } from '@nestjs/common';
+import { CsvUploadInterceptor } from './csv-upload.interceptor.js';
+import { DatasetsController } from './datasets.controller.js';
+import { DatasetsRepository } from './datasets.repository.js';
+import { DatasetsService } from './datasets.service.js';
+
+/** Uploaded measurements. Exports DatasetsService (readable, columns, series) for fits and plots. */
+@Module({
+  controllers: [DatasetsController],
+  providers: [DatasetsRepository, DatasetsService, CsvUploadInterceptor],
+  exports: [DatasetsService, DatasetsRepository],
+})
+export class DatasetsModule {}

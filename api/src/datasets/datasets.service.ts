@@ -1,0 +1,171 @@
+import { createHash } from 'node:crypto';
+import { Inject, Injectable } from '@nestjs/common';
+import {
+  ForbiddenError, NotFoundError, ValidationError,
+  type DatasetColumn, type DatasetListQuery, type DatasetRowsPage, type DatasetRowsQuery, type DatasetSeries,
+  type DatasetSeriesQuery, type DatasetSharing, type DatasetUploadFields, type DatasetUploadResult, type DatasetView,
+} from '@driftgrid/domain';
+import type { AuthUser } from '../auth/current-user.js';
+import { Clock } from '../common/clock.js';
+import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
+import { parseDatasetCsv } from './csv-reader.js';
+import { DatasetsRepository, type DatasetRow } from './datasets.repository.js';
+
+export interface UploadedCsv {
+  buffer: Buffer;
+  originalname?: string;
+  size: number;
+}
+
+/** A display name from the client's file name: base name only, no extension, printable characters. */
+function nameFromFile(fileName: string | undefined): string {
+  const base = (fileName ?? '').split(/[\\/]/).pop() ?? '';
+  const clean = base.replace(/\.[^.]*$/, '').replace(/[\u0000-\u001f\u007f]/g, '').trim().slice(0, 200);
+  return clean || 'Uploaded dataset';
+}
+
+export function columnsOf(d: DatasetRow): DatasetColumn[] {
+  return JSON.parse(d.columns) as DatasetColumn[];
+}
+
+@Injectable()
+export class DatasetsService {
+  constructor(
+    @Inject(APP_CONFIG) private readonly config: AppConfig,
+    private readonly repo: DatasetsRepository,
+    private readonly clock: Clock,
+  ) {}
+
+  upload(user: AuthUser, file: UploadedCsv | undefined, fields: DatasetUploadFields): DatasetUploadResult {
+    if (!file) throw new ValidationError('No file uploaded: send the CSV in the multipart field "file"', [{ path: 'file', message: 'required' }]);
+    const parsed = parseDatasetCsv(file.buffer, { maxRows: this.config.uploadMaxRows, units: fields.units });
+    const fileName = file.originalname ? (file.originalname.split(/[\\/]/).pop() ?? '').slice(0, 255) : null;
+    const d = this.repo.insert(
+      {
+        ownerId: user.id,
+        name: fields.name ?? nameFromFile(file.originalname),
+        fileName,
+        columns: JSON.stringify(parsed.columns),
+        rows: parsed.rows.length,
+        visibility: fields.visibility ?? 'private',
+        sha256: createHash('sha256').update(file.buffer).digest('hex'),
+        createdAt: this.clock.now(),
+      },
+      parsed.rows,
+    );
+    return { id: d.id, name: d.name, rows: d.rows, columns: parsed.columns };
+  }
+
+  canRead(user: AuthUser, d: DatasetRow): boolean {
+    if (user.role === 'admin' || d.ownerId === user.id || d.visibility === 'group') return true;
+    return this.repo.isSharedWith(d.id, user.id);
+  }
+
+  /** The dataset if the user may read it; 404 otherwise (private work is not confirmed). */
+  readable(user: AuthUser, id: number): DatasetRow {
+    const d = this.repo.findById(id);
+    if (!d || !this.canRead(user, d)) throw new NotFoundError(`Dataset ${id} not found`);
+    return d;
+  }
+
+  manageable(user: AuthUser, id: number): DatasetRow {
+    const d = this.readable(user, id);
+    if (user.role !== 'admin' && d.ownerId !== user.id) throw new ForbiddenError('Only the owner or an admin may change this dataset');
+    return d;
+  }
+
+  present(d: DatasetRow): DatasetView {
+    return {
+      id: d.id,
+      name: d.name,
+      fileName: d.fileName,
+      rows: d.rows,
+      columns: columnsOf(d),
+      visibility: d.visibility,
+      sha256: d.sha256,
+      owner: { id: d.ownerId, name: this.repo.ownerName(d.ownerId) },
+      sharedWith: this.repo.sharedWith(d.id),
+      createdAt: new Date(d.createdAt).toISOString(),
+    };
+  }
+
+  list(user: AuthUser, q: DatasetListQuery) {
+    const { items, total } = this.repo.list(user, { page: q.page, pageSize: q.pageSize, text: q.q });
+    return { items: items.map((d) => this.present(d)), total, page: q.page, pageSize: q.pageSize };
+  }
+
+  get(user: AuthUser, id: number): DatasetView {
+    return this.present(this.readable(user, id));
+  }
+
+  rows(user: AuthUser, id: number, q: DatasetRowsQuery): DatasetRowsPage {
+    const d = this.readable(user, id);
+    return { items: this.repo.rowsPage(id, q.page, q.pageSize), total: d.rows, page: q.page, pageSize: q.pageSize, columns: columnsOf(d) };
+  }
+
+  remove(user: AuthUser, id: number): void {
+    this.manageable(user, id);
+    this.repo.delete(id, this.clock.now());
+  }
+
+  setSharing(user: AuthUser, id: number, body: DatasetSharing): DatasetView {
+    this.manageable(user, id);
+    if (body.userIds) {
+      const known = this.repo.existingUserIds(body.userIds);
+      const details = body.userIds.flatMap((u, i) => (known.has(u) ? [] : [{ path: `userIds.${i}`, message: `no user with id ${u}` }]));
+      if (details.length) throw new ValidationError(`Invalid body: ${details[0].path}: ${details[0].message}`, details);
+    }
+    this.repo.setSharing(id, body);
+    return this.get(user, id);
+  }
+
+  /**
+   * Whole numeric columns in canonical units, in row order (the input of fits). Missing cells are NaN.
+   * 400 naming the column for a text column or a name the dataset does not have.
+   */
+  columns(user: AuthUser, id: number, names: string[]): { n: number; data: Record<string, Float64Array> } {
+    const d = this.readable(user, id);
+    const cols = columnsOf(d);
+    const idx = names.map((name, i) => {
+      const j = cols.findIndex((c) => c.name === name);
+      if (j < 0) throw new ValidationError(`Unknown column "${name.slice(0, 64)}"`, [{ path: `columns.${i}`, column: name, message: `unknown column; the dataset has ${cols.map((c) => c.name).join(', ')}` }]);
+      if (cols[j].kind !== 'number') throw new ValidationError(`Column "${name}" holds text, not numbers`, [{ path: `columns.${i}`, column: name, message: 'a text column cannot be used as a number' }]);
+      return j;
+    });
+    const data: Record<string, Float64Array> = {};
+    for (const name of names) data[name] = new Float64Array(d.rows);
+    let r = 0;
+    for (const cells of this.repo.iterateRows(id)) {
+      names.forEach((name, k) => {
+        const v = cells[idx[k]];
+        data[name][r] = typeof v === 'number' ? v : NaN;
+      });
+      r++;
+    }
+    if (r !== d.rows) for (const name of names) data[name] = data[name].subarray(0, r);
+    return { n: r, data };
+  }
+
+  /** Points of two numeric columns for an overlay on a sweep plot (canonical units, gaps skipped). */
+  series(user: AuthUser, id: number, q: DatasetSeriesQuery): DatasetSeries {
+    const d = this.readable(user, id);
+    const cols = columnsOf(d);
+    const { data, n } = this.columns(user, id, q.x === q.y ? [q.x] : [q.x, q.y]);
+    const xs = data[q.x];
+    const ys = data[q.y];
+    const keep: number[] = [];
+    for (let i = 0; i < n; i++) if (Number.isFinite(xs[i]) && Number.isFinite(ys[i])) keep.push(i);
+    const stride = Math.max(1, Math.ceil(keep.length / q.maxPoints));
+    const px: number[] = [];
+    const py: number[] = [];
+    for (let k = 0; k < keep.length; k += stride) {
+      px.push(xs[keep[k]]);
+      py.push(ys[keep[k]]);
+    }
+    const meta = (name: string) => {
+      const c = cols.find((x) => x.name === name)!;
+      return { name, unit: c.canonicalUnit, quantity: c.quantity };
+    };
+    return { x: meta(q.x), y: meta(q.y), n: px.length, total: keep.length, points: { x: px, y: py } };
+  }
+}

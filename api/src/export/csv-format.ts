@@ -1,0 +1,62 @@
+import { neutralizeFormula } from '@driftgrid/domain';
+
+/**
+ * CSV writing for exports (RFC 4180: comma separated, CRLF-free "\n" line ends, fields with a comma,
+ * quote or line break quoted and their quotes doubled).
+ */
+
+const NEEDS_QUOTES = /[",\r\n]/;
+
+/** One text field, quoted when needed. Does not neutralise formulas (see textCell). */
+export function csvField(text: string): string {
+  return NEEDS_QUOTES.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
+}
+
+/**
+ * A text cell from user data: formula-looking text (=, +, -, @, tab, CR first) gets a leading single
+ * quote — the OWASP "CSV Injection" advice — so a spreadsheet opening the export shows it as text.
+ */
+export function textCell(text: string): string {
+  return csvField(neutralizeFormula(text));
+}
+
+export function csvLine(fields: readonly string[]): string {
+  return fields.map(csvField).join(',') + '\n';
+}
+
+/** How a stored value is written: numbers at full precision, booleans as words, NULL as empty. */
+export type CellFormat = 'number' | 'boolean';
+
+/**
+ * Formats one row. `String(number)` is the shortest text that reads back to the same double
+ * (ECMAScript Number::toString), so the CSV loses no precision and stays compact.
+ */
+export function formatRow(row: readonly (number | null)[], formats: readonly CellFormat[]): string {
+  let s = '';
+  const n = row.length;
+  for (let j = 0; j < n; j++) {
+    const v = row[j];
+    if (j > 0) s += ',';
+    if (v === null) continue;
+    s += formats[j] === 'boolean' ? (v === 0 ? 'false' : 'true') : String(v);
+  }
+  return s + '\n';
+}
+
+/** A slug for file names: lowercase ASCII letters, digits and dashes only, never empty. */
+export function slugify(name: string, fallback = 'export'): string {
+  const slug = name
+    .normalize('NFKD')
+    .replace(/[\u0300-\u036f]/g, '')
+    .toLowerCase()
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-+|-+$/g, '')
+    .slice(0, 60)
+    .replace(/-+$/g, '');
+  return slug || fallback;
+}
+
+/** Content-Disposition for a download; the name is already a safe slug, so no encoding is needed. */
+export function attachment(fileName: string): string {
+  return `attachment; filename="${fileName}"`;
+}
