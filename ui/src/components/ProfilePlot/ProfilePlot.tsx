@@ -78,7 +78,8 @@ function ProfileChart({ panel, profile, a_m }: { panel: Panel; profile: Profile;
           type: 'value',
           name: prettyUnit(panel.unit),
           scale: panel.series[0]!.key === 'B_T',
-          axisLabel: { formatter: (v: number) => formatNumber(v, 3) },
+          // B changes by parts in 10⁵ at low β: its ticks need more figures to differ.
+          axisLabel: { formatter: (v: number) => formatNumber(v, panel.series[0]!.key === 'B_T' ? 7 : 3) },
         },
         series: panel.series.map((s, i) => ({
           type: 'line',
