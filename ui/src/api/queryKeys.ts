@@ -31,6 +31,9 @@ export const queryKeys = {
     list: (filters: KeyParams = {}) => ['fits', 'list', filters] as const,
     detail: (id: string | number) => ['fits', 'detail', String(id)] as const,
   },
+  users: {
+    directory: (q = '') => ['users', 'directory', q] as const,
+  },
   tokens: {
     all: () => ['tokens'] as const,
     list: (params: KeyParams = {}) => ['tokens', 'list', params] as const,
@@ -42,5 +45,6 @@ export const queryKeys = {
     queue: () => ['admin', 'queue'] as const,
     mailbox: (filters: KeyParams = {}) => ['admin', 'mailbox', filters] as const,
     invitations: () => ['admin', 'invitations'] as const,
+    audit: (params: KeyParams = {}) => ['admin', 'audit', params] as const,
   },
 } as const;
