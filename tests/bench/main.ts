@@ -1,0 +1,75 @@
+/**
+ * The Driftgrid bench (`npm run bench`, `BENCH_QUICK=1` for the small CI run). Each api scenario
+ * runs on its own fresh DATA_DIR; every child process and temp dir is removed at the end, also on
+ * failure. Figures are printed beside their targets and written to bench/results.json, never
+ * asserted: the exit code is non-zero only when the harness itself breaks (e.g. a sweep fails).
+ */
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { apiJson, REPO } from '../support/processes.js';
+import { benchConfig } from './lib/config.js';
+import { printTable, Report } from './lib/report.js';
+import { cleanupAll } from './lib/resources.js';
+import { benchQueries } from './scenarios/catalogue-queries.js';
+import { benchExport } from './scenarios/export.js';
+import { benchFitApi, benchFitDomain } from './scenarios/fit.js';
+import { benchKernels } from './scenarios/kernels.js';
+import { benchScaling } from './scenarios/scaling.js';
+import { benchStorage } from './scenarios/storage.js';
+import { benchEmbeddedSweep } from './scenarios/sweep-embedded.js';
+import { benchRedisSweep } from './scenarios/sweep-redis.js';
+
+const RESULTS = path.join(REPO, 'bench', 'results.json');
+
+export async function main(): Promise<number> {
+  const cfg = benchConfig();
+  const report = new Report();
+  const started = Date.now();
+  const onSignal = (sig: NodeJS.Signals) => {
+    console.error(`\n${sig}: stopping children and removing temp dirs`);
+    void cleanupAll().finally(() => process.exit(130));
+  };
+  process.once('SIGINT', onSignal);
+  process.once('SIGTERM', onSignal);
+  console.log(`Driftgrid bench (${cfg.quick ? 'quick' : 'full'}) — node ${process.version}, ${os.cpus().length} × ${os.cpus()[0]?.model ?? 'cpu'}`);
+  let failure: unknown;
+  try {
+    benchKernels(cfg, report);
+    benchFitDomain(cfg, report);
+    const kept = await benchEmbeddedSweep(cfg, report);
+    try {
+      await benchQueries(cfg, kept, report);
+      await benchExport(kept, report);
+      const sweep = await apiJson(kept.api.baseUrl, kept.api.token, 'GET', `/api/sweeps/${kept.sweepId}`);
+      benchStorage(kept, sweep.body?.columns?.length, report);
+      await benchFitApi(cfg, kept, report);
+    } finally {
+      await kept.api.stop();
+    }
+    await benchScaling(cfg, report, { points: kept.points, m: kept.measured });
+    await benchRedisSweep(cfg, report);
+  } catch (e) {
+    failure = e;
+  } finally {
+    await cleanupAll();
+    process.off('SIGINT', onSignal);
+    process.off('SIGTERM', onSignal);
+  }
+  const seconds = (Date.now() - started) / 1000;
+  printTable(report);
+  console.log(`\nbench ${cfg.quick ? 'quick' : 'full'} run: ${seconds.toFixed(1)} s`);
+  fs.mkdirSync(path.dirname(RESULTS), { recursive: true });
+  const out = {
+    at: new Date().toISOString(), mode: cfg.quick ? 'quick' : 'full', seconds, node: process.version,
+    cpus: os.cpus().length, cpuModel: os.cpus()[0]?.model, config: cfg, failure: failure ? String(failure instanceof Error ? failure.message : failure) : null,
+    rows: report.rows, notes: report.notes, details: report.details,
+  };
+  fs.writeFileSync(RESULTS, `${JSON.stringify(out, null, 2)}\n`);
+  console.log(`results written to ${path.relative(process.cwd(), RESULTS) || RESULTS}`);
+  if (failure) {
+    console.error(`\nBENCH FAILED (harness error, figures above are partial):\n${failure instanceof Error ? failure.stack ?? failure.message : String(failure)}`);
+    return 1;
+  }
+  return 0;
+}
