@@ -47,13 +47,15 @@ export const pageRoutes: readonly PageRoute[] = [
   { path: '/fits', title: 'Fits', load: () => import('./pages/Fits.page.js'), nav: { label: 'Fits', icon: IconMathFunction } },
   { path: '/single-point', title: 'Single point', load: () => import('./pages/SinglePoint.page.js'), nav: { label: 'Single point', icon: IconTarget } },
   { path: '/admin', title: 'Admin', roles: ['admin'], load: () => import('./pages/Admin.page.js'), nav: { label: 'Admin', icon: IconShieldLock } },
-  { path: '/account/tokens', title: 'API tokens', load: () => import('./pages/ApiTokens.page.js') },
+  { path: '/account/tokens', title: 'API tokens', load: () => import('./pages/Tokens.page.js') },
   { path: '/account/password', title: 'Password', load: () => import('./pages/Password.page.js') },
 ];
 
 /** Pages outside the shell, open without signing in. */
 export const publicRoutes: readonly PageRoute[] = [
   { path: '/sign-in', title: 'Sign in', load: () => import('./pages/SignIn.page.js') },
+  { path: '/accept-invite', title: 'Accept invitation', load: () => import('./pages/AcceptInvite.page.js') },
+  { path: '/reset-password', title: 'Reset password', load: () => import('./pages/ResetPassword.page.js') },
 ];
 
 export const navRoutes = pageRoutes.filter((r) => r.nav);
