@@ -1,7 +1,13 @@
-import { Anchor, Badge, Card, Group, Progress, SimpleGrid, Skeleton, Stack, Text, Title } from '@mantine/core';
+import { Anchor, Badge, Card, Group, SimpleGrid, Skeleton, Stack, Text, Title } from '@mantine/core';
+import { useQuery } from '@tanstack/react-query';
 import { IconDatabase, IconMathFunction, IconPlus, IconStack2, IconTarget, type Icon } from '@tabler/icons-react';
 import { Link } from 'react-router-dom';
-import { useMe, type Me, type Quota, type Role } from '../api/auth.js';
+import { useMe, type Role } from '../api/auth.js';
+import { api, type Page } from '../api/client.js';
+import { queryKeys } from '../api/queryKeys.js';
+import { QuotaMeters } from '../components/QuotaMeters/QuotaMeters.js';
+import { useSweepList, type SweepSummary } from '../components/ResultsTable/sweepApi.js';
+import { StatusBadge } from '../components/StatusBadge/StatusBadge.js';
 import { formatCount } from '../lib/format.js';
 
 const ROLE_SUMMARY: Record<Role, string> = {
@@ -26,46 +32,89 @@ const SHORTCUTS: Shortcut[] = [
   { to: '/fits', label: 'Fits', text: 'Fit scaling laws with standard errors.', icon: IconMathFunction, roles: ['researcher', 'reviewer', 'admin'] },
 ];
 
-// Which usage figure is measured against which quota (SPEC §9).
-const METERS: { quota: keyof Quota; usage: string; label: string }[] = [
-  { quota: 'maxRunningSweeps', usage: 'runningSweeps', label: 'Sweeps running now' },
-  { quota: 'maxPointsPer30Days', usage: 'pointsLast30Days', label: 'Points in the last 30 days' },
-  { quota: 'maxStoredPoints', usage: 'storedPoints', label: 'Stored points' },
-];
-
-function UsageMeters({ me }: { me: Me }) {
-  const rows = METERS.filter((m) => typeof me.quota?.[m.quota] === 'number');
-  if (!me.quota || rows.length === 0) {
-    return (
-      <Text fz="sm" c="dimmed">
-        No quota figures from the server yet. Once quotas are in force, your usage against each limit shows here.
-      </Text>
-    );
-  }
+/** A short list of sweeps from the catalogue, each linking to its page. */
+function SweepCard({ title, query, empty, testId }: { title: string; query: Record<string, string | number>; empty: string; testId: string }) {
+  const { data, isLoading } = useSweepList({ pageSize: 5, ...query });
+  const params = new URLSearchParams(Object.entries(query).filter(([k]) => k !== 'pageSize').map(([k, v]) => [k, String(v)]));
   return (
-    <Stack gap="sm">
-      {rows.map((m) => {
-        const limit = me.quota![m.quota]!;
-        const used = me.usage?.[m.usage] ?? 0;
-        const pct = limit > 0 ? Math.min(100, (used / limit) * 100) : 100;
-        return (
-          <div key={m.quota}>
-            <Group justify="space-between" fz="sm" mb={4}>
-              <Text fz="sm">{m.label}</Text>
-              <Text fz="sm" className="dg-num">
-                {formatCount(used)} of {formatCount(limit)}
-              </Text>
-            </Group>
-            <Progress value={pct} color={pct >= 90 ? 'rust' : pct >= 70 ? 'ember' : 'tide'} aria-label={`${m.label}: ${formatCount(used)} of ${formatCount(limit)}`} />
-          </div>
-        );
-      })}
-      {typeof me.quota.maxPointsPerSweep === 'number' ? (
-        <Text fz="xs" c="dimmed">
-          Largest sweep you may submit: {formatCount(me.quota.maxPointsPerSweep)} points.
+    <Card withBorder padding="md" radius="md" data-testid={testId}>
+      <Group justify="space-between" mb="xs">
+        <Title order={2} fz="h4">
+          {title}
+        </Title>
+        {data && data.total > 0 ? (
+          <Anchor component={Link} to={`/catalogue?${params}`} fz="sm">
+            All {formatCount(data.total)}
+          </Anchor>
+        ) : null}
+      </Group>
+      {isLoading ? <Skeleton h={60} /> : null}
+      {data && data.items.length === 0 ? (
+        <Text fz="sm" c="dimmed">
+          {empty}
         </Text>
       ) : null}
-    </Stack>
+      <Stack gap={6}>
+        {data?.items.map((s: SweepSummary) => (
+          <Group key={s.id} justify="space-between" wrap="nowrap" gap="xs">
+            <Anchor component={Link} to={`/sweeps/${s.id}`} fz="sm" truncate>
+              {s.name}
+            </Anchor>
+            <StatusBadge status={s.status} suffix={s.status === 'running' || s.status === 'queued' ? `${Math.floor(s.progress.fraction * 100)} %` : undefined} />
+          </Group>
+        ))}
+      </Stack>
+    </Card>
+  );
+}
+
+interface QueueStatus {
+  mode: string;
+  paused: boolean;
+  counts: Record<string, number>;
+  sweeps: unknown[];
+}
+
+function AdminGlance() {
+  const queue = useQuery({ queryKey: queryKeys.admin.queue(), queryFn: ({ signal }) => api.get<QueueStatus>('/admin/queue', undefined, signal), refetchInterval: 5000 });
+  const users = useQuery({ queryKey: queryKeys.admin.users({ pageSize: 1 }), queryFn: ({ signal }) => api.get<Page<unknown>>('/admin/users', { pageSize: 1 }, signal) });
+  const c = queue.data?.counts ?? {};
+  const cells: [string, number | undefined][] = [
+    ['Chunks waiting', queue.data ? (c.waiting ?? 0) + (c.prioritized ?? 0) + (c.delayed ?? 0) : undefined],
+    ['Chunks running', c.active],
+    ['Chunks failed', c.failed],
+    ['Sweeps in progress', queue.data?.sweeps.length],
+    ['Users', users.data?.total],
+  ];
+  return (
+    <Card withBorder padding="md" radius="md" data-testid="admin-glance">
+      <Group justify="space-between" mb="xs">
+        <Title order={2} fz="h4">
+          Queue and users
+        </Title>
+        <Anchor component={Link} to="/admin" fz="sm">
+          Admin
+        </Anchor>
+      </Group>
+      {queue.error ? <Text fz="sm" c="red">{(queue.error as Error).message}</Text> : null}
+      <SimpleGrid cols={{ base: 2, sm: 5 }}>
+        {cells.map(([label, n]) => (
+          <div key={label}>
+            <Text fz="xs" c="dimmed">
+              {label}
+            </Text>
+            <Text fz="lg" fw={500} className="dg-num">
+              {n === undefined ? '—' : formatCount(n)}
+            </Text>
+          </div>
+        ))}
+      </SimpleGrid>
+      {queue.data ? (
+        <Text fz="xs" c="dimmed" mt="xs">
+          Queue {queue.data.paused ? 'paused' : 'running'} · {queue.data.mode === 'embedded' ? 'in-process' : queue.data.mode} mode
+        </Text>
+      ) : null}
+    </Card>
   );
 }
 
@@ -108,12 +157,26 @@ export default function DashboardPage() {
         ))}
       </SimpleGrid>
 
+      {me.role === 'admin' ? <AdminGlance /> : null}
+
+      {me.role === 'reviewer' ? (
+        <SimpleGrid cols={{ base: 1, md: 2 }} spacing="md">
+          <SweepCard title="Recently archived" testId="recent-archived" query={{ scope: 'archived', sort: 'finishedAt:desc' }} empty="No sweep has been archived yet. Archived sweeps appear here for download." />
+          <SweepCard title="Shared with me" testId="shared-with-me" query={{ scope: 'shared', sort: 'createdAt:desc' }} empty="Nobody has shared a sweep with you yet." />
+        </SimpleGrid>
+      ) : (
+        <SimpleGrid cols={{ base: 1, md: 2 }} spacing="md">
+          <SweepCard title="Running now" testId="running-work" query={{ scope: 'mine', status: 'queued,running', sort: 'createdAt:desc' }} empty="Nothing of yours is queued or running. Start one from New sweep." />
+          <SweepCard title="Recent sweeps" testId="recent-sweeps" query={{ scope: 'mine', sort: 'createdAt:desc' }} empty="You have not run a sweep yet. New sweep walks you through the first one." />
+        </SimpleGrid>
+      )}
+
       {me.role !== 'reviewer' ? (
         <Card withBorder padding="md" radius="md" maw={560}>
           <Title order={2} fz="h4" mb="sm">
             Your usage
           </Title>
-          <UsageMeters me={me} />
+          <QuotaMeters quota={me.quota} usage={me.usage} />
         </Card>
       ) : null}
 
