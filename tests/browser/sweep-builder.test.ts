@@ -1,0 +1,151 @@
+/**
+ * SPEC §13.1 up to the sweep page: New sweep, cross-field, Te 1–1000 eV (log, 31), B 0.1–5 T
+ * (linear, 50), Ti = Te (expression), mu 2, L_n 2 cm; the preview shows 1,550 points (31 × 50) and
+ * a sample point with its flags; the draft survives a re-sign-in; Ctrl+Enter submits; the sweep
+ * page opens and the sweep completes (checked through the api, which the sweep page also reads).
+ *
+ * Stable hooks used (ui/src/components/SweepBuilder):
+ *   builder-model, sweep-name, mode-<input> (segmented: Default | Fixed | Axis), fixed-<input>,
+ *   axis-kind-<input> (select: Linear | Logarithmic | List of values), axis-min-<input>,
+ *   axis-max-<input>, axis-count-<input>, axis-values-<input>, sampling-kind, sampling-samples,
+ *   sampling-seed, add-derived, derived-name-<i>, derived-expr-<i>, sweep-tags, sweep-visibility,
+ *   load-example, example-<file>, import-json, export-json, reset-builder, submit-sweep,
+ *   submit-error, draft-restored;
+ *   preview: sweep-preview, preview-points (data-value), preview-chunks, preview-estimate,
+ *   preview-errors, preview-sample (holds sample-<column> cells and the `flags` box),
+ *   quota-verdict (data-allowed), quota-violation.
+ */
+import fs from 'node:fs';
+import path from 'node:path';
+import type { Browser, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { chromiumAvailable, launchBrowser } from '../support/browser.js';
+import { startServer, type RunningServer } from '../support/server.js';
+import { waitForSweep } from '../support/sweeps.js';
+import { DEMO } from '../support/app.js';
+
+const run = chromiumAvailable();
+
+async function signIn(page: Page, baseUrl: string) {
+  await page.goto(baseUrl + '/sign-in');
+  await page.getByLabel('Email').fill('researcher@example.com');
+  await page.getByLabel('Password').fill('driftgrid-demo');
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  try {
+    // Generous: this machine is shared with other suites; no timing is asserted.
+    await page.getByTestId('whoami').waitFor({ timeout: 30000 });
+  } catch (err) {
+    console.log('sign-in did not finish; at', page.url(), (await page.textContent('body'))?.slice(0, 300));
+    throw err;
+  }
+}
+
+async function mode(page: Page, input: string, label: 'Default' | 'Fixed' | 'Axis') {
+  await page.getByTestId(`mode-${input}`).getByText(label, { exact: true }).click();
+}
+
+async function axisKind(page: Page, input: string, label: 'Linear' | 'Logarithmic' | 'List of values') {
+  await page.getByTestId(`axis-kind-${input}`).click();
+  await page.getByRole('option', { name: label }).click();
+}
+
+describe.runIf(run)('sweep builder', () => {
+  let server: RunningServer;
+  let browser: Browser;
+
+  beforeAll(async () => {
+    server = await startServer();
+    if (!fs.existsSync(path.join(server.config.uiDist, 'index.html'))) throw new Error('ui is not built: run npm run build first');
+    browser = await launchBrowser();
+  });
+  afterAll(async () => {
+    await browser?.close();
+    await server?.close();
+  });
+
+  it('builds the Te × B deuterium scan, previews 1,550 points, keeps the draft across sign-in, submits and completes', async () => {
+    const page = await browser.newPage();
+    await signIn(page, server.baseUrl);
+    await page.getByRole('link', { name: 'New sweep' }).first().click();
+    await page.getByTestId('sweep-builder').waitFor();
+
+    await page.getByTestId('builder-model').getByText('Cross-field drifts').click();
+    await page.getByTestId('sweep-name').fill('Journey: deuterium Te × B');
+    await mode(page, 'Te_eV', 'Axis');
+    await axisKind(page, 'Te_eV', 'Logarithmic');
+    await page.getByTestId('axis-min-Te_eV').fill('1');
+    await page.getByTestId('axis-max-Te_eV').fill('1000');
+    await page.getByTestId('axis-count-Te_eV').fill('31');
+    await mode(page, 'B_T', 'Axis');
+    await page.getByTestId('axis-min-B_T').fill('0.1');
+    await page.getByTestId('axis-max-B_T').fill('5');
+    await page.getByTestId('axis-count-B_T').fill('50');
+    await mode(page, 'Ti_eV', 'Fixed');
+    await page.getByTestId('fixed-Ti_eV').fill('Te_eV');
+    await mode(page, 'mu', 'Fixed');
+    await page.getByTestId('fixed-mu').fill('2');
+    await mode(page, 'Ln_m', 'Fixed');
+    await page.getByTestId('fixed-Ln_m').fill('2 cm');
+
+    // An error appears beside its field as you type (axes.1.max → the B "To" field) and goes away.
+    await page.getByTestId('axis-max-B_T').fill('500');
+    await expect.poll(async () => (await page.getByTestId('input-row-B_T').textContent()) ?? '', { timeout: 10000 }).toMatch(/≤ 100 T/);
+    await page.getByTestId('axis-max-B_T').fill('5');
+
+    const points = page.getByTestId('preview-points');
+    await expect.poll(async () => points.textContent(), { timeout: 10000 }).toBe('1,550');
+    const sample = page.getByTestId('preview-sample');
+    // Point #0 is the first corner: Te 1 eV, B 0.1 T, Ti = Te.
+    expect(Number(await sample.getByTestId('sample-Te_eV').getAttribute('data-value'))).toBe(1);
+    expect(Number(await sample.getByTestId('sample-B_T').getAttribute('data-value'))).toBeCloseTo(0.1, 12);
+    expect(Number(await sample.getByTestId('sample-Ti_eV').getAttribute('data-value'))).toBe(1);
+    expect(await sample.getByTestId('flags').getAttribute('data-count')).not.toBeNull();
+    const verdict = page.getByTestId('quota-verdict');
+    await verdict.waitFor({ timeout: 15000 });
+    expect(await verdict.getAttribute('data-allowed')).toBe('true');
+
+    // The session ends (token dropped); after signing in again the draft is still there.
+    await page.evaluate(() => window.localStorage.removeItem('driftgrid.session'));
+    await signIn(page, server.baseUrl);
+    await page.goto(server.baseUrl + '/sweeps/new');
+    await page.getByTestId('draft-restored').waitFor({ timeout: 10000 });
+    expect(await page.getByTestId('sweep-name').inputValue()).toBe('Journey: deuterium Te × B');
+    expect(await page.getByTestId('fixed-Ti_eV').inputValue()).toBe('Te_eV');
+    await expect.poll(async () => page.getByTestId('preview-points').textContent(), { timeout: 10000 }).toBe('1,550');
+    await page.getByTestId('quota-verdict').waitFor({ timeout: 15000 });
+
+    // Ctrl+Enter from a field submits; the sweep page opens.
+    await page.getByTestId('sweep-name').press('Control+Enter');
+    await page.waitForURL(/\/sweeps\/\d+$/, { timeout: 15000 });
+    const id = Number(/\/sweeps\/(\d+)$/.exec(page.url())![1]);
+    expect(id).toBeGreaterThan(0);
+
+    const token = await server.login(DEMO.researcher);
+    const done = await waitForSweep(server, token, id, 60_000);
+    expect(done.status).toBe('completed');
+    expect(done.points).toBe(1550);
+    expect(done.model).toBe('cross-field');
+    expect(done.definition.fixed).toMatchObject({ Ti_eV: 'Te_eV', mu: 2, Ln_m: '2 cm' });
+    // A submitted draft is cleared: the builder starts empty again.
+    await page.goto(server.baseUrl + '/sweeps/new');
+    await page.getByTestId('sweep-builder').waitFor();
+    expect(await page.getByTestId('sweep-name').inputValue()).toBe('');
+    await page.close();
+  });
+
+  it('loads an example, previews it and shows server errors for a bad definition', async () => {
+    const page = await browser.newPage();
+    await signIn(page, server.baseUrl);
+    await page.goto(server.baseUrl + '/sweeps/new');
+    await page.getByTestId('load-example').click();
+    await page.getByTestId('example-deuterium-edge-grid.json').click();
+    // SPEC §4 example: 31 × 50 × 3 × 3.
+    await expect.poll(async () => page.getByTestId('preview-points').textContent(), { timeout: 10000 }).toBe('13,950');
+    expect(await page.getByTestId('axis-values-Ln_m').inputValue()).toBe('0.01, 0.02, 0.05');
+    expect(await page.getByTestId('derived-expr-0').inputValue()).toBe('vE_ms / vDi_ms');
+    // An unknown symbol in a derived column is reported beside that field.
+    await page.getByTestId('derived-expr-0').fill('vE_ms / nonsense');
+    await expect.poll(async () => (await page.getByTestId('preview-errors').textContent()) ?? '', { timeout: 10000 }).toMatch(/derived\.0\.expr/);
+    await page.close();
+  });
+});
