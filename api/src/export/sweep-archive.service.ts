@@ -77,16 +77,19 @@ export class SweepArchiver {
       },
     });
     const { zip } = this.builder.build(s, { exportedAt: now, archivedAt: now });
-    const handle = await fs.promises.open(tmp, 'wx', 0o640);
     try {
-      await pipeline(zip, tap, handle.createWriteStream({ autoClose: false }));
-      await handle.sync();
+      await pipeline(zip, tap, fs.createWriteStream(tmp, { flags: 'wx', mode: 0o640 }));
+      // fsync applies to the file, whichever descriptor asks: make the bytes durable before the rename.
+      const handle = await fs.promises.open(tmp, 'r+');
+      try {
+        await handle.sync();
+      } finally {
+        await handle.close();
+      }
     } catch (err) {
-      await handle.close().catch(() => undefined);
       await fs.promises.rm(tmp, { force: true });
       throw err;
     }
-    await handle.close();
     const sha256 = hash.digest('hex');
     const name = `sweep-${id}-${sha256.slice(0, 12)}.zip`;
     const fullPath = path.join(this.config.archiveDir, name);
