@@ -15,13 +15,14 @@ import { SweepsModule } from './sweeps/sweeps.module.js';
 import { ExportModule } from './export/export.module.js';
 import { ModelsModule } from './models/models.module.js';
 import { CatalogueModule } from './catalogue/catalogue.module.js';
+import { FitsModule } from './fits/fits.module.js';
 
 @Module({})
 export class AppModule {
   static forRoot(config: AppConfig): DynamicModule {
     return {
       module: AppModule,
-      imports: [ConfigModule.forRoot(config), ClockModule, DbModule, UsersModule, AuthModule, HealthModule, SeedModule, PeopleModule, QueueModule.forRoot(config), SweepsModule, ModelsModule, CatalogueModule, ExportModule],
+      imports: [ConfigModule.forRoot(config), ClockModule, DbModule, UsersModule, AuthModule, HealthModule, SeedModule, PeopleModule, QueueModule.forRoot(config), SweepsModule, ModelsModule, CatalogueModule, FitsModule, ExportModule],
       providers: [{ provide: APP_FILTER, useClass: HttpErrorFilter }],
     };
   }
