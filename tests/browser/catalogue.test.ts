@@ -40,6 +40,8 @@ describe.runIf(run)('catalogue, sweep page and plots', () => {
 
   it('filters by model and tag, opens the sweep, sorts by an output and plots on log axes', async () => {
     const page = await browser.newPage({ viewport: { width: 1400, height: 900 } });
+    const crashes: string[] = [];
+    page.on('pageerror', (e) => crashes.push(e.message));
     await page.goto(server.baseUrl + '/sign-in');
     await page.getByLabel('Email').fill(DEMO.researcher);
     await page.getByLabel('Password').fill('driftgrid-demo');
@@ -89,6 +91,8 @@ describe.runIf(run)('catalogue, sweep page and plots', () => {
     await page.getByText('Log y').click();
     await expect.poll(async () => plot.getAttribute('data-log-y')).toBe('true');
     expect(await page.getByTestId('log-y').isChecked()).toBe(true);
+    if (process.env.SHOT_DIR) await page.screenshot({ path: path.join(process.env.SHOT_DIR, 'sweep-plot.png') });
+    expect(crashes).toEqual([]);
     await page.close();
   }, 90_000);
 });
