@@ -3,6 +3,8 @@ import { IconAlertTriangle, IconCircleCheck, IconClock, IconHandStop } from '@ta
 import { chunkCount, DEFAULT_CHUNK_SIZE, type CompiledSweep, type PointEvaluation } from '@driftgrid/domain';
 import { Num } from '../Num/Num.js';
 import { FlagList } from '../QuantityInput/ModelOutputs.js';
+import { QuotaMeters } from '../QuotaMeters/QuotaMeters.js';
+import { useMe } from '../../api/auth.js';
 import { formatCount, formatNumber } from '../../lib/format.js';
 
 /** The server's verdict from POST /api/sweeps/preview. */
@@ -38,6 +40,7 @@ function seconds(s: number): string {
  */
 export function PreviewPanel({ compiled, sample, sampleError, localErrors, server, serverLoading, serverError }: PreviewPanelProps) {
   const violations = server?.quota?.violations ?? [];
+  const me = useMe();
   return (
     <Paper withBorder p="md" radius="sm" data-testid="sweep-preview">
       <Stack gap="sm">
@@ -96,6 +99,7 @@ export function PreviewPanel({ compiled, sample, sampleError, localErrors, serve
             ) : serverLoading ? (
               <Group gap="xs"><Loader size="xs" /><Text fz="xs" c="dimmed">Asking the server for the estimate and your quota…</Text></Group>
             ) : null}
+            {me.data?.quota ? <QuotaMeters quota={me.data.quota} usage={me.data.usage} requested={compiled.totalPoints} /> : null}
             <div data-testid="preview-sample">
               <Text fz="sm" fw={500} mb={4}>
                 Sample point #0 <Badge size="xs" variant="light" color="gray">computed in your browser</Badge>

@@ -4,7 +4,7 @@ import {
 } from '@mantine/core';
 import { useDebouncedValue } from '@mantine/hooks';
 import { IconDownload, IconFileImport, IconPlayerPlay, IconPlus, IconRestore, IconTemplate, IconTrash } from '@tabler/icons-react';
-import { keepPreviousData, useMutation, useQuery } from '@tanstack/react-query';
+import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useMemo, useState, type KeyboardEvent } from 'react';
 import { useNavigate } from 'react-router-dom';
 import { checkSweep, models, type PointEvaluation } from '@driftgrid/domain';
@@ -45,6 +45,7 @@ function download(filename: string, text: string) {
  */
 export function SweepBuilder() {
   const navigate = useNavigate();
+  const queryClient = useQueryClient();
   const [state, setState, draft] = useDraft<BuilderState>('sweep-builder', initialState());
   const [importError, setImportError] = useState<string | null>(null);
   const model = modelOf(state) ?? models[0]!;
@@ -81,6 +82,9 @@ export function SweepBuilder() {
     mutationFn: (def: Record<string, unknown>) => api.post<{ id: number; status: string; points: number }>('/sweeps', def),
     onSuccess: (res) => {
       draft.clear();
+      // Usage (quota meters) and the catalogue change with a new sweep.
+      void queryClient.invalidateQueries({ queryKey: queryKeys.me() });
+      void queryClient.invalidateQueries({ queryKey: queryKeys.sweeps.lists() });
       navigate(`/sweeps/${res.id}`);
     },
   });
