@@ -14,10 +14,10 @@ import { ResultsTable } from '../components/ResultsTable/ResultsTable.js';
 import { ACTIVE, useSweep, type SweepView } from '../components/ResultsTable/sweepApi.js';
 import { StatusBadge } from '../components/StatusBadge/StatusBadge.js';
 import { formatCount, prettyUnit } from '../lib/format.js';
-// ExportActions ({ sweep }) and FitsPanel ({ source, columns }) are built by other engineers; they are
-// not in the tree yet. When they land, replace the two placeholders below with:
+import { FitsPanel } from '../components/FitsPanel/FitsPanel.js';
+// ExportActions ({ sweep }) is built by another engineer and is not in the tree yet. When it lands,
+// import it and replace the placeholder in the Export tab:
 //   import { ExportActions } from '../components/ExportActions/ExportActions.js';
-//   import { FitsPanel } from '../components/FitsPanel/FitsPanel.js';
 
 // echarts is heavy: the plot loads with its tab.
 const SweepPlot = lazy(() => import('../components/SweepPlot/SweepPlot.js').then((m) => ({ default: m.SweepPlot })));
@@ -274,10 +274,7 @@ export default function SweepPage() {
           </Suspense>
         </Tabs.Panel>
         <Tabs.Panel value="fits">
-          {/* <FitsPanel source={{ kind: 'sweep', id: sweep.id }} columns={sweep.columns} /> once FitsPanel exists. */}
-          <EmptyState icon={IconChartDots3} title="Fits of this sweep" actions={<Button component={Link} to="/fits" variant="light">Open Fits</Button>}>
-            Fit a reduced scaling law (power law, exponential, polytropic) to these results on the Fits page; fits attached to this sweep will be listed here.
-          </EmptyState>
+          <FitsPanel source={{ kind: 'sweep', id: sweep.id }} columns={sweep.columns} />
         </Tabs.Panel>
         <Tabs.Panel value="export">
           {/* <ExportActions sweep={sweep} /> once ExportActions exists. */}
