@@ -22,6 +22,16 @@ import { benchRedisSweep } from './scenarios/sweep-redis.js';
 
 const RESULTS = path.join(REPO, 'bench', 'results.json');
 
+/** Runs one scenario and prints how long it took (the quick run must stay under a minute). */
+async function step<T>(name: string, fn: () => Promise<T> | T): Promise<T> {
+  const t0 = performance.now();
+  try {
+    return await fn();
+  } finally {
+    console.log(`  (${name}: ${((performance.now() - t0) / 1000).toFixed(1)} s)`);
+  }
+}
+
 export async function main(): Promise<number> {
   const cfg = benchConfig();
   const report = new Report();
@@ -33,22 +43,26 @@ export async function main(): Promise<number> {
   process.once('SIGINT', onSignal);
   process.once('SIGTERM', onSignal);
   console.log(`Driftgrid bench (${cfg.quick ? 'quick' : 'full'}) — node ${process.version}, ${os.cpus().length} × ${os.cpus()[0]?.model ?? 'cpu'}`);
+  const loadStart = os.loadavg();
+  if (loadStart[0]! > os.cpus().length * 0.5) {
+    report.note(`load average ${loadStart.map((l) => l.toFixed(1)).join(' / ')} at start on ${os.cpus().length} cores: other work is running, figures will read low`);
+  }
   let failure: unknown;
   try {
-    benchKernels(cfg, report);
-    benchFitDomain(cfg, report);
-    const kept = await benchEmbeddedSweep(cfg, report);
+    await step('kernels', () => benchKernels(cfg, report));
+    await step('fit (domain)', () => benchFitDomain(cfg, report));
+    const kept = await step('embedded sweeps', () => benchEmbeddedSweep(cfg, report));
     try {
-      await benchQueries(cfg, kept, report);
-      await benchExport(kept, report);
+      await step('queries', () => benchQueries(cfg, kept, report));
+      await step('export', () => benchExport(kept, report));
       const sweep = await apiJson(kept.api.baseUrl, kept.api.token, 'GET', `/api/sweeps/${kept.sweepId}`);
-      benchStorage(kept, sweep.body?.columns?.length, report);
-      await benchFitApi(cfg, kept, report);
+      await step('storage', () => benchStorage(kept, sweep.body?.columns?.length, report));
+      await step('fit (api)', () => benchFitApi(cfg, kept, report));
     } finally {
       await kept.api.stop();
     }
-    await benchScaling(cfg, report, { points: kept.points, m: kept.measured });
-    await benchRedisSweep(cfg, report);
+    await step('scaling', () => benchScaling(cfg, report));
+    await step('redis', () => benchRedisSweep(cfg, report));
   } catch (e) {
     failure = e;
   } finally {
@@ -57,12 +71,14 @@ export async function main(): Promise<number> {
     process.off('SIGTERM', onSignal);
   }
   const seconds = (Date.now() - started) / 1000;
+  const loadEnd = os.loadavg();
+  report.note(`load average (1/5/15 min) at start ${loadStart.map((l) => l.toFixed(1)).join(' / ')}, at end ${loadEnd.map((l) => l.toFixed(1)).join(' / ')}`);
   printTable(report);
   console.log(`\nbench ${cfg.quick ? 'quick' : 'full'} run: ${seconds.toFixed(1)} s`);
   fs.mkdirSync(path.dirname(RESULTS), { recursive: true });
   const out = {
     at: new Date().toISOString(), mode: cfg.quick ? 'quick' : 'full', seconds, node: process.version,
-    cpus: os.cpus().length, cpuModel: os.cpus()[0]?.model, config: cfg, failure: failure ? String(failure instanceof Error ? failure.message : failure) : null,
+    cpus: os.cpus().length, cpuModel: os.cpus()[0]?.model, loadStart, loadEnd, config: cfg, failure: failure ? String(failure instanceof Error ? failure.message : failure) : null,
     rows: report.rows, notes: report.notes, details: report.details,
   };
   fs.writeFileSync(RESULTS, `${JSON.stringify(out, null, 2)}\n`);

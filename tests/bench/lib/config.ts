@@ -30,7 +30,7 @@ export function benchConfig(env: NodeJS.ProcessEnv = process.env): BenchConfig {
   if (quick) {
     return {
       quick,
-      kernelChunk: { 'cross-field': 20_000, 'parallel-balance': 20_000, 'column-profile': 500 },
+      kernelChunk: { 'cross-field': 20_000, 'parallel-balance': 20_000, 'column-profile': 2_000 },
       compiledGrid: 100_000,
       compiledGridProfile: 1_000,
       kernelRuns: 3,

@@ -65,7 +65,7 @@ async function download(url: string, token: string, file: string, t0: number): P
     for await (const chunk of res.body as unknown as AsyncIterable<Uint8Array>) {
       if (!zipBytes) firstByteMs = performance.now() - t0;
       zipBytes += chunk.length;
-      if (!out.write(chunk)) await new Promise((r) => out.once('drain', r));
+      if (!out.write(chunk)) await new Promise<void>((r) => out.once('drain', () => r()));
     }
   } finally {
     await new Promise<void>((r, j) => out.end((e?: Error | null) => (e ? j(e) : r())));

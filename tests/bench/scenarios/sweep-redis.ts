@@ -5,13 +5,13 @@
 import fs from 'node:fs';
 import { spawnNode, type Proc } from '../../support/processes.js';
 import { realRedis } from '../../support/redis.js';
-import { startApi, stopProc } from '../lib/api.js';
+import { startApi, stopProc, warmUp } from '../lib/api.js';
 import type { BenchConfig } from '../lib/config.js';
 import { crossFieldGrid } from '../lib/definitions.js';
 import { measuredSweep } from '../lib/measured-sweep.js';
 import type { Report } from '../lib/report.js';
 import { track } from '../lib/resources.js';
-import { reportSweep } from './sweep-embedded.js';
+import { reportSweep, WARM_UP_POINTS } from './sweep-embedded.js';
 
 function redisAvailable(): boolean {
   return !!process.env.REDIS_TEST_URL || ['/usr/bin/redis-server', '/usr/local/bin/redis-server'].some((p) => fs.existsSync(p));
@@ -52,6 +52,8 @@ export async function benchRedisSweep(cfg: BenchConfig, report: Report): Promise
       stops.push(track(`worker ${w}`, () => stopProc(proc)));
       await waitForOutput(proc, 'started');
     }
+    const warmUpMs = await warmUp(api, crossFieldGrid(WARM_UP_POINTS));
+    report.add({ scenario, metric: `first sweep after start (${WARM_UP_POINTS.toLocaleString('en-US')} pts, warm-up)`, value: warmUpMs / 1000, unit: 's', note: 'not in the figures below' });
     const m = await measuredSweep(api, crossFieldGrid(cfg.sweepPoints));
     reportSweep(report, scenario, `${cfg.workers} workers × concurrency ${cfg.workerConcurrency}:`, m, !cfg.quick);
     const share = m.run.workers.map((w) => `${w.id} ${w.points.toLocaleString('en-US')} pts`).join('; ');
