@@ -14,6 +14,7 @@
  *   preview: sweep-preview, preview-points (data-value), preview-chunks, preview-estimate,
  *   preview-errors, preview-sample (holds sample-<column> cells and the `flags` box),
  *   quota-verdict (data-allowed), quota-violation.
+ *   The sweep page (catalogue engineer's): sweep-status (StatusBadge, data-status).
  */
 import fs from 'node:fs';
 import path from 'node:path';
@@ -119,6 +120,11 @@ describe.runIf(run)('sweep builder', () => {
     await page.waitForURL(/\/sweeps\/\d+$/, { timeout: 15000 });
     const id = Number(/\/sweeps\/(\d+)$/.exec(page.url())![1]);
     expect(id).toBeGreaterThan(0);
+
+    // The sweep page follows the run live until it reads Completed.
+    const status = page.getByTestId('sweep-status');
+    await status.waitFor({ timeout: 15000 });
+    await expect.poll(async () => status.getAttribute('data-status'), { timeout: 60000, interval: 250 }).toBe('completed');
 
     const token = await server.login(DEMO.researcher);
     const done = await waitForSweep(server, token, id, 60_000);

@@ -21,7 +21,7 @@ const LIVE = new Set(['queued', 'running']);
 /**
  * Compact live progress of one sweep: status in words and icon, a bar, points persisted / total.
  * Polls GET /api/sweeps/:id every second while the sweep is queued or running, then stops.
- * Test hooks: `sweep-progress` (data-status, data-done, data-total), `sweep-progress-count`.
+ * Test hooks: `sweep-progress-compact` (data-status, data-done, data-total), `sweep-progress-count`.
  */
 export function SweepProgress({ sweepId }: { sweepId: number | string }) {
   const q = useQuery({
@@ -39,7 +39,7 @@ export function SweepProgress({ sweepId }: { sweepId: number | string }) {
   const pct = total > 0 ? (100 * done) / total : 0;
   const live = s ? LIVE.has(s.status) : true;
   return (
-    <Stack gap={4} data-testid="sweep-progress" data-status={s?.status ?? 'loading'} data-done={done} data-total={total} aria-live="polite">
+    <Stack gap={4} data-testid="sweep-progress-compact" data-status={s?.status ?? 'loading'} data-done={done} data-total={total} aria-live="polite">
       <Group justify="space-between" gap="xs">
         <StatusBadge status={s?.status ?? 'queued'} suffix={s?.status === 'running' ? `${Math.floor(pct)} %` : undefined} />
         <Text fz="sm" data-testid="sweep-progress-count" style={{ fontVariantNumeric: 'tabular-nums' }}>
