@@ -1,0 +1,100 @@
+import { Anchor, Group, Pagination, Paper, Table, Text } from '@mantine/core';
+import { useQuery } from '@tanstack/react-query';
+import { useState } from 'react';
+import { Link } from 'react-router-dom';
+import { queryKeys } from '../../api/queryKeys.js';
+import { Num } from '../Num/Num.js';
+import { FitStatus } from '../FitResult/FitStatus.js';
+import { LIVE_FIT, MODEL_LABEL, fitsApi, xList, type FitSourceKind, type FitView } from '../FitResult/fit-types.js';
+
+const PAGE_SIZE = 20;
+
+/** One line per parameter value ± error, compact, for list rows. */
+export function ParameterSummary({ fit }: { fit: FitView }) {
+  if (!fit.parameters) return <Text fz="xs" c="dimmed">{fit.error ?? '—'}</Text>;
+  return (
+    <Group gap={10} wrap="wrap">
+      {fit.parameters.map((p) => (
+        <Text key={p.name} fz="xs" span>
+          <Text span ff="monospace" fz="xs">{p.name}</Text> = <Num value={p.value} sig={5} /> ± <Num value={p.stdError} sig={2} />
+        </Text>
+      ))}
+    </Group>
+  );
+}
+
+/**
+ * Saved fits of one source (or of every source the user can read when `source` is absent), newest
+ * first. Test hook: rows `saved-fit-<id>`.
+ */
+export function SavedFits({
+  source, selectedId, onSelect, showSource = false,
+}: {
+  source?: { kind: FitSourceKind; id: number };
+  selectedId?: number | null;
+  onSelect?: (id: number) => void;
+  showSource?: boolean;
+}) {
+  const [page, setPage] = useState(1);
+  const params = { ...(source ? { sourceKind: source.kind, sourceId: source.id } : {}), page, pageSize: PAGE_SIZE };
+  const q = useQuery({
+    queryKey: queryKeys.fits.list(params),
+    queryFn: ({ signal }) => fitsApi.list(params, signal),
+    refetchInterval: (query) => (query.state.data?.items.some((f) => LIVE_FIT.has(f.status)) ? 1000 : false),
+  });
+  if (q.error) return <Text c="red" fz="sm">Saved fits could not be loaded: {(q.error as Error).message}</Text>;
+  if (!q.data) return <Text fz="sm" c="dimmed">Loading saved fits…</Text>;
+  const items = q.data.items;
+  if (items.length === 0) {
+    return (
+      <Text fz="sm" c="dimmed" data-testid="saved-fits-empty">
+        No saved fits {source ? `of this ${source.kind}` : 'yet'}. Every fit you run is saved here with its request, result and versions.
+      </Text>
+    );
+  }
+  return (
+    <Paper withBorder radius="sm" data-testid="saved-fits">
+      <Table highlightOnHover fz="sm" verticalSpacing={6}>
+        <Table.Thead>
+          <Table.Tr>
+            <Table.Th>Fit</Table.Th>
+            {showSource ? <Table.Th>Source</Table.Th> : null}
+            <Table.Th>Model</Table.Th>
+            <Table.Th>Parameters (value ± standard error)</Table.Th>
+            <Table.Th ta="right">R²</Table.Th>
+            <Table.Th>Status</Table.Th>
+            <Table.Th>By, when</Table.Th>
+          </Table.Tr>
+        </Table.Thead>
+        <Table.Tbody>
+          {items.map((f) => (
+            <Table.Tr key={f.id} data-testid={`saved-fit-${f.id}`} bg={f.id === selectedId ? 'var(--mantine-color-default-hover)' : undefined}
+              style={{ cursor: onSelect ? 'pointer' : undefined }} onClick={() => onSelect?.(f.id)}>
+              <Table.Td><Anchor component={Link} to={`/fits/${f.id}`} onClick={(e) => e.stopPropagation()}>#{f.id}</Anchor></Table.Td>
+              {showSource ? (
+                <Table.Td>
+                  <Anchor component={Link} to={f.source.kind === 'sweep' ? `/sweeps/${f.source.id}` : `/datasets?id=${f.source.id}`} onClick={(e) => e.stopPropagation()}>
+                    {f.source.kind === 'sweep' ? 'Sweep' : 'Dataset'} {f.source.id}{f.source.name ? ` · ${f.source.name}` : ''}
+                  </Anchor>
+                </Table.Td>
+              ) : null}
+              <Table.Td>
+                {MODEL_LABEL[f.model] ?? f.model}
+                <Text fz="xs" c="dimmed">{f.y} against {xList(f.x).join(', ')}</Text>
+              </Table.Td>
+              <Table.Td><ParameterSummary fit={f} /></Table.Td>
+              <Table.Td ta="right"><Num value={f.r2} sig={6} /></Table.Td>
+              <Table.Td><FitStatus fit={f} /></Table.Td>
+              <Table.Td><Text fz="xs">{f.owner.name}</Text><Text fz="xs" c="dimmed">{new Date(f.createdAt).toLocaleString()}</Text></Table.Td>
+            </Table.Tr>
+          ))}
+        </Table.Tbody>
+      </Table>
+      {q.data.total > PAGE_SIZE ? (
+        <Group justify="flex-end" p="xs">
+          <Pagination size="sm" total={Math.ceil(q.data.total / PAGE_SIZE)} value={page} onChange={setPage} />
+        </Group>
+      ) : null}
+    </Paper>
+  );
+}
