@@ -43,6 +43,22 @@ export function formatRow(row: readonly (number | null)[], formats: readonly Cel
   return s + '\n';
 }
 
+/**
+ * Formats a batch of rows at once (the export's hot path). JSON.stringify writes finite numbers with
+ * exactly the same ECMAScript Number::toString text as String(number) but several times faster
+ * (no string per number); the array punctuation is then turned into CSV. NULL becomes an empty cell
+ * and boolean columns are written as true/false. Mutates `rows` (booleans), which the caller owns.
+ */
+export function formatBatch(rows: (number | boolean | null)[][], booleanColumns: readonly number[]): string {
+  if (rows.length === 0) return '';
+  if (booleanColumns.length) {
+    for (const r of rows) for (const j of booleanColumns) if (r[j] !== null) r[j] = r[j] !== 0;
+  }
+  const json = JSON.stringify(rows);
+  // "[[a,b],[c,null]]" → "a,b\nc,\n": no number's text contains "null", "[" or "]".
+  return json.slice(2, -2).replaceAll('],[', '\n').replaceAll('null', '') + '\n';
+}
+
 /** A slug for file names: lowercase ASCII letters, digits and dashes only, never empty. */
 export function slugify(name: string, fallback = 'export'): string {
   const slug = name

@@ -5,7 +5,7 @@ import { layoutOf } from '../sweeps/results-reader.js';
 import type { StoredColumn } from '../sweeps/sweep-layout.js';
 import type { SweepRow } from '../sweeps/sweeps.repository.js';
 import { SweepsRepository } from '../sweeps/sweeps.repository.js';
-import { csvLine, formatRow, slugify, type CellFormat } from './csv-format.js';
+import { csvLine, formatBatch, slugify } from './csv-format.js';
 import { sweepReadme } from './export-texts.js';
 import { ExportRepository } from './export.repository.js';
 import type { CsvPieces, StreamDigest } from './hashed-stream.js';
@@ -45,7 +45,7 @@ export class SweepExportBuilder {
     const layout = layoutOf(s);
     const model = modelOf(s.model);
     const columns = layout.map(({ slot: _slot, ...c }) => c);
-    const formats: CellFormat[] = layout.map((c) => (c.type === 'boolean' ? 'boolean' : 'number'));
+    const booleans = layout.flatMap((c, j) => (c.type === 'boolean' ? [j] : []));
     const owner = this.rows.userName(s.ownerId);
     const fits = this.rows.fitsOf('sweep', s.id);
     const archivedAt = opts.archivedAt ?? s.archivedAt ?? null;
@@ -79,18 +79,14 @@ export class SweepExportBuilder {
     return buildZip({
       date: new Date(s.finishedAt ?? s.createdAt),
       csvName: 'results.csv',
-      csv: this.csvPieces(s, layout, formats),
+      csv: this.csvPieces(s, layout, booleans),
       texts: [{ name: 'columns.csv', content: columnsCsv }, { name: 'README.txt', content: readme }],
       manifest,
     });
   }
 
-  private *csvPieces(s: SweepRow, layout: StoredColumn[], formats: CellFormat[]): CsvPieces {
+  private *csvPieces(s: SweepRow, layout: StoredColumn[], booleans: number[]): CsvPieces {
     yield { text: csvLine(layout.map((c) => c.name)), rows: 0 };
-    for (const batch of this.rows.sweepRows(s)) {
-      let text = '';
-      for (const r of batch) text += formatRow(r, formats);
-      yield { text, rows: batch.length };
-    }
+    for (const batch of this.rows.sweepRows(s)) yield { text: formatBatch(batch, booleans), rows: batch.length };
   }
 }

@@ -34,11 +34,18 @@ export function buildZip(plan: ZipPlan): { zip: ZipArchive; csv: Promise<StreamD
       try {
         manifest.end(JSON.stringify(plan.manifest(d), null, 2) + '\n');
       } catch (err) {
-        manifest.destroy(err as Error);
+        fail(err as Error);
       }
     },
-    (err: Error) => manifest.destroy(err),
+    (err: Error) => fail(err),
   );
+  // The manifest is piped inside archiver, which does not forward its errors: fail the zip instead.
+  function fail(err: Error) {
+    manifest.destroy();
+    if (!zip.destroyed) zip.destroy(err);
+  }
+  // A download that is abandoned destroys the zip; stop reading rows too.
+  zip.once('close', () => stream.destroy());
   zip.append(stream, { name: plan.csvName, date: plan.date });
   for (const t of plan.texts) zip.append(t.content, { name: t.name, date: plan.date });
   zip.append(manifest, { name: 'manifest.json', date: plan.date });
