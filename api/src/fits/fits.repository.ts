@@ -1,5 +1,5 @@
 import { Inject, Injectable } from '@nestjs/common';
-import { eq, inArray } from 'drizzle-orm';
+import { and, eq, inArray } from 'drizzle-orm';
 import { DB } from '../db/db.module.js';
 import type { Db } from '../db/database.js';
 import { fits, users } from '../db/schema.js';
@@ -46,6 +46,11 @@ export class FitsRepository {
 
   update(id: number, patch: Partial<NewFit>): void {
     this.db.update(fits).set(patch).where(eq(fits.id, id)).run();
+  }
+
+  /** Every fit of one source, oldest first (for exports; no visibility check here). */
+  ofSource(kind: 'sweep' | 'dataset', id: number): FitRow[] {
+    return this.db.select().from(fits).where(and(eq(fits.sourceKind, kind), eq(fits.sourceId, id))).orderBy(fits.id).all();
   }
 
   /** Fits left queued or running by a process that stopped. */

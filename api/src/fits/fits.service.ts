@@ -127,6 +127,14 @@ export class FitsService implements OnApplicationBootstrap, OnModuleDestroy {
     return { items: items.map((r) => this.present(r, false)), total, page: q.page, pageSize: q.pageSize };
   }
 
+  /**
+   * Every finished fit of a source in the full shape, for a sweep's export (the caller has already
+   * checked that the user may read the source).
+   */
+  forSource(kind: SourceKind, id: number) {
+    return this.repo.ofSource(kind, id).filter((r) => r.status === 'completed' || r.status === 'failed').map((r) => this.present(r, true));
+  }
+
   private sourceReadable(user: AuthUser, row: FitRow): boolean {
     return this.repo.list(user, { page: 1, pageSize: 1, sourceKind: row.sourceKind, sourceId: row.sourceId }).total > 0;
   }
