@@ -8,6 +8,7 @@ import { AppModule } from './app.module.js';
 import { requestContext } from './common/request-context.middleware.js';
 import type { AppConfig } from './config/app-config.js';
 import { SeedService } from './seed/seed.service.js';
+import { seedDemoContent } from './seed/demo-content.js';
 import { mountUi } from './web/spa-fallback.js';
 
 const LEVELS: Record<AppConfig['logLevel'], LogLevel[] | false> = {
@@ -61,6 +62,8 @@ export async function createApp(config: AppConfig): Promise<CreatedApp> {
     seeded = true;
   }
   await app.init();
+  // Example sweeps, a dataset and a fit go through the running services (queue included).
+  if (seeded && config.seedDemoContent) await seedDemoContent(app);
   if (!mountUi(app.getHttpAdapter().getInstance(), config.uiDist)) {
     new Logger('Web').warn(`No built ui at ${config.uiDist}; serving the api only (run npm run build)`);
   }

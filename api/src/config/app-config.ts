@@ -18,6 +18,7 @@ export interface AppConfig {
   mailFrom: string;
   publicUrl: string;
   seedDemo: boolean;
+  seedDemoContent: boolean;
   /** undefined = automatic (1 embedded, 0 with REDIS_URL). */
   embeddedWorkers?: number;
   chunkSize: number;
@@ -76,6 +77,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
     mailFrom: e.MAIL_FROM,
     publicUrl: e.PUBLIC_URL ?? `http://localhost:${e.PORT}`,
     seedDemo,
+    seedDemoContent: seedDemo && (e.DEMO_CONTENT === 'true' || (e.DEMO_CONTENT === 'auto' && e.NODE_ENV !== 'test')),
     embeddedWorkers: e.EMBEDDED_WORKERS,
     chunkSize: e.CHUNK_SIZE,
     queuePrefix: e.QUEUE_PREFIX,

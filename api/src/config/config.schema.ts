@@ -23,6 +23,8 @@ export const envSchema = z.object({
   PUBLIC_URL: optionalUrl,
   /** Seed the demo users on a new database (always in development; production only when set). */
   DEMO_SEED: z.enum(['auto', 'true', 'false']).default('auto'),
+  /** Demo sweeps, dataset and fit on top of the demo users (`auto`: not under NODE_ENV=test). */
+  DEMO_CONTENT: z.enum(['auto', 'true', 'false']).default('auto'),
   /** Production refuses demo users and the default secret unless this is set (for a trial install). */
   ALLOW_INSECURE_DEMO: z.enum(['true', 'false']).default('false'),
   /** Compute threads inside the api; default 1 without REDIS_URL, 0 with it (standalone workers). */

@@ -1,4 +1,3 @@
-import { Injectable, Logger } from '@nestjs/common';
 import type { RoleName } from '@driftgrid/domain';
 
 export interface QuotaViolation {
@@ -23,12 +22,4 @@ export abstract class QuotaGate {
 /** Tells a sweep's owner that it finished (e-mail once the mail module is wired). */
 export abstract class SweepNotifier {
   abstract sweepFinished(event: { sweepId: number; ownerId: number; name: string; status: 'completed' | 'failed'; error?: string | null }): Promise<void>;
-}
-
-@Injectable()
-export class LogSweepNotifier extends SweepNotifier {
-  private readonly logger = new Logger('SweepNotifier');
-  async sweepFinished(e: { sweepId: number; name: string; status: string; error?: string | null }): Promise<void> {
-    this.logger.log(`sweep ${e.sweepId} "${e.name}" ${e.status}${e.error ? `: ${e.error}` : ''}`);
-  }
 }

@@ -2,8 +2,9 @@ import { BullModule } from '@nestjs/bullmq';
 import { Module } from '@nestjs/common';
 import { CHUNK_QUEUE, RESULT_QUEUE } from '@driftgrid/worker';
 import { ChunkDispatcher } from './chunk-dispatcher.js';
-import { LogSweepNotifier, QuotaGate, SweepNotifier } from './ports.js';
-import { PermissiveQuotaGate } from './permissive-quota-gate.js';
+import { QuotasService } from '../quotas/quotas.service.js';
+import { MailSweepNotifier } from './mail-sweep-notifier.js';
+import { QuotaGate, SweepNotifier } from './ports.js';
 import { ResultsProcessor } from './results.processor.js';
 import { ResultsReader } from './results-reader.js';
 import { SweepAccess } from './sweep-access.js';
@@ -19,8 +20,9 @@ import { SweepsService } from './sweeps.service.js';
   controllers: [SweepsController, QueueAdminController],
   providers: [
     SweepsRepository, SweepsService, SweepAccess, SweepPersistence, ChunkDispatcher, ResultsProcessor, ResultsReader, QueueAdminService,
-    { provide: SweepNotifier, useClass: LogSweepNotifier },
-    { provide: QuotaGate, useClass: PermissiveQuotaGate },
+    { provide: SweepNotifier, useClass: MailSweepNotifier },
+    // QuotasService has exactly the QuotaGate shape (synchronous verdict and assert).
+    { provide: QuotaGate, useExisting: QuotasService },
   ],
   exports: [SweepsRepository, SweepsService, SweepAccess, ChunkDispatcher, ResultsReader, SweepPersistence],
 })
