@@ -280,6 +280,19 @@ describe('polytropic fit on an uploaded dataset (SPEC §13.3)', () => {
     expect(res.body.converged).toBe(true);
   });
 
+  it('stores a fit that did not converge as failed, with converged: false and the reason', async () => {
+    // One iteration from a far start cannot reach the minimum; it must not be marked converged.
+    const res = await t.http.post('/api/fits').set(auth(researcher)).send({
+      source: { kind: 'dataset', id: datasetId }, model: 'expression', y: 'n_over_n0', x: ['phi_V'],
+      expr: 'A * exp(phi_V / T)', params: { A: 50, T: 0.3 }, maxIterations: 1,
+    });
+    expect(res.status).toBe(201);
+    expect(res.body.converged).toBe(false);
+    expect(res.body.status).toBe('failed');
+    expect(res.body.message).toBeTruthy();
+    expect(res.body.error).toMatch(/Did not converge/);
+  });
+
   it('hides a private dataset from a reviewer (404)', async () => {
     const list = await t.http.get('/api/fits').query({ sourceKind: 'dataset', sourceId: datasetId }).set(auth(reviewer));
     expect(list.body.total).toBe(0);
