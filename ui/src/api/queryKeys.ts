@@ -25,6 +25,7 @@ export const queryKeys = {
     list: (filters: KeyParams = {}) => ['datasets', 'list', filters] as const,
     detail: (id: string | number) => ['datasets', 'detail', String(id)] as const,
     rows: (id: string | number, params: KeyParams = {}) => ['datasets', 'detail', String(id), 'rows', params] as const,
+    series: (id: string | number, params: KeyParams = {}) => ['datasets', 'detail', String(id), 'series', params] as const,
   },
   fits: {
     all: () => ['fits'] as const,

@@ -17,7 +17,7 @@ export default function FitPage() {
         description={f ? (
           <>
             On{' '}
-            <Anchor component={Link} to={f.source.kind === 'sweep' ? `/sweeps/${f.source.id}` : `/datasets?id=${f.source.id}`}>
+            <Anchor component={Link} to={f.source.kind === 'sweep' ? `/sweeps/${f.source.id}` : `/datasets/${f.source.id}`}>
               {f.source.kind} {f.source.id}{f.source.name ? ` · ${f.source.name}` : ''}
             </Anchor>
           </>

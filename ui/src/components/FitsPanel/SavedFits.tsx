@@ -73,7 +73,7 @@ export function SavedFits({
               <Table.Td><Anchor component={Link} to={`/fits/${f.id}`} onClick={(e) => e.stopPropagation()}>#{f.id}</Anchor></Table.Td>
               {showSource ? (
                 <Table.Td>
-                  <Anchor component={Link} to={f.source.kind === 'sweep' ? `/sweeps/${f.source.id}` : `/datasets?id=${f.source.id}`} onClick={(e) => e.stopPropagation()}>
+                  <Anchor component={Link} to={f.source.kind === 'sweep' ? `/sweeps/${f.source.id}` : `/datasets/${f.source.id}`} onClick={(e) => e.stopPropagation()}>
                     {f.source.kind === 'sweep' ? 'Sweep' : 'Dataset'} {f.source.id}{f.source.name ? ` · ${f.source.name}` : ''}
                   </Anchor>
                 </Table.Td>
