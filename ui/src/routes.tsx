@@ -1,5 +1,6 @@
 import {
   IconDatabase,
+  IconDownload,
   IconLayoutDashboard,
   IconMathFunction,
   IconPlus,
@@ -43,7 +44,9 @@ export const pageRoutes: readonly PageRoute[] = [
     nav: { label: 'Catalogue', icon: IconStack2, alsoActiveFor: ['/sweeps/'] },
   },
   { path: '/sweeps/:id', title: 'Sweep', load: () => import('./pages/Sweep.page.js') },
-  { path: '/datasets', title: 'Datasets', roles: CREATORS, load: () => import('./pages/Datasets.page.js'), nav: { label: 'Datasets', icon: IconDatabase } },
+  { path: '/datasets', title: 'Datasets', roles: CREATORS, load: () => import('./pages/Datasets.page.js'), nav: { label: 'Datasets', icon: IconDatabase, alsoActiveFor: ['/datasets/'] } },
+  { path: '/datasets/:id', title: 'Dataset', load: () => import('./pages/Dataset.page.js') },
+  { path: '/downloads', title: 'Downloads', load: () => import('./pages/Downloads.page.js'), nav: { label: 'Downloads', icon: IconDownload } },
   { path: '/fits', title: 'Fits', load: () => import('./pages/Fits.page.js'), nav: { label: 'Fits', icon: IconMathFunction, alsoActiveFor: ['/fits/'] } },
   { path: '/fits/:id', title: 'Fit', load: () => import('./pages/Fit.page.js') },
   { path: '/single-point', title: 'Single point', load: () => import('./pages/SinglePoint.page.js'), nav: { label: 'Single point', icon: IconTarget } },

@@ -1,0 +1,121 @@
+import { Alert, Button, Group, Modal, Stack, Text } from '@mantine/core';
+import { notifications } from '@mantine/notifications';
+import { IconArchive, IconDownload, IconLock, IconShieldCheck } from '@tabler/icons-react';
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { useState } from 'react';
+import { useMe } from '../../api/auth.js';
+import { api, ApiError } from '../../api/client.js';
+import { queryKeys } from '../../api/queryKeys.js';
+import type { SweepView } from '../ResultsTable/sweepApi.js';
+import { ArchiveDigest } from './ArchiveDigest.js';
+import { downloadZip, type DownloadedFile } from './download.js';
+
+const EXPORTABLE = ['completed', 'archived'];
+
+/**
+ * Export and archive actions for one sweep (the GET /api/sweeps/:id shape): download the zipped CSV,
+ * archive a completed sweep (owner or admin, after a confirmation), and for archived sweeps the
+ * SHA-256 and size of the frozen zip.
+ */
+export function ExportActions({ sweep }: { sweep: SweepView }) {
+  const { data: me } = useMe();
+  const qc = useQueryClient();
+  const [confirming, setConfirming] = useState(false);
+  const [downloaded, setDownloaded] = useState<DownloadedFile | null>(null);
+  const mayManage = !!me && (me.role === 'admin' || Number(me.id) === sweep.owner.id);
+
+  const download = useMutation({
+    mutationFn: () => downloadZip(`/sweeps/${sweep.id}/export`, `sweep-${sweep.id}.zip`),
+    onSuccess: (f) => setDownloaded(f),
+  });
+  const archive = useMutation({
+    mutationFn: () => api.post<SweepView>(`/sweeps/${sweep.id}/archive`),
+    onSuccess: (s) => {
+      qc.setQueryData(queryKeys.sweeps.detail(sweep.id), s);
+      void qc.invalidateQueries({ queryKey: queryKeys.sweeps.all() });
+      setConfirming(false);
+      notifications.show({ title: 'Sweep archived', message: `${sweep.name} is frozen; its export has a SHA-256.`, icon: <IconLock size={16} /> });
+    },
+  });
+
+  const canExport = EXPORTABLE.includes(sweep.status);
+  const matches = downloaded?.sha256 && sweep.archive ? downloaded.sha256 === sweep.archive.sha256 : null;
+
+  return (
+    <Stack gap="sm" data-testid="export-actions">
+      <Group gap="sm">
+        <Button leftSection={<IconDownload size={16} />} onClick={() => download.mutate()} loading={download.isPending} disabled={!canExport} data-testid="export-download">
+          Download zipped CSV
+        </Button>
+        {mayManage && sweep.status === 'completed' ? (
+          <Button variant="light" leftSection={<IconArchive size={16} />} onClick={() => setConfirming(true)} data-testid="archive-open">
+            Archive…
+          </Button>
+        ) : null}
+      </Group>
+      {!canExport ? (
+        <Text size="sm" c="dimmed">
+          The export is available once the sweep has completed.
+        </Text>
+      ) : (
+        <Text size="sm" c="dimmed">
+          results.csv (full precision), columns.csv (name, unit, meaning), manifest.json (definition, versions, SHA-256, fits) and README.txt (flags and cautions).
+        </Text>
+      )}
+      {download.error ? (
+        <Alert color="red" title="Download failed">
+          {download.error instanceof ApiError ? download.error.message : 'The download could not be completed.'}
+        </Alert>
+      ) : null}
+
+      {sweep.archive ? (
+        <Stack gap={4}>
+          <Group gap={6}>
+            <IconLock size={16} aria-hidden />
+            <Text size="sm">
+              Archived {sweep.archive.archivedAt ? new Date(sweep.archive.archivedAt).toLocaleString() : ''}: the sweep and its export are frozen.
+            </Text>
+          </Group>
+          <ArchiveDigest sha256={sweep.archive.sha256} bytes={sweep.archive.bytes} />
+        </Stack>
+      ) : null}
+      {downloaded ? (
+        <Text size="sm" c="dimmed" data-testid="download-result">
+          Saved {downloaded.fileName}.{' '}
+          {matches === true ? (
+            <>
+              <IconShieldCheck size={14} aria-hidden /> SHA-256 of the received file matches the archive.
+            </>
+          ) : matches === false ? (
+            'SHA-256 of the received file differs from the archive: download it again.'
+          ) : null}
+        </Text>
+      ) : null}
+
+      <Modal opened={confirming} onClose={() => setConfirming(false)} title="Archive this sweep?" centered>
+        <Stack gap="sm">
+          <Text size="sm">
+            Archiving freezes the sweep: its definition, rows and the fits attached so far can no longer be changed or deleted. The zipped CSV is built once, stored with its
+            SHA-256, and every later download is that same file. Everyone signed in, reviewers included, can then find and download it. This cannot be undone.
+          </Text>
+          <Text size="sm" c="dimmed">
+            Fits made after archiving are kept as usual but are not added to the frozen zip.
+          </Text>
+          {archive.error ? (
+            <Alert color="red" title="Not archived">
+              {archive.error instanceof ApiError ? archive.error.message : 'The archive could not be made.'}
+            </Alert>
+          ) : null}
+          <Group justify="flex-end">
+            <Button variant="default" onClick={() => setConfirming(false)}>
+              Keep it open
+            </Button>
+            <Button leftSection={<IconArchive size={16} />} onClick={() => archive.mutate()} loading={archive.isPending} data-testid="archive-confirm">
+              Freeze and archive
+            </Button>
+          </Group>
+        </Stack>
+      </Modal>
+    </Stack>
+  );
+}
