@@ -3,9 +3,10 @@
  * start, sign in, submit a sweep and wait for it, count its stored rows straight from SQLite.
  */
 import Database from 'better-sqlite3';
+import { spawn } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
-import { apiJson, apiLogin, freePort, spawnNode, waitForHealth, type Proc } from '../../support/processes.js';
+import { apiJson, apiLogin, freePort, REPO, spawnNode, waitForHealth, type Proc } from '../../support/processes.js';
 import { removeDir, tempDir, track } from './resources.js';
 
 export const ROW_SPAN = 2 ** 32;
@@ -22,6 +23,22 @@ export interface ApiHandle {
   stop(): Promise<void>;
 }
 
+/** As spawnNode in tests/support, with node flags (--cpu-prof is refused in NODE_OPTIONS). */
+function spawnWithArgs(script: string, env: Record<string, string>, nodeArgs: string[]): Proc {
+  const child = spawn(process.execPath, [...nodeArgs, path.join(REPO, script)], { env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'] });
+  let out = '';
+  child.stdout!.on('data', (d) => (out = (out + d).slice(-20000)));
+  child.stderr!.on('data', (d) => (out = (out + d).slice(-20000)));
+  const exited = new Promise<number | null>((r) => child.on('exit', (code) => r(code)));
+  return {
+    child, exited, output: () => out,
+    async kill(signal = 'SIGTERM') {
+      if (child.exitCode === null && child.signalCode === null) child.kill(signal);
+      await exited;
+    },
+  };
+}
+
 /** Stops a child: SIGTERM, then SIGKILL if it has not exited after `graceMs`. */
 export async function stopProc(proc: Proc, graceMs = 8000): Promise<void> {
   if (proc.child.exitCode !== null || proc.child.signalCode !== null) return;
@@ -30,13 +47,19 @@ export async function stopProc(proc: Proc, graceMs = 8000): Promise<void> {
   clearTimeout(t);
 }
 
+/** BENCH_CPU_PROF=1: each api writes a V8 CPU profile here when it exits (git-ignored). */
+export const PROFILE_DIR = path.join(REPO, 'tests', '.tmp', 'bench-profiles');
+
 export async function startApi(label: string, env: Record<string, string> = {}): Promise<ApiHandle> {
   const t0 = performance.now();
+  const profile = process.env.BENCH_CPU_PROF === '1';
+  if (profile) fs.mkdirSync(PROFILE_DIR, { recursive: true });
   const dataDir = tempDir(label);
   const port = await freePort();
-  const proc = spawnNode('api/dist/main.js', {
-    NODE_ENV: 'test', LOG_LEVEL: 'warn', HOST: '127.0.0.1', PORT: String(port), DEMO_SEED: 'true', DATA_DIR: dataDir, ...env,
-  });
+  const apiEnv = { NODE_ENV: 'test', LOG_LEVEL: 'warn', HOST: '127.0.0.1', PORT: String(port), DEMO_SEED: 'true', DATA_DIR: dataDir, ...env };
+  const proc = profile
+    ? spawnWithArgs('api/dist/main.js', apiEnv, ['--cpu-prof', `--cpu-prof-dir=${PROFILE_DIR}`, `--cpu-prof-name=api-${label}-${Date.now()}.cpuprofile`])
+    : spawnNode('api/dist/main.js', apiEnv);
   const stop = track(`api ${label}`, async () => {
     await stopProc(proc);
     removeDir(dataDir);
