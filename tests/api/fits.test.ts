@@ -95,6 +95,8 @@ describe('power law on a noiseless cross-field sweep (SPEC §13.2)', () => {
       expect(q.ci95.low).toBeLessThanOrEqual(q.ci95.high);
     }
     expect(p.exp_B_T.unit).toBe('1');
+    // Column units as the sweep stores them (canonical: SI, temperatures in eV).
+    expect(fit.units).toMatchObject({ B_T: 'T', Ti_eV: 'eV', Ln_m: 'm' });
     expect(fit.r2).toBeGreaterThan(1 - 1e-12);
     expect(fit.dof).toBe(fit.n - 4);
     expect(fit.rss).toBeLessThan(1e-12 * fit.n);
@@ -243,6 +245,7 @@ describe('polytropic fit on an uploaded dataset (SPEC §13.3)', () => {
     expect(f).toMatchObject({ status: 'completed', converged: true, n: N - MISSING.length, dropped: MISSING.length, modelVersion: null });
     const p = Object.fromEntries(f.parameters.map((q: { name: string }) => [q.name, q]));
     expect(p.Te_eV.unit).toBe('eV');
+    expect(f.units.phi_V).toBe('V');
     expect(Math.abs(p.Te_eV.value - TE)).toBeLessThan(3 * p.Te_eV.stdError);
     expect(Math.abs(p.gamma.value - GAMMA)).toBeLessThan(3 * p.gamma.stdError);
     // The noise is small: the errors are a few per cent at most, not vacuous.

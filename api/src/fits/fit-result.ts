@@ -46,6 +46,8 @@ export interface StoredFitResult {
   /** Power law on all-negative y: fitted |y|, then C carries the sign back. */
   signRestored: boolean;
   covariance: (number | null)[][];
+  /** Canonical units of the columns used (y, x, weights), for labels. */
+  units: Record<string, string>;
   plot: FitPlotData;
 }
 
@@ -135,6 +137,7 @@ export function buildStoredResult(req: FitRequest, data: FitData, r: FitResult, 
     ...(r.chi2red !== undefined ? { chi2red: finite(r.chi2red) } : {}),
     dof: r.dof, n: r.n, dropped: data.dropped, iterations: r.iterations, converged: r.converged, message: r.message,
     signRestored: flipped, covariance,
+    units: Object.fromEntries([req.y, ...xNames, ...(req.weights ? [req.weights] : [])].map((c) => [c, units.get(c) ?? ''])),
     plot: { xNames, x, y: sample(data.data[req.y]!, stride, m), fitted: sample(fitted, stride, m), residuals: sample(residuals, stride, m), total: r.n, shown: m },
   };
 }

@@ -1,6 +1,6 @@
 import { Group, Paper, SimpleGrid, Switch, Text, useComputedColorScheme } from '@mantine/core';
 import { useEffect, useMemo, useRef, useState } from 'react';
-import { formatNumber } from '../../lib/format.js';
+import { formatNumber, prettyUnit } from '../../lib/format.js';
 import type { FitPlotData } from '../FitResult/fit-types.js';
 import { fitPlotSeries, type Pair } from './plot-series.js';
 
@@ -59,7 +59,7 @@ function baseOption(text: string, file: string) {
  * residuals. Points are the server's down-sampled set (at most 2,000). Test hook: `fit-plot` with
  * data-kind and data-points.
  */
-export function FitPlot({ plot, yName, unit }: { plot: FitPlotData; yName: string; unit?: string }) {
+export function FitPlot({ plot, yName, unit, xUnit }: { plot: FitPlotData; yName: string; unit?: string; xUnit?: string }) {
   const scheme = useComputedColorScheme('light');
   const s = useMemo(() => fitPlotSeries(plot, yName), [plot, yName]);
   const [log, setLog] = useState(s.kind === 'parity' && s.logOk);
@@ -67,24 +67,24 @@ export function FitPlot({ plot, yName, unit }: { plot: FitPlotData; yName: strin
   const text = scheme === 'dark' ? '#d5dde3' : '#27323a';
   const main = useMemo(() => ({
     ...baseOption(text, 'fit'),
-    xAxis: axis(s.xLabel, useLog),
-    yAxis: axis(s.yLabel + (unit && s.kind === 'curve' ? ` (${unit})` : ''), useLog),
+    xAxis: axis(s.xLabel + (xUnit && s.kind === 'curve' ? ` (${prettyUnit(xUnit)})` : unit && s.kind === 'parity' ? ` (${prettyUnit(unit)})` : ''), useLog),
+    yAxis: axis(s.yLabel + (unit ? ` (${prettyUnit(unit)})` : ''), useLog),
     series: [
       { type: 'scatter', name: s.kind === 'curve' ? 'data' : 'points', symbolSize: 5, itemStyle: { color: DATA }, data: s.observed },
       { type: 'line', name: s.kind === 'curve' ? 'fitted' : 'predicted = observed', showSymbol: false, lineStyle: { width: 2, color: FIT, type: s.kind === 'curve' ? 'solid' : 'dashed' }, itemStyle: { color: FIT }, data: s.fitted },
     ],
-  }), [s, useLog, text, unit]);
+  }), [s, useLog, text, unit, xUnit]);
   const resid = useMemo(() => ({
     ...baseOption(text, 'residuals'),
-    xAxis: axis(s.residualXLabel, false),
-    yAxis: axis('observed − fitted', false),
+    xAxis: axis(s.residualXLabel + (s.kind === 'curve' ? (xUnit ? ` (${prettyUnit(xUnit)})` : '') : unit ? ` (${prettyUnit(unit)})` : ''), false),
+    yAxis: axis('observed − fitted' + (unit ? ` (${prettyUnit(unit)})` : ''), false),
     series: [
       {
         type: 'scatter', name: 'residuals', symbolSize: 4, itemStyle: { color: DATA }, data: s.residuals,
         markLine: { silent: true, symbol: 'none', lineStyle: { type: 'dashed', color: text, width: 1 }, label: { show: false }, data: [{ yAxis: 0 }] },
       },
     ],
-  }), [s, text]);
+  }), [s, text, unit, xUnit]);
   const mainRef = useChart(main, scheme);
   const residRef = useChart(resid, scheme);
   return (

@@ -17,7 +17,7 @@ export function FitStatus({ fit }: { fit: Pick<FitView, 'status' | 'progress' | 
   const Glyph = look.icon;
   const live = fit.status === 'queued' || fit.status === 'running';
   return (
-    <Badge variant="light" color={look.color} radius="sm" tt="none" fw={500} leftSection={<Glyph size={13} stroke={2} aria-hidden />} title={look.meaning} data-testid="fit-status" data-status={fit.status}>
+    <Badge variant="light" color={look.color} radius="sm" tt="none" fw={500} leftSection={<Glyph size={13} stroke={2} aria-hidden />} title={look.meaning} style={{ flexShrink: 0, overflow: 'visible' }} data-testid="fit-status" data-status={fit.status}>
       {live ? `${label} · ${Math.round(fit.progress * 100)} %` : label}
     </Badge>
   );

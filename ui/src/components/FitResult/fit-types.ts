@@ -44,6 +44,7 @@ export interface FitView {
   converged?: boolean;
   message?: string;
   signRestored?: boolean;
+  units?: Record<string, string>;
   plot?: FitPlotData;
   error: string | null;
   modelVersion: string | null;

@@ -26,12 +26,15 @@ export function useFit(id: number | null) {
 /** A fit's result with its plots, or its progress while it runs. */
 export function FitDetail({ fit, columns }: { fit: FitView; columns?: FitColumn[] }) {
   const live = LIVE_FIT.has(fit.status);
-  const unit = columns?.find((c) => c.name === fit.y)?.unit;
+  const unitOf = (name: string) => {
+    const u = fit.units?.[name] ?? columns?.find((c) => c.name === name)?.unit;
+    return u && u !== '1' ? u : undefined;
+  };
   return (
     <Stack gap="sm">
       {live ? <Progress value={fit.progress * 100} animated aria-label="Fit progress" data-testid="fit-progress" /> : null}
       <FitResult fit={fit} />
-      {fit.plot ? <FitPlot plot={fit.plot} yName={fit.y} unit={unit && unit !== '1' ? unit : undefined} /> : null}
+      {fit.plot ? <FitPlot plot={fit.plot} yName={fit.y} unit={unitOf(fit.y)} xUnit={fit.plot.xNames.length === 1 ? unitOf(fit.plot.xNames[0]!) : undefined} /> : null}
     </Stack>
   );
 }

@@ -84,7 +84,7 @@ export function SavedFits({
               </Table.Td>
               <Table.Td><ParameterSummary fit={f} /></Table.Td>
               <Table.Td ta="right"><Num value={f.r2} sig={6} /></Table.Td>
-              <Table.Td><FitStatus fit={f} /></Table.Td>
+              <Table.Td style={{ whiteSpace: 'nowrap' }}><FitStatus fit={f} /></Table.Td>
               <Table.Td><Text fz="xs">{f.owner.name}</Text><Text fz="xs" c="dimmed">{new Date(f.createdAt).toLocaleString()}</Text></Table.Td>
             </Table.Tr>
           ))}
