@@ -45,13 +45,16 @@ export async function benchRedisSweep(cfg: BenchConfig, report: Report): Promise
   const common = { REDIS_URL: redis.url, QUEUE_PREFIX: prefix };
   const stops: (() => Promise<void>)[] = [];
   try {
-    const api = await startApi('redis', { ...common, EMBEDDED_WORKERS: '0' });
-    stops.push(api.stop);
+    // Workers boot while the api does (they need only Redis); the sweep waits for all of them.
+    const workers: Proc[] = [];
     for (let w = 0; w < cfg.workers; w++) {
       const proc = spawnNode('worker/dist/main.js', { ...common, WORKER_CONCURRENCY: String(cfg.workerConcurrency), LOG_LEVEL: 'warn' });
       stops.push(track(`worker ${w}`, () => stopProc(proc)));
-      await waitForOutput(proc, 'started');
+      workers.push(proc);
     }
+    const api = await startApi('redis', { ...common, EMBEDDED_WORKERS: '0' });
+    stops.unshift(api.stop);
+    for (const proc of workers) await waitForOutput(proc, 'started', 60_000);
     const warmUpMs = await warmUp(api, crossFieldGrid(WARM_UP_POINTS));
     report.add({ scenario, metric: `first sweep after start (${WARM_UP_POINTS.toLocaleString('en-US')} pts, warm-up)`, value: warmUpMs / 1000, unit: 's', note: 'not in the figures below' });
     const m = await measuredSweep(api, crossFieldGrid(cfg.sweepPoints));
@@ -60,7 +63,7 @@ export async function benchRedisSweep(cfg: BenchConfig, report: Report): Promise
     if (share) report.add({ scenario, metric: 'points per worker', value: m.run.workers.length, unit: 'workers', note: share });
     report.detail('redisSweep', { workers: cfg.workers, concurrency: cfg.workerConcurrency, ...m });
   } finally {
-    // Workers first (they hold Redis connections), then the api, then Redis.
+    // Workers first (stops holds the api first, workers after: reversed), then the api, then Redis.
     for (const stop of stops.reverse()) await stop();
     await stopRedis();
   }
