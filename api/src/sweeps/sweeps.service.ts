@@ -12,6 +12,7 @@ import { SweepAccess } from './sweep-access.js';
 import { layoutColumns } from './sweep-layout.js';
 import { presentSweep } from './sweep.presenter.js';
 import { SweepsRepository, type SweepRow } from './sweeps.repository.js';
+import { unknownKeys } from './unknown-keys.js';
 
 /** Rows per second SQLite persists on this class of machine (refined from finished sweeps). */
 const DEFAULT_PERSIST_RATE = 200_000;
@@ -34,6 +35,8 @@ export class SweepsService {
   preview(user: AuthUser, raw: unknown) {
     const checked = checkSweep(raw);
     if (!checked.ok) return { ok: false, errors: checked.errors, points: null, chunks: null, estimate: null, quota: null, sample: null };
+    const unknown = unknownKeys(raw, checked.compiled.definition);
+    if (unknown.length) return { ok: false, errors: unknown, points: null, chunks: null, estimate: null, quota: null, sample: null };
     const c = checked.compiled;
     const quota = this.quotas.verdict(user.id, user.role, c.totalPoints);
     const kernelRate = this.measureKernel(c);
@@ -64,6 +67,9 @@ export class SweepsService {
   async create(user: AuthUser, raw: unknown): Promise<{ id: number; status: string; points: number }> {
     const checked = checkSweep(raw);
     if (!checked.ok) throw new ValidationError(`Invalid sweep definition: ${checked.errors[0].path}: ${checked.errors[0].message}`, checked.errors);
+    // The raw body is stored as the definition, so nothing unchecked may ride along in it.
+    const unknown = unknownKeys(raw, checked.compiled.definition);
+    if (unknown.length) throw new ValidationError(`Invalid sweep definition: ${unknown[0].path}: ${unknown[0].message}`, unknown);
     const c = checked.compiled;
     if (c.totalPoints < 1) throw new ValidationError('The sweep has no points', [{ path: 'axes', message: 'at least one point is needed' }]);
     const layout = layoutColumns(c.columns);
