@@ -1,4 +1,4 @@
-import { math, parseQuantity, ValidationError } from '@driftgrid/domain';
+import { ELEMENTARY_CHARGE, math, parseQuantity, ValidationError } from '@driftgrid/domain';
 import type { Unit } from 'mathjs';
 
 /**
@@ -67,12 +67,24 @@ export function columnConversion(column: string, unitText: string | undefined): 
   const match = isTemperature ? canonicalUnits[0] : canonicalUnits.find((c) => parsed.equalBase(c.parsed));
   const canonicalUnit = match?.unit ?? siForm(parsed);
   const quantity = isTemperature ? 'temperature' : match?.quantity ?? (parsed.equalBase(math.unit('1 m/m') as Unit) ? 'dimensionless' : null);
+  if (match?.unit === 'eV' && !isTemperature && !isElectronvoltBased(parsed)) {
+    // mathjs defines eV with an older e (1.602176565e-19 J); go through joules and CODATA 2018's exact e.
+    const scale = tidy((math.unit(`1 ${text}`) as Unit).toNumber('J') / ELEMENTARY_CHARGE);
+    return { unit: text, canonicalUnit, quantity, scale, offset: 0 };
+  }
   // parseQuantity handles kelvin/°C → eV (e/k_B, CODATA 2018) and trims conversion noise to 15 digits.
   const at = (x: number) => parseQuantity(path, `${x} ${text}`, canonicalUnit);
   const offset = at(0);
   const scale = at(1) - offset;
   return { unit: text, canonicalUnit, quantity, scale, offset };
 }
+
+/** eV with any SI prefix (keV, MeV): converts to eV exactly, whatever e mathjs assumes. */
+function isElectronvoltBased(u: Unit): boolean {
+  return u.units.length === 1 && u.units[0].power === 1 && ['eV', 'electronvolt', 'electronvolts'].includes(u.units[0].unit.name);
+}
+
+const tidy = (x: number) => (Number.isFinite(x) && x !== 0 ? Number(x.toPrecision(15)) : x);
 
 function siForm(u: Unit): string {
   const si = (math.unit(`1 ${u.formatUnits()}`) as Unit).toSI();
