@@ -76,7 +76,8 @@ describe('POST /api/datasets', () => {
     const res = await upload(researcher, 'Te,B\n11604.51812,1500\n23209.03624,2000\n', { units: JSON.stringify({ Te: 'K', B: 'G' }) });
     expect(res.status).toBe(201);
     expect(res.body.columns.map((c: { canonicalUnit: string }) => c.canonicalUnit)).toEqual(['eV', 'T']);
-    const cols = t.app.get(DatasetsService).columns({ id: 2, email: DEMO.researcher, name: '', role: 'researcher', via: 'session', scope: 'read-write' }, res.body.id, ['Te', 'B']);
+    const me = t.sqlite().prepare('SELECT id FROM users WHERE email = ?').get(DEMO.researcher) as { id: number };
+    const cols = t.app.get(DatasetsService).columns({ id: me.id, email: DEMO.researcher, name: '', role: 'researcher', via: 'session', scope: 'read-write' }, res.body.id, ['Te', 'B']);
     // CODATA 2018: 1 eV ↔ 11604.51812 K (k_B and e exact); 1 G = 1e-4 T (NRL Plasma Formulary).
     expect(rel(cols.data.Te[0], 1)).toBeLessThan(1e-9);
     expect(rel(cols.data.Te[1], 2)).toBeLessThan(1e-9);
