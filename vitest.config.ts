@@ -29,7 +29,7 @@ export default defineConfig({
       },
       {
         resolve: { alias },
-        test: { name: 'integration', include: ['tests/integration/**/*.test.ts'], environment: 'node', testTimeout: 30000 },
+        test: { name: 'integration', include: ['tests/integration/**/*.test.ts'], environment: 'node', testTimeout: 120000, hookTimeout: 60000 },
       },
       {
         resolve: { alias },

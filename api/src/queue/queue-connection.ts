@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto';
 import { Redis } from 'ioredis';
 import type { AppConfig } from '../config/app-config.js';
 import { createEmbeddedRedis } from './embedded-redis/index.js';
@@ -16,5 +17,6 @@ export function createQueueConnection(config: Pick<AppConfig, 'redisUrl'>): Queu
   if (config.redisUrl) {
     return { mode: 'redis', connection: new Redis(config.redisUrl, { maxRetriesPerRequest: null }) };
   }
-  return { mode: 'embedded', connection: createEmbeddedRedis() as unknown as Redis };
+  // A data set of its own per app instance: two apps in one process (tests) must not share a queue.
+  return { mode: 'embedded', connection: createEmbeddedRedis({ name: `driftgrid-${randomUUID()}` }) as unknown as Redis };
 }
