@@ -3,14 +3,18 @@ import { fitModel, type FitInput } from '@driftgrid/domain';
 
 /**
  * Thread entry for long fits (api/dist/fits/fit-thread.js once built): runs the pure engine off the
- * api's event loop. Errors travel back by name, message and details so the api can rebuild them.
+ * api's event loop, one request `{ id, input }` at a time. Errors travel back by name, message and
+ * details so the api can rebuild them.
  */
-parentPort!.on('message', (input: FitInput) => {
+// Keep in step with FIT_THREAD_PROTOCOL in fit-runner.ts (not imported: this file must stay tiny).
+parentPort!.postMessage({ ready: 2 });
+
+parentPort!.on('message', ({ id, input }: { id: number; input: FitInput }) => {
   try {
     const r = fitModel(input);
-    parentPort!.postMessage({ ok: true, result: r }, [r.residuals.buffer, r.fitted.buffer] as ArrayBuffer[]);
+    parentPort!.postMessage({ id, ok: true, result: r }, [r.residuals.buffer, r.fitted.buffer] as ArrayBuffer[]);
   } catch (e) {
     const err = e as Error & { details?: unknown };
-    parentPort!.postMessage({ ok: false, error: { name: err.name, message: err.message, details: err.details } });
+    parentPort!.postMessage({ id, ok: false, error: { name: err.name, message: err.message, details: err.details } });
   }
 });

@@ -32,6 +32,7 @@ function parseSourceId(raw: string): number {
 export class FitsService implements OnApplicationBootstrap, OnModuleDestroy {
   private readonly logger = new Logger('Fits');
   private readonly pending = new Set<Promise<void>>();
+  private closing = false;
 
   constructor(
     @Inject(APP_CONFIG) private readonly config: AppConfig,
@@ -49,6 +50,7 @@ export class FitsService implements OnApplicationBootstrap, OnModuleDestroy {
   }
 
   async onModuleDestroy(): Promise<void> {
+    this.closing = true;
     await this.runner.close();
     await Promise.allSettled([...this.pending]);
   }
@@ -105,8 +107,8 @@ export class FitsService implements OnApplicationBootstrap, OnModuleDestroy {
       this.repo.update(id, { ...this.outcome(result, stored), progress: PROGRESS.done, finishedAt: this.clock.now() });
     } catch (e) {
       const err = e as DomainError;
-      const message = err instanceof ValidationError ? err.message : 'The fit stopped with an internal error';
-      if (!(err instanceof ValidationError)) this.logger.error(`fit ${id}: ${err?.stack ?? String(err)}`);
+      const message = err instanceof ValidationError ? err.message : this.closing ? INTERRUPTED : 'The fit stopped with an internal error';
+      if (!(err instanceof ValidationError) && !this.closing) this.logger.error(`fit ${id}: ${err?.stack ?? String(err)}`);
       try {
         this.repo.update(id, { status: 'failed', error: message, progress: PROGRESS.done, finishedAt: this.clock.now() });
       } catch {
