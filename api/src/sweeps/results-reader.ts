@@ -9,7 +9,10 @@ export function layoutOf(s: SweepRow): StoredColumn[] {
   return JSON.parse(s.columns) as StoredColumn[];
 }
 
-/** Reads stored results: pages for tables, whole columns for fits, row iterators for exports. */
+/**
+ * Reads stored results: pages for tables, whole columns for fits. Every read finishes synchronously:
+ * an open better-sqlite3 iterator would block writes on the shared connection (exports read in batches).
+ */
 @Injectable()
 export class ResultsReader {
   constructor(@Inject(DB_HANDLE) private readonly handle: OpenedDatabase) {}
@@ -43,13 +46,5 @@ export class ResultsReader {
     const data: Record<string, Float64Array> = {};
     names.forEach((n, i) => (data[n] = Float64Array.from(chunks[i])));
     return { n: chunks[0]?.length ?? 0, data };
-  }
-
-  /** Streams rows as arrays in layout order (exports); memory stays flat. */
-  *iterate(s: SweepRow): Generator<(number | null)[]> {
-    const layout = layoutOf(s);
-    const { where, params } = compileFilter(s.id, layout, {});
-    const stmt = this.handle.sqlite.prepare(`SELECT ${selectList(s.id, layout)} FROM results WHERE ${where} ORDER BY id`).raw(true);
-    yield* stmt.iterate(...params) as IterableIterator<(number | null)[]>;
   }
 }

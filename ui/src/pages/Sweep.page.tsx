@@ -15,9 +15,7 @@ import { ACTIVE, useSweep, type SweepView } from '../components/ResultsTable/swe
 import { StatusBadge } from '../components/StatusBadge/StatusBadge.js';
 import { formatCount, prettyUnit } from '../lib/format.js';
 import { FitsPanel } from '../components/FitsPanel/FitsPanel.js';
-// ExportActions ({ sweep }) is built by another engineer and is not in the tree yet. When it lands,
-// import it and replace the placeholder in the Export tab:
-//   import { ExportActions } from '../components/ExportActions/ExportActions.js';
+import { ExportActions } from '../components/ExportActions/ExportActions.js';
 
 // echarts is heavy: the plot loads with its tab.
 const SweepPlot = lazy(() => import('../components/SweepPlot/SweepPlot.js').then((m) => ({ default: m.SweepPlot })));
@@ -277,17 +275,7 @@ export default function SweepPage() {
           <FitsPanel source={{ kind: 'sweep', id: sweep.id }} columns={sweep.columns} />
         </Tabs.Panel>
         <Tabs.Panel value="export">
-          {/* <ExportActions sweep={sweep} /> once ExportActions exists. */}
-          {sweep.archive ? (
-            <Text fz="sm">
-              Archived {dateText(sweep.archive.archivedAt)}. SHA-256 of the export: <Code data-testid="archive-sha256">{sweep.archive.sha256}</Code>
-              {sweep.archive.bytes ? <> · <Num value={sweep.archive.bytes} unit="B" /></> : null}
-            </Text>
-          ) : (
-            <Text fz="sm" c="dimmed">
-              The zipped CSV export and the archive action appear here.
-            </Text>
-          )}
+          <ExportActions sweep={sweep} />
         </Tabs.Panel>
       </Tabs>
     </>
