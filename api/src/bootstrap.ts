@@ -56,6 +56,7 @@ export async function createApp(config: AppConfig): Promise<CreatedApp> {
   SwaggerModule.setup('api/docs', app, () => SwaggerModule.createDocument(app, docs), { jsonDocumentUrl: 'api/docs/openapi.json' });
 
   const seeder = app.get(SeedService);
+  await seeder.assertNoDemoCredentials();
   let seeded = false;
   if (seeder.shouldSeed()) {
     await seeder.seedUsers();

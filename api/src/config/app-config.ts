@@ -19,6 +19,8 @@ export interface AppConfig {
   publicUrl: string;
   seedDemo: boolean;
   seedDemoContent: boolean;
+  /** ALLOW_INSECURE_DEMO: production may run with demo users and the default secret (a trial). */
+  allowInsecureDemo: boolean;
   /** undefined = automatic (1 embedded, 0 with REDIS_URL). */
   embeddedWorkers?: number;
   chunkSize: number;
@@ -77,6 +79,7 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
     mailFrom: e.MAIL_FROM,
     publicUrl: e.PUBLIC_URL ?? `http://localhost:${e.PORT}`,
     seedDemo,
+    allowInsecureDemo: insecureAllowed,
     seedDemoContent: seedDemo && (e.DEMO_CONTENT === 'true' || (e.DEMO_CONTENT === 'auto' && e.NODE_ENV !== 'test')),
     embeddedWorkers: e.EMBEDDED_WORKERS,
     chunkSize: e.CHUNK_SIZE,

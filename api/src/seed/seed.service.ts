@@ -30,6 +30,20 @@ export class SeedService {
     return this.config.seedDemo && this.handle.created && this.users.count() === 0;
   }
 
+  /**
+   * Production refuses a database whose demo accounts still open with the published demo password
+   * (e.g. a DATA_DIR first started in development), unless ALLOW_INSECURE_DEMO=true.
+   */
+  async assertNoDemoCredentials(): Promise<void> {
+    if (this.config.env !== 'production' || this.config.allowInsecureDemo) return;
+    for (const u of DEMO_USERS) {
+      const row = this.users.findByEmail(u.email);
+      if (row?.active && (await this.passwords.verify(DEMO_PASSWORD, row.passwordHash))) {
+        throw new Error(`Refusing to start in production: the demo user ${u.email} still has the demo password; change or deactivate it (or set ALLOW_INSECURE_DEMO=true for a trial).`);
+      }
+    }
+  }
+
   async seedUsers(): Promise<Record<string, number>> {
     const hash = await this.passwords.hash(DEMO_PASSWORD);
     const now = this.clock.now();
