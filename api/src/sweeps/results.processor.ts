@@ -11,6 +11,9 @@ export class ResultsProcessor extends WorkerHost {
   }
 
   async process(job: Job<ChunkResultPayload | ChunkFailure>): Promise<string> {
+    // The in-memory Redis answers through microtasks only; without a macrotask break between
+    // chunks, back-to-back persists would starve HTTP requests for the whole sweep.
+    await new Promise((resolve) => setImmediate(resolve));
     if (job.name === 'chunk-failed') {
       this.persistence.fail(job.data as ChunkFailure);
       return 'failed';
