@@ -1,7 +1,7 @@
 import { Alert, Anchor, Box, Button, Center, Group, Paper, PasswordInput, Stack, Text, TextInput, Title } from '@mantine/core';
 import { IconAlertCircle, IconClock } from '@tabler/icons-react';
 import { useEffect, useState, type FormEvent } from 'react';
-import { Navigate, useNavigate, useSearchParams } from 'react-router-dom';
+import { Link, Navigate, useNavigate, useSearchParams } from 'react-router-dom';
 import { useLogin } from '../api/auth.js';
 import { ApiError } from '../api/client.js';
 import { safeNext } from '../auth/RequireAuth.js';
@@ -107,7 +107,10 @@ export default function SignInPage() {
                   Sign in
                 </Button>
                 <Text fz="xs" c="dimmed">
-                  Forgot it? Ask an administrator for a reset link, or read the API reference at{' '}
+                  <Anchor component={Link} to="/reset-password" fz="xs">
+                    Forgot your password?
+                  </Anchor>{' '}
+                  We e-mail you a one-hour reset link. Scripting? The API reference is at{' '}
                   <Anchor href="/api/docs" fz="xs">
                     /api/docs
                   </Anchor>
