@@ -3,38 +3,63 @@ import { solveLeastSquares } from '../linalg.js';
 import type { CompiledModel, FitInput } from '../types.js';
 
 /**
- * n/n0 = [1 + ((γ−1)/γ)·φ/Te]^(1/(γ−1)), parameters `gamma`, `Te_eV`, x = φ in volts.
+ * Normalised data look like n/n0: their largest |y| lies in this range. Outside it (a raw
+ * density column in m⁻³, or a current in A) the fit adds the scale `n0` as a third parameter.
+ */
+export const NORMALISED_MAX_RANGE = { low: 0.2, high: 5 } as const;
+
+/**
+ * Whether the polytropic fit also fits the scale n0: when the request gives a start value or
+ * bounds for `n0`, or when max |y| lies outside [0.2, 5] (the data are clearly not n/n0).
+ */
+export function fitsScale(input: FitInput, y: Float64Array): boolean {
+  if (input.params?.n0 !== undefined || input.bounds?.n0 !== undefined) return true;
+  let peak = 0;
+  for (let i = 0; i < y.length; i++) peak = Math.max(peak, Math.abs(y[i]!));
+  return !(peak >= NORMALISED_MAX_RANGE.low && peak <= NORMALISED_MAX_RANGE.high);
+}
+
+/**
+ * y = n0·[1 + ((γ−1)/γ)·φ/Te]^(1/(γ−1)), parameters `gamma`, `Te_eV` and, when `fitsScale`
+ * says so, `n0` (in y's unit); otherwise y is n/n0 (n0 = 1). x = φ in volts.
  *
- * Written as ln y = (t/γ)·g(z) with t = φ/Te, z = (1 − 1/γ)·t and g(z) = ln(1+z)/z, which is
- * smooth through z = 0: γ = 1 gives g = 1 and y = exp(φ/Te) exactly, and near γ = 1 the
+ * Written as ln(y/n0) = (t/γ)·g(z) with t = φ/Te, z = (1 − 1/γ)·t and g(z) = ln(1+z)/z, which is
+ * smooth through z = 0: γ = 1 gives g = 1 and y = n0·exp(φ/Te) exactly, and near γ = 1 the
  * series of g keeps value and Jacobian free of the 0/0 in 1/(γ−1).
  * Points past the cutoff (1 + z ≤ 0) have zero density.
  */
 export function compilePolytropic(input: FitInput, data: CheckedData): CompiledModel {
   if (data.x.length !== 1) validationFail('x', `polytropic takes exactly one x column (the potential φ), got ${data.x.length}`);
-  const names = ['gamma', 'Te_eV'];
-  checkParamNames(input, names);
+  checkParamNames(input, ['gamma', 'Te_eV', 'n0']);
   const { n, y } = data;
   const phi = data.x[0]!;
-  const start = Float64Array.of(startValue(input, 'gamma', 1), startValue(input, 'Te_eV', boltzmannTe(phi, y, n, input)));
-  // γ > 0 and Te > 0 (strict); tiny positive floors stand in for "> 0".
+  const withScale = fitsScale(input, y);
+  const names = withScale ? ['gamma', 'Te_eV', 'n0'] : ['gamma', 'Te_eV'];
+  const guess = boltzmannGuess(phi, y, n, input);
+  const startList = [startValue(input, 'gamma', 1), startValue(input, 'Te_eV', guess.te)];
+  if (withScale) startList.push(startValue(input, 'n0', guess.n0));
+  const start = Float64Array.from(startList);
+  // γ > 0, Te > 0 and n0 > 0 (strict); tiny positive floors stand in for "> 0".
   const { min, max } = resolveBounds(input, names, start, {
     gamma: { min: 1e-6 },
     Te_eV: { min: 1e-300 },
+    n0: { min: 1e-300 },
   });
   const evaluate = (p: Float64Array, out: Float64Array): void => {
     const gamma = p[0]!;
     const te = p[1]!;
+    const n0 = withScale ? p[2]! : 1;
     const a = 1 - 1 / gamma;
     for (let i = 0; i < n; i++) {
       const t = phi[i]! / te;
       const z = a * t;
-      out[i] = z <= -1 ? 0 : Math.exp((t / gamma) * g(z));
+      out[i] = z <= -1 ? 0 : n0 * Math.exp((t / gamma) * g(z));
     }
   };
   const jacobian = (p: Float64Array, jac: Float64Array): void => {
     const gamma = p[0]!;
     const te = p[1]!;
+    const n0 = withScale ? p[2]! : 1;
     const a = 1 - 1 / gamma;
     for (let i = 0; i < n; i++) {
       const t = phi[i]! / te;
@@ -42,13 +67,16 @@ export function compilePolytropic(input: FitInput, data: CheckedData): CompiledM
       if (z <= -1) {
         jac[i] = 0;
         jac[n + i] = 0;
+        if (withScale) jac[2 * n + i] = 0;
         continue;
       }
       const gz = g(z);
-      const yv = Math.exp((t / gamma) * gz);
-      // ∂ln y/∂γ = (t/γ²)·(t·g'(z)/γ − g(z));  ∂ln y/∂Te = −t/(Te·γ·(1+z))
+      const shape = Math.exp((t / gamma) * gz);
+      const yv = n0 * shape;
+      // ∂ln y/∂γ = (t/γ²)·(t·g'(z)/γ − g(z));  ∂ln y/∂Te = −t/(Te·γ·(1+z));  ∂y/∂n0 = y/n0
       jac[i] = yv * (t / (gamma * gamma)) * ((t * gPrime(z)) / gamma - gz);
       jac[n + i] = (-yv * t) / (te * gamma * (1 + z));
+      if (withScale) jac[2 * n + i] = shape;
     }
   };
   return { paramNames: names, start, min, max, n, evaluate, jacobian };
@@ -70,14 +98,17 @@ export function gPrime(z: number): number {
   return (z / (1 + z) - Math.log1p(z)) / (z * z);
 }
 
-/** Start Te from the Boltzmann limit: ln y = c + φ/Te over the points with y > 0. */
-function boltzmannTe(phi: Float64Array, y: Float64Array, n: number, input: FitInput): number {
+/**
+ * Start Te and n0 from the Boltzmann limit: ln y = ln n0 + φ/Te over the points with y > 0.
+ * The intercept is n0 at φ = 0; if it is not usable, the y nearest φ = 0 stands in.
+ */
+function boltzmannGuess(phi: Float64Array, y: Float64Array, n: number, input: FitInput): { te: number; n0: number } {
   const idx: number[] = [];
   for (let i = 0; i < n; i++) if (y[i]! > 0) idx.push(i);
-  const fallback = input.params?.Te_eV;
+  const fallbackTe = input.params?.Te_eV;
   if (idx.length < 2) {
-    if (fallback !== undefined) return fallback;
-    validationFail('y', 'polytropic needs at least two points with n/n0 > 0 to estimate a start Te; or give params.Te_eV');
+    if (fallbackTe !== undefined) return { te: fallbackTe, n0: nearestZero(phi, y, idx) };
+    validationFail('y', 'polytropic needs at least two points with y > 0 to estimate a start Te; or give params.Te_eV');
   }
   const m = idx.length;
   const a = new Float64Array(2 * m);
@@ -89,9 +120,18 @@ function boltzmannTe(phi: Float64Array, y: Float64Array, n: number, input: FitIn
   });
   const sol = solveLeastSquares(a, m, 2, b);
   const slope = sol?.x[1];
+  const intercept = sol ? Math.exp(sol.x[0]!) : NaN;
+  const n0 = intercept > 0 && Number.isFinite(intercept) ? intercept : nearestZero(phi, y, idx);
   if (slope === undefined || !(slope > 0) || !Number.isFinite(1 / slope)) {
-    if (fallback !== undefined) return fallback;
-    validationFail('y', 'n/n0 does not rise with φ, so no positive start Te follows from the data; give params.Te_eV');
+    if (fallbackTe !== undefined) return { te: fallbackTe, n0 };
+    validationFail('y', 'y does not rise with φ, so no positive start Te follows from the data; give params.Te_eV');
   }
-  return 1 / slope;
+  return { te: 1 / slope, n0 };
+}
+
+/** The positive y at the φ nearest 0 (the reference point of n0); 1 when no y is positive. */
+function nearestZero(phi: Float64Array, y: Float64Array, positive: number[]): number {
+  let best = -1;
+  for (const i of positive) if (best < 0 || Math.abs(phi[i]!) < Math.abs(phi[best]!)) best = i;
+  return best < 0 ? 1 : y[best]!;
 }
