@@ -59,6 +59,17 @@ describe('stored fit result', () => {
     expect(s.parameters.map((p) => p.unit)).toEqual(['1', 'eV']);
   });
 
+  it('gives the polytropic scale n0 the unit of y when the data are raw densities', () => {
+    // Polytropic relation, SPEC §3.2, γ = 1.4, Te = 5 eV, n0 = 1e18 m^-3, a small deterministic perturbation.
+    const phi = Array.from({ length: 12 }, (_, i) => -10 + i);
+    const y = phi.map((p, i) => 1e18 * (1 + (0.4 / 1.4) * (p / 5)) ** (1 / 0.4) * (1 + 0.01 * Math.cos(3 * i)));
+    const r = req({ model: 'polytropic', y: 'n', x: 'phi' });
+    const d = data({ n: y, phi }, { phi: 'V', n: 'm^-3' });
+    const s = buildStoredResult(r, d, fitModel(engineInput(r, d).input), false);
+    expect(s.parameters.map((p) => [p.name, p.unit])).toEqual([['gamma', '1'], ['Te_eV', 'eV'], ['n0', 'm^-3']]);
+    expect(s.parameters[2]!.value! / 1e18).toBeCloseTo(1, 1);
+  });
+
   it('down-samples the plot to at most 2,000 points with matching x', () => {
     const n = 4999;
     const x = Array.from({ length: n }, (_, i) => 1 + i);

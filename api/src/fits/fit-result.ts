@@ -12,7 +12,7 @@ export interface FitParameterView {
   name: string;
   value: number | null;
   stdError: number | null;
-  /** Unit where the model makes it plain (exponents '1', polytropic Te in eV, exponential s in x's unit). */
+  /** Unit where the model makes it plain (exponents '1', polytropic Te in eV and n0 in y's unit, exponential s in x's unit). */
   unit: string | null;
   ci95: { low: number; high: number } | null;
 }
@@ -94,6 +94,8 @@ function paramUnit(req: FitRequest, name: string, units: Map<string, string>): s
     case 'exponential':
       return name === 'A' ? units.get(req.y) || null : units.get(xs[0]!) || null;
     case 'polytropic':
+      // n0 is the density scale, in y's unit (m^-3 for a density column); γ is a pure number.
+      if (name === 'n0') return units.get(req.y) || null;
       return name === 'Te_eV' ? 'eV' : '1';
     default:
       return null;
