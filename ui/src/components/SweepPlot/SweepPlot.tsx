@@ -4,7 +4,9 @@ import { useEffect, useMemo, useRef, useState } from 'react';
 import type { HeatmapSeries, LineSeries } from '@driftgrid/domain';
 import { formatQuantity, prettyUnit } from '../../lib/format.js';
 import { useSeries, type SweepView } from '../ResultsTable/sweepApi.js';
-import { heatmapOption, lineOption, type Scales } from './chartOptions.js';
+import { heatmapOption, lineOption, type OverlaySeries, type Scales } from './chartOptions.js';
+import { DatasetOverlay } from './DatasetOverlay.js';
+import type { PlotAxisUnits } from './overlay.js';
 
 type Chart = { dispose(): void; resize(): void; setOption(o: unknown, notMerge?: boolean): void; getDataURL(o: object): string };
 
@@ -55,10 +57,14 @@ export function SweepPlot({ sweep }: { sweep: SweepView }) {
   const chart = useRef<Chart | null>(null);
   const scheme = useComputedColorScheme('light');
   const text = scheme === 'dark' ? '#d5dde3' : '#27323a';
+  const [overlay, setOverlay] = useState<OverlaySeries | null>(null);
+  const unitOf = (name: string) => sweep.columns.find((c) => c.name === name)?.unit ?? '';
+  const plotUnits = useMemo<PlotAxisUnits>(() => ({ x: { name: x, unit: unitOf(x) }, y: { name: out, unit: unitOf(out) } }), [x, out, sweep.columns]); // eslint-disable-line react-hooks/exhaustive-deps
+  const overlayScales = useMemo(() => ({ x: scales.x, y: scales.y }), [scales.x, scales.y]);
   const option = useMemo(() => {
     if (!data) return null;
-    return data.kind === 'heatmap' ? heatmapOption(data as HeatmapSeries, scales, text) : lineOption(data as LineSeries, scales, text);
-  }, [data, scales, text]);
+    return data.kind === 'heatmap' ? heatmapOption(data as HeatmapSeries, scales, text) : lineOption(data as LineSeries, scales, text, kind === 'line' ? overlay : null);
+  }, [data, scales, text, overlay, kind]);
   const latest = useRef(option);
   latest.current = option;
 
@@ -144,6 +150,7 @@ export function SweepPlot({ sweep }: { sweep: SweepView }) {
           </Button>
         </Group>
       </Group>
+      {kind === 'line' ? <DatasetOverlay plot={plotUnits} scales={overlayScales} onOverlay={setOverlay} /> : null}
       {error ? (
         <Alert color="red" title="The plot could not be drawn">
           {(error as Error).message}
@@ -155,7 +162,7 @@ export function SweepPlot({ sweep }: { sweep: SweepView }) {
         </Text>
       ) : null}
       <Paper withBorder radius="md" p="xs">
-        <div ref={ref} style={{ width: '100%', height: 480, opacity: isFetching ? 0.7 : 1 }} data-testid="sweep-plot" data-log-x={scales.x} data-log-y={scales.y} role="img" aria-label={`${kind} plot of ${out}`} />
+        <div ref={ref} style={{ width: '100%', height: 480, opacity: isFetching ? 0.7 : 1 }} data-testid="sweep-plot" data-log-x={scales.x} data-log-y={scales.y} data-overlay-points={kind === 'line' && overlay ? overlay.points.length : 0} role="img" aria-label={`${kind} plot of ${out}`} />
       </Paper>
       <Text fz="xs" c="dimmed">
         {Object.keys(slice).length

@@ -42,8 +42,19 @@ export function cellEdges(values: readonly number[], log: boolean): number[] {
   return edges;
 }
 
-/** Line plot: one line per group; flagged x-ranges shaded as a band with its own legend entry. */
-export function lineOption(s: LineSeries, scales: Scales, text: string) {
+/** Points of a dataset drawn over a line plot (already in the plot's units and filtered for log axes). */
+export interface OverlaySeries {
+  name: string;
+  points: [number, number][];
+}
+
+export const OVERLAY_COLOR = '#d9480f';
+
+/**
+ * Line plot: one line per group; flagged x-ranges shaded as a band with its own legend entry; an
+ * optional dataset overlay as a scatter of diamonds (a shape of its own, not only a colour).
+ */
+export function lineOption(s: LineSeries, scales: Scales, text: string, overlay?: OverlaySeries | null) {
   const keep = (p: [number | null, number | null, number]) => p[0] !== null && p[1] !== null && (!scales.x || p[0] > 0) && (!scales.y || p[1]! > 0);
   const groupLabel = (v: number | null) => (s.groupBy ? `${s.groupBy.name} = ${formatQuantity(v, s.groupBy.unit)}` : s.y.name);
   const series: unknown[] = s.groups.map((g) => ({
@@ -83,6 +94,17 @@ export function lineOption(s: LineSeries, scales: Scales, text: string) {
       data: bands.map(([a, b]) => [{ xAxis: a }, { xAxis: b }]),
     },
   });
+  if (overlay) {
+    series.push({
+      name: overlay.name,
+      type: 'scatter',
+      symbol: 'diamond',
+      symbolSize: 7,
+      itemStyle: { color: OVERLAY_COLOR, borderColor: '#ffffff', borderWidth: 0.5 },
+      z: 5,
+      data: overlay.points.map((p) => ({ value: p, overlay: true })),
+    });
+  }
   return {
     backgroundColor: 'transparent',
     animation: false,
@@ -91,8 +113,10 @@ export function lineOption(s: LineSeries, scales: Scales, text: string) {
     grid: { left: 72, right: 24, top: 48, bottom: 52 },
     tooltip: {
       trigger: 'item',
-      formatter: (p: { seriesName: string; data: { value: [number, number]; flagged: boolean } }) =>
-        `${p.seriesName}<br/>${s.x.name} = ${formatQuantity(p.data.value[0], s.x.unit)}<br/>${s.y.name} = ${formatQuantity(p.data.value[1], s.y.unit)}<br/>${p.data.flagged ? 'Flagged: outside the validity ordering' : 'Valid'}`,
+      formatter: (p: { seriesName: string; data: { value: [number, number]; flagged?: boolean; overlay?: boolean } }) =>
+        p.data.overlay
+          ? `${p.seriesName} (dataset)<br/>${s.x.name} = ${formatQuantity(p.data.value[0], s.x.unit)}<br/>${s.y.name} = ${formatQuantity(p.data.value[1], s.y.unit)}`
+          : `${p.seriesName}<br/>${s.x.name} = ${formatQuantity(p.data.value[0], s.x.unit)}<br/>${s.y.name} = ${formatQuantity(p.data.value[1], s.y.unit)}<br/>${p.data.flagged ? 'Flagged: outside the validity ordering' : 'Valid'}`,
     },
     xAxis: valueAxis(s.x, scales.x, text),
     yAxis: { ...valueAxis(s.y, scales.y, text), nameGap: 56, nameLocation: 'middle' },
