@@ -9,6 +9,7 @@ import { useDataset, useDatasetRows, useDeleteDataset } from '../components/Data
 import { ArchiveDigest } from '../components/ExportActions/ArchiveDigest.js';
 import { downloadZip } from '../components/ExportActions/download.js';
 import { EmptyState } from '../components/EmptyState/EmptyState.js';
+import { FitsPanel } from '../components/FitsPanel/FitsPanel.js';
 import { Num } from '../components/Num/Num.js';
 import { PageHeader } from '../components/PageHeader/PageHeader.js';
 import { formatCount, prettyUnit } from '../lib/format.js';
@@ -39,6 +40,8 @@ export default function DatasetPage() {
   if (!dataset.data) return <Loader />;
   const d = dataset.data;
   const mayManage = !!me && (me.role === 'admin' || Number(me.id) === d.owner.id);
+  // Fits read the stored (canonical) values, so the columns carry their canonical units.
+  const fitColumns = d.columns.filter((c) => c.kind === 'number').map((c) => ({ name: c.name, unit: c.canonicalUnit, kind: c.kind }));
 
   return (
     <>
@@ -69,6 +72,7 @@ export default function DatasetPage() {
         <Tabs.List>
           <Tabs.Tab value="rows">Rows</Tabs.Tab>
           <Tabs.Tab value="plot">Quick plot</Tabs.Tab>
+          <Tabs.Tab value="fits">Fits</Tabs.Tab>
         </Tabs.List>
         <Tabs.Panel value="rows" pt="md">
           <ScrollArea>
@@ -104,6 +108,9 @@ export default function DatasetPage() {
           <Suspense fallback={<Loader />}>
             <DatasetScatter datasetId={d.id} columns={d.columns} />
           </Suspense>
+        </Tabs.Panel>
+        <Tabs.Panel value="fits" pt="md">
+          <FitsPanel source={{ kind: 'dataset', id: d.id }} columns={fitColumns} />
         </Tabs.Panel>
       </Tabs>
       <Modal opened={confirmDelete} onClose={() => setConfirmDelete(false)} title="Delete this dataset?" centered>
