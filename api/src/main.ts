@@ -1,4 +1,5 @@
 import { ConfigError, loadConfig } from './config/app-config.js';
+import { assertDataDirUsable } from './config/data-dir-check.js';
 import { createApp } from './bootstrap.js';
 import { DEMO_PASSWORD, DEMO_USERS } from './seed/demo-users.js';
 
@@ -6,6 +7,7 @@ async function main(): Promise<void> {
   let config;
   try {
     config = loadConfig();
+    assertDataDirUsable(config);
   } catch (e) {
     if (e instanceof ConfigError) {
       console.error(e.message);
