@@ -11,6 +11,9 @@ import type { OverlaySeries } from './chartOptions.js';
 import { defaultOverlayColumns, numericColumns, overlaySummary, planOverlay, type OverlayScales, type PlotAxisUnits } from './overlay.js';
 
 const LIST = { pageSize: 200 };
+
+/** "an x column in eV" / "a dimensionless y column". */
+const wanted = (axis: 'x' | 'y', unit: string) => (prettyUnit(unit) ? `${axis === 'x' ? 'an' : 'a'} ${axis} column in ${prettyUnit(unit)}` : `a dimensionless ${axis} column`);
 const MAX_POINTS = 5000;
 
 /**
@@ -51,8 +54,12 @@ export function DatasetOverlay({ plot, scales, onOverlay }: { plot: PlotAxisUnit
   const name = dataset ? `Dataset: ${dataset.name}` : '';
   const overlay = plan?.ok ? { name, points: plan.points } : null;
   const key = overlay ? `${name}|${overlay.points.length}|${overlay.points[0]?.join(',')}|${overlay.points.at(-1)?.join(',')}` : '';
-  useEffect(() => onOverlay(overlay), [key]); // eslint-disable-line react-hooks/exhaustive-deps
-  useEffect(() => () => onOverlay(null), []); // eslint-disable-line react-hooks/exhaustive-deps
+  useEffect(() => {
+    onOverlay(overlay);
+  }, [key]); // eslint-disable-line react-hooks/exhaustive-deps
+  useEffect(() => () => {
+    onOverlay(null);
+  }, []); // eslint-disable-line react-hooks/exhaustive-deps
 
   const columnOptions = columns.map((c) => ({ value: c.name, label: `${c.name}${prettyUnit(c.canonicalUnit) ? ` (${prettyUnit(c.canonicalUnit)})` : ''}` }));
 
@@ -94,8 +101,8 @@ export function DatasetOverlay({ plot, scales, onOverlay }: { plot: PlotAxisUnit
           {series.error ? <Alert color="red" title="The dataset could not be read">{(series.error as Error).message}</Alert> : null}
           {plan && !plan.ok ? (
             <Alert color="yellow" icon={<IconAlertTriangle size={16} />} title="Not overlaid: the units differ" data-testid="overlay-warning">
-              {plan.mismatches.map((m) => m.charAt(0).toUpperCase() + m.slice(1)).join('; ')}. Both are stored in canonical units, so these are different quantities; pick columns in{' '}
-              {prettyUnit(plot.x.unit) || 'dimensionless'} and {prettyUnit(plot.y.unit) || 'dimensionless'}.
+              {plan.mismatches.map((m) => m.charAt(0).toUpperCase() + m.slice(1)).join('; ')}. Both sides are in canonical units, so these are different quantities: pick {wanted('x', plot.x.unit)} and{' '}
+              {wanted('y', plot.y.unit)}.
             </Alert>
           ) : null}
           {plan?.ok ? (
