@@ -47,6 +47,5 @@ export const queryKeys = {
     mailbox: (filters: KeyParams = {}) => ['admin', 'mailbox', filters] as const,
     invitations: () => ['admin', 'invitations'] as const,
     audit: (params: KeyParams = {}) => ['admin', 'audit', params] as const,
-    audit: (params: KeyParams = {}) => ['admin', 'audit', params] as const,
   },
 } as const;
