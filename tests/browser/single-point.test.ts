@@ -17,7 +17,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { chromiumAvailable, launchBrowser } from '../support/browser.js';
+import { chromiumAvailable, launchBrowser, signInThroughForm } from '../support/browser.js';
 import { startServer, type RunningServer } from '../support/server.js';
 
 const run = chromiumAvailable();
@@ -51,13 +51,7 @@ function shown(text: string): number {
   return Number(m[1]) * 10 ** exp;
 }
 
-async function signIn(page: Page, baseUrl: string) {
-  await page.goto(baseUrl + '/sign-in');
-  await page.getByLabel('Email').fill('researcher@example.com');
-  await page.getByLabel('Password').fill('driftgrid-demo');
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.getByTestId('whoami').waitFor({ timeout: 15000 });
-}
+const signIn = (page: Page, baseUrl: string) => signInThroughForm(page, baseUrl);
 
 describe.runIf(run)('single-point page', () => {
   let server: RunningServer;

@@ -20,26 +20,14 @@ import fs from 'node:fs';
 import path from 'node:path';
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { chromiumAvailable, launchBrowser } from '../support/browser.js';
+import { chromiumAvailable, launchBrowser, signInThroughForm } from '../support/browser.js';
 import { startServer, type RunningServer } from '../support/server.js';
 import { waitForSweep } from '../support/sweeps.js';
 import { DEMO } from '../support/app.js';
 
 const run = chromiumAvailable();
 
-async function signIn(page: Page, baseUrl: string) {
-  await page.goto(baseUrl + '/sign-in');
-  await page.getByLabel('Email').fill('researcher@example.com');
-  await page.getByLabel('Password').fill('driftgrid-demo');
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  try {
-    // Generous: this machine is shared with other suites; no timing is asserted.
-    await page.getByTestId('whoami').waitFor({ timeout: 30000 });
-  } catch (err) {
-    console.log('sign-in did not finish; at', page.url(), (await page.textContent('body'))?.slice(0, 300));
-    throw err;
-  }
-}
+const signIn = (page: Page, baseUrl: string) => signInThroughForm(page, baseUrl);
 
 async function mode(page: Page, input: string, label: 'Default' | 'Fixed' | 'Axis') {
   await page.getByTestId(`mode-${input}`).getByText(label, { exact: true }).click();

@@ -1,17 +1,4 @@
-import type { RoleName } from '@driftgrid/domain';
-
-export interface QuotaViolation {
-  limit: string;
-  value: number;
-  usage: number;
-  requested: number;
-  message: string;
-}
-
-export interface QuotaVerdict {
-  allowed: boolean;
-  violations: QuotaViolation[];
-}
+import type { QuotaVerdict, RoleName } from '@driftgrid/domain';
 
 /** Quota checks the sweep service consults (synchronous, so check + insert is one atomic step). */
 export abstract class QuotaGate {
