@@ -16,10 +16,10 @@ export interface ChunkResultPayload {
   chunkIndex: number;
   i0: number;
   n: number;
-  /** Column name → base64 of a little-endian Float64Array of length n. */
-  columns: Record<string, string>;
-  /** base64 of a Uint32Array of flag bit masks. */
-  flags: string;
+  /** Column name → base64 of a little-endian Float64Array of length n (the array itself in-process). */
+  columns: Record<string, string | Float64Array>;
+  /** base64 of a Uint32Array of flag bit masks (the array itself in-process). */
+  flags: string | Uint32Array;
   workerId: string;
   computeMs: number;
   attempt: number;

@@ -5,6 +5,7 @@ import { encodeFloat64, encodeUint32 } from './chunk-codec.js';
 import { chunkJobId, type ChunkJobData, type ChunkResultPayload } from './chunk-job.js';
 import { CHUNK_QUEUE, RESULT_QUEUE } from './queue-names.js';
 import { ChunkComputeError, ChunkThreadPool } from './thread-pool.js';
+import { InlineResultTransport, type ResultTransport } from './result-transport.js';
 
 export interface ChunkRuntimeOptions {
   /** Chunks fetched at once from the queue. */
@@ -13,6 +14,8 @@ export interface ChunkRuntimeOptions {
   threads: number;
   /** `hostname:pid`, recorded in provenance. */
   workerId: string;
+  /** How results reach the api (default: inside the results job). */
+  transport?: ResultTransport;
 }
 
 export const CHUNK_RUNTIME_OPTIONS = Symbol('CHUNK_RUNTIME_OPTIONS');
@@ -32,6 +35,7 @@ export const MAX_RESULT_BACKLOG = 6;
 export class ChunkProcessor extends WorkerHost implements OnApplicationBootstrap, OnModuleDestroy {
   private readonly logger = new Logger('ChunkProcessor');
   private readonly pool: ChunkThreadPool;
+  private readonly transport: ResultTransport;
 
   constructor(
     @Inject(CHUNK_RUNTIME_OPTIONS) private readonly options: ChunkRuntimeOptions,
@@ -39,6 +43,7 @@ export class ChunkProcessor extends WorkerHost implements OnApplicationBootstrap
   ) {
     super();
     this.pool = new ChunkThreadPool(options.threads);
+    this.transport = options.transport ?? new InlineResultTransport();
   }
 
   onApplicationBootstrap(): void {
@@ -59,15 +64,16 @@ export class ChunkProcessor extends WorkerHost implements OnApplicationBootstrap
       if (e instanceof ChunkComputeError && e.details) throw new UnrecoverableError(e.message);
       throw e;
     }
-    const columns: Record<string, string> = {};
-    for (const [k, v] of Object.entries(r.columns)) columns[k] = encodeFloat64(v);
+    const binary = this.transport.binary;
+    const columns: Record<string, string | Float64Array> = {};
+    for (const [k, v] of Object.entries(r.columns)) columns[k] = binary ? v : encodeFloat64(v);
     const payload: ChunkResultPayload = {
-      sweepId: d.sweepId, chunkIndex: d.chunkIndex, i0: d.i0, n: r.n, columns, flags: encodeUint32(r.flags),
+      sweepId: d.sweepId, chunkIndex: d.chunkIndex, i0: d.i0, n: r.n, columns, flags: binary ? r.flags : encodeUint32(r.flags),
       workerId: this.options.workerId, computeMs: r.computeMs, attempt: job.attemptsMade + 1,
     };
     while ((await this.results.getWaitingCount()) >= MAX_RESULT_BACKLOG) await new Promise((r) => setTimeout(r, 25));
     // One result job per attempt; the api persists idempotently, so a duplicate is harmless.
-    await this.results.add('chunk-result', payload, {
+    await this.results.add('chunk-result', this.transport.send(payload), {
       jobId: `${chunkJobId(d.sweepId, d.chunkIndex)}-a${job.attemptsMade + 1}`,
       attempts: 10, backoff: { type: 'exponential', delay: 500 }, removeOnComplete: true, removeOnFail: 1000,
     });

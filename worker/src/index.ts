@@ -6,3 +6,4 @@ export * from './chunk-codec.js';
 export * from './chunk.processor.js';
 export * from './chunk-processing.module.js';
 export * from './thread-pool.js';
+export * from './result-transport.js';

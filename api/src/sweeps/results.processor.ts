@@ -1,7 +1,7 @@
 import { Processor, WorkerHost } from '@nestjs/bullmq';
 import { Logger } from '@nestjs/common';
 import type { Job } from 'bullmq';
-import { RESULT_QUEUE, type ChunkResultPayload } from '@driftgrid/worker';
+import { RESULT_QUEUE, ResultTransport, type ChunkResultPayload } from '@driftgrid/worker';
 import { ChunkDispatcher } from './chunk-dispatcher.js';
 import { SweepPersistence, type ChunkFailure } from './sweep-persistence.service.js';
 import { SweepsRepository } from './sweeps.repository.js';
@@ -22,6 +22,7 @@ export class ResultsProcessor extends WorkerHost {
     private readonly persistence: SweepPersistence,
     private readonly dispatcher: ChunkDispatcher,
     private readonly sweeps: SweepsRepository,
+    private readonly transport: ResultTransport,
   ) {
     super();
   }
@@ -36,7 +37,14 @@ export class ResultsProcessor extends WorkerHost {
       await this.withdrawRest(f.sweepId);
       return 'failed';
     }
-    const p = job.data as ChunkResultPayload;
+    const p = this.transport.receive(job.data);
+    if (!p) {
+      // The payload is gone (cannot happen short of a bug): compute the chunk again.
+      const { sweepId, chunkIndex } = job.data as { sweepId: number; chunkIndex: number };
+      const sweep = this.sweeps.findById(sweepId);
+      if (sweep) await this.dispatcher.enqueue(sweep, [chunkIndex]);
+      return 'requeued';
+    }
     try {
       return this.persistence.persist(p);
     } catch (e) {
