@@ -181,7 +181,9 @@ describe('change password', () => {
     const ok = await t.http.post('/api/auth/password').set(auth(tok)).send({ current: 'driftgrid-demo', next: 'reviewer-new-pass' });
     expect(ok.status).toBe(200);
     expect(await t.login(DEMO.reviewer, 'reviewer-new-pass')).toBeTruthy();
-    await t.http.post('/api/auth/password').set(auth(tok)).send({ current: 'reviewer-new-pass', next: 'driftgrid-demo' });
+    // The change ended the old session; the response carries the caller's fresh one.
+    const back = await t.http.post('/api/auth/password').set(auth(ok.body.accessToken)).send({ current: 'reviewer-new-pass', next: 'driftgrid-demo' });
+    expect(back.status).toBe(200);
   });
 
   it('is not available to an API token', async () => {

@@ -1,10 +1,11 @@
 import { Inject, Injectable } from '@nestjs/common';
 import {
   ForbiddenError, PASSWORD_RESET_ACCEPTED, ValidationError,
-  type ChangePasswordRequest, type PasswordResetConfirm, type PasswordResetRequest,
+  type ChangePasswordRequest, type PasswordResetConfirm, type PasswordResetRequest, type LoginResponse,
 } from '@driftgrid/domain';
 import type { AuthUser } from '../auth/current-user.js';
 import { PasswordService } from '../auth/password.service.js';
+import { AuthService } from '../auth/auth.service.js';
 import { Clock } from '../common/clock.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
 import { DB_HANDLE } from '../db/db.module.js';
@@ -31,6 +32,7 @@ export class PasswordsService {
     private readonly passwords: PasswordService,
     private readonly mail: MailService,
     private readonly clock: Clock,
+    private readonly auth: AuthService,
   ) {}
 
   /**
@@ -68,20 +70,27 @@ export class PasswordsService {
     this.handle.sqlite.transaction(() => {
       const user = check();
       const now = this.clock.now();
-      this.users.update(user.id, { passwordHash, failedLogins: 0, lockedUntil: null, updatedAt: now });
+      this.users.update(user.id, { passwordHash, failedLogins: 0, lockedUntil: null, updatedAt: now, sessionsValidAfter: wholeSecond(now) });
       this.repo.useResets(user.id, now);
     })();
     return { message: 'Your password has been changed; sign in with the new one' };
   }
 
-  async change(user: AuthUser, req: ChangePasswordRequest): Promise<{ message: string }> {
+  /** Ends the user's other sessions and returns a fresh one for the caller. */
+  async change(user: AuthUser, req: ChangePasswordRequest): Promise<{ message: string } & LoginResponse> {
     if (user.via !== 'session') throw new ForbiddenError('Change your password when signed in with it, not with an API token');
     const row = this.users.findById(user.id);
     if (!row || !(await this.passwords.verify(req.current, row.passwordHash))) {
       throw new ValidationError('Invalid body: current: is not your current password', [{ path: 'current', message: 'is not your current password' }]);
     }
     const passwordHash = await this.passwords.hash(req.next);
-    this.users.update(user.id, { passwordHash, updatedAt: this.clock.now() });
-    return { message: 'Your password has been changed' };
+    const now = this.clock.now();
+    const updated = this.users.update(user.id, { passwordHash, updatedAt: now, sessionsValidAfter: wholeSecond(now) })!;
+    return { message: 'Your password has been changed; your other sessions have been signed out', ...this.auth.issue(updated) };
   }
+}
+
+/** JWT `iat` has whole seconds: the cut-off is rounded down so the caller's new session survives it. */
+function wholeSecond(ms: number): number {
+  return Math.floor(ms / 1000) * 1000;
 }

@@ -17,6 +17,8 @@ export const users = sqliteTable('users', {
   active: integer('active', { mode: 'boolean' }).notNull().default(true),
   failedLogins: integer('failed_logins').notNull().default(0),
   lockedUntil: integer('locked_until'),
+  /** Sign-in sessions issued before this time (ms, whole seconds) are refused: set on password change. */
+  sessionsValidAfter: integer('sessions_valid_after'),
   createdAt: integer('created_at').notNull(),
   updatedAt: integer('updated_at').notNull(),
 }, (t) => [uniqueIndex('users_email_unique').on(t.email)]);

@@ -2,6 +2,7 @@ import { Alert, Button, Paper, PasswordInput, Stack, Text } from '@mantine/core'
 import { useMutation } from '@tanstack/react-query';
 import { useState, type FormEvent } from 'react';
 import { changePasswordSchema } from '@driftgrid/domain';
+import { setSession } from '../auth/session.js';
 import { ApiError } from '../api/client.js';
 import { accountsApi } from '../components/AdminShared/accountsApi.js';
 import { ctrlEnter } from '../components/AdminShared/ctrlEnter.js';
@@ -15,7 +16,9 @@ export default function PasswordPage() {
   const [errors, setErrors] = useState<{ current?: string; next?: string; repeat?: string; form?: string }>({});
   const change = useMutation({
     mutationFn: accountsApi.changePassword,
-    onSuccess: () => {
+    onSuccess: (res) => {
+      // Other sessions are signed out by the change; this one continues on the fresh token.
+      setSession({ accessToken: res.accessToken, user: res.user });
       setCurrent('');
       setNext('');
       setRepeat('');

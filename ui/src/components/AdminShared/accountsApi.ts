@@ -23,7 +23,8 @@ export const accountsApi = {
   tokens: () => api.get<Page<ApiTokenSummary>>('/tokens', { pageSize: 200 }),
   createToken: (body: { name: string; scope: 'read' | 'read-write'; expiresAt?: string | null }) => api.post<CreatedApiToken>('/tokens', body),
   revokeToken: (id: number) => api.delete<ApiTokenSummary>(`/tokens/${id}`),
-  changePassword: (body: { current: string; next: string }) => api.post<{ message: string }>('/auth/password', body),
+  changePassword: (body: { current: string; next: string }) =>
+    api.post<{ message: string; accessToken: string; user: { id: number; email: string; name: string; role: 'admin' | 'researcher' | 'reviewer' } }>('/auth/password', body),
 };
 
 export const QUOTA_LABELS: Record<keyof Quota, { label: string; unit: string }> = {
