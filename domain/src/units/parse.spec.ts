@@ -61,3 +61,13 @@ describe('parseQuantity', () => {
     expect(() => parseQuantity('inputs.B_T', { v: 1 } as unknown as string, 'T')).toThrow(ValidationError);
   });
 });
+
+describe('energies in other units convert with the CODATA 2018 elementary charge', () => {
+  // CODATA 2018 / SI 2019: e = 1.602176634e-19 C exactly, so 1 eV = 1.602176634e-19 J exactly.
+  // (mathjs's own eV uses the older 1.602176565e-19 J, which would be off by 4.3e-8.)
+  it('reads joules and ergs as eV exactly', () => {
+    expect(parseQuantity('Te_eV', '1.602176634e-19 J', 'eV')).toBe(1);
+    expect(parseQuantity('Te_eV', '1.602176634e-12 erg', 'eV')).toBeCloseTo(1, 14);
+    expect(parseQuantity('Te_eV', '2 keV', 'eV')).toBe(2000);
+  });
+});

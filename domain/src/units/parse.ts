@@ -3,7 +3,7 @@
  * canonical units of the api and stored data: SI, temperatures in eV.
  */
 import { ValidationError } from '../errors.js';
-import { KELVIN_PER_EV } from '../constants.js';
+import { ELEMENTARY_CHARGE, KELVIN_PER_EV } from '../constants.js';
 import type { Unit } from 'mathjs';
 import { math } from './math.js';
 
@@ -68,7 +68,14 @@ export function parseQuantity(field: string, value: number | string, unit: strin
   if (unit === 'eV' && parsed.equalBase(kelvin)) {
     return tidy(parsed.toNumber('K') / KELVIN_PER_EV);
   }
-  const target = unit === 'eV' ? electronvolt : math.unit(unit);
-  if (!parsed.equalBase(target)) fail(field, unit, value, 'wrong dimension');
+  if (unit === 'eV') {
+    if (!parsed.equalBase(electronvolt)) fail(field, unit, value, 'wrong dimension');
+    // mathjs defines the eV with an older elementary charge; energies in other units (J, erg) go
+    // through joules and the CODATA 2018 value, which is exact by the 2019 SI definition.
+    const u = parsed.units;
+    const inEv = u.length === 1 && u[0].unit.name === 'eV' && u[0].power === 1;
+    return tidy(inEv ? parsed.toNumber('eV') : parsed.toNumber('J') / ELEMENTARY_CHARGE);
+  }
+  if (!parsed.equalBase(math.unit(unit))) fail(field, unit, value, 'wrong dimension');
   return tidy(parsed.toNumber(unit));
 }
