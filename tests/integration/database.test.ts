@@ -38,3 +38,17 @@ describe('SQLite with migrations applied', () => {
     sqlite.close();
   });
 });
+
+describe('demo seed', () => {
+  it('gives every demo account its own salt', async () => {
+    const { startTestApp } = await import('../support/app.js');
+    const t = await startTestApp();
+    try {
+      const rows = t.sqlite().prepare('SELECT password_hash AS h FROM users').all() as { h: string }[];
+      expect(rows.length).toBe(3);
+      expect(new Set(rows.map((r) => r.h)).size).toBe(3);
+    } finally {
+      await t.close();
+    }
+  });
+});

@@ -45,12 +45,13 @@ export class SeedService {
   }
 
   async seedUsers(): Promise<Record<string, number>> {
-    const hash = await this.passwords.hash(DEMO_PASSWORD);
+    // One hash (and salt) per account, as for any user: equal hashes would reveal equal passwords.
+    const hashes = await Promise.all(DEMO_USERS.map(() => this.passwords.hash(DEMO_PASSWORD)));
     const now = this.clock.now();
     const ids: Record<string, number> = {};
-    for (const u of DEMO_USERS) {
-      ids[u.role] = this.users.insert({ ...u, passwordHash: hash, active: true, createdAt: now, updatedAt: now }).id;
-    }
+    DEMO_USERS.forEach((u, i) => {
+      ids[u.role] = this.users.insert({ ...u, passwordHash: hashes[i], active: true, createdAt: now, updatedAt: now }).id;
+    });
     this.logger.log(`Seeded ${DEMO_USERS.length} demo users`);
     return ids;
   }
