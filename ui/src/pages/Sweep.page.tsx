@@ -17,6 +17,15 @@ import { formatCount, prettyUnit } from '../lib/format.js';
 import { FitsPanel } from '../components/FitsPanel/FitsPanel.js';
 import { ExportActions } from '../components/ExportActions/ExportActions.js';
 
+/** Canonical unit of a model input, for showing fixed numbers with their unit. */
+function inputUnit(model: string, name: string): string {
+  try {
+    return getModel(model).inputs.find((i) => i.name === name)?.unit ?? '';
+  } catch {
+    return '';
+  }
+}
+
 // echarts is heavy: the plot loads with its tab.
 const SweepPlot = lazy(() => import('../components/SweepPlot/SweepPlot.js').then((m) => ({ default: m.SweepPlot })));
 
@@ -159,7 +168,7 @@ function Overview({ sweep, canManage }: { sweep: SweepView; canManage: boolean }
               <Table.Tr key={a.param}><Table.Td c="dimmed">Swept {a.param}</Table.Td><Table.Td>{axisText(a)}</Table.Td></Table.Tr>
             ))}
             {Object.entries(d.fixed ?? {}).map(([k, v]) => (
-              <Table.Tr key={k}><Table.Td c="dimmed">Fixed {k}</Table.Td><Table.Td><Code>{String(v)}</Code></Table.Td></Table.Tr>
+              <Table.Tr key={k}><Table.Td c="dimmed">Fixed {k}</Table.Td><Table.Td>{typeof v === 'number' ? <Num value={v} unit={inputUnit(sweep.model, k)} /> : <Code>{String(v)}</Code>}</Table.Td></Table.Tr>
             ))}
             {(d.derived ?? []).map((x) => (
               <Table.Tr key={x.name}><Table.Td c="dimmed">Derived {x.name}</Table.Td><Table.Td><Code>{x.expr}</Code></Table.Td></Table.Tr>

@@ -58,6 +58,8 @@ export function StatusBadge({ status, suffix, ...rest }: StatusBadgeProps) {
       leftSection={<Glyph size={13} stroke={2} aria-hidden />}
       title={look.meaning}
       data-status={status}
+      // Beside a long truncated name the status word must stay whole.
+      style={{ flexShrink: 0 }}
       {...rest}
     >
       {suffix ? `${look.label} · ${suffix}` : look.label}
