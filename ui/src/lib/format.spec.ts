@@ -111,3 +111,14 @@ describe('small helpers', () => {
     expect(formatBytes(1_500_000)).toBe('1.5 MB');
   });
 });
+
+describe('plainNumber (placeholders that parse back)', () => {
+  it('writes large and small magnitudes in e-notation and keeps ordinary ones', async () => {
+    const { plainNumber } = await import('./format.js');
+    expect(plainNumber(1e19)).toBe('1e19');
+    expect(plainNumber(2.5e-7)).toBe('2.5e-7');
+    expect(plainNumber(0.02)).toBe('0.02');
+    expect(plainNumber(39.66)).toBe('39.66');
+    expect(plainNumber(0)).toBe('0');
+  });
+});

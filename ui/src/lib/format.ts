@@ -121,3 +121,14 @@ export function formatCount(n: number): string {
   const sign = n < 0 ? MINUS : '';
   return sign + Math.round(Math.abs(n)).toString().replace(/\B(?=(\d{3})+(?!\d))/g, ',');
 }
+
+/**
+ * A number as plain text someone could type back in: `1e19` rather than 10000000000000000000,
+ * `0.02` as is. Used in placeholders and defaults, where superscripts would not parse.
+ */
+export function plainNumber(x: number): string {
+  if (!Number.isFinite(x) || x === 0) return String(x);
+  const a = Math.abs(x);
+  if (a >= 1e-3 && a < 1e6) return String(x);
+  return x.toExponential().replace(/\.?0+e/, 'e').replace('e+', 'e');
+}

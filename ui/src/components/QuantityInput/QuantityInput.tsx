@@ -1,6 +1,6 @@
 import { Text, TextInput, type TextInputProps } from '@mantine/core';
 import { describeRange, type InputSpec } from '@driftgrid/domain';
-import { prettyUnit } from '../../lib/format.js';
+import { prettyUnit, plainNumber } from '../../lib/format.js';
 
 export interface QuantityInputProps extends Omit<TextInputProps, 'value' | 'onChange' | 'label' | 'error'> {
   spec: InputSpec;
@@ -30,7 +30,7 @@ export function QuantityInput({ spec, value, onChange, error, label, compact, ..
       value={value}
       onChange={(e) => onChange(e.currentTarget.value)}
       error={error || undefined}
-      placeholder={`${spec.default}${unit ? ` ${spec.unit}` : ''}`}
+      placeholder={`${plainNumber(spec.default)}${unit ? ` ${spec.unit}` : ''}`}
       rightSection={unit ? <Text fz="xs" c="dimmed" pr={6}>{unit}</Text> : undefined}
       rightSectionWidth={unit ? Math.max(36, unit.length * 8 + 14) : undefined}
       description={

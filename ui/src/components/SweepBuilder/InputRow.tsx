@@ -1,6 +1,6 @@
 import { Group, Paper, SegmentedControl, Select, SimpleGrid, Text, TextInput } from '@mantine/core';
 import { describeRange, type InputSpec } from '@driftgrid/domain';
-import { prettyUnit } from '../../lib/format.js';
+import { prettyUnit, plainNumber } from '../../lib/format.js';
 import type { AxisKind, InputChoice, InputMode } from './builderState.js';
 
 export interface InputRowProps {
@@ -41,7 +41,7 @@ export function InputRow({ spec, choice, onChange, errors, axisIndex }: InputRow
             {axisIndex !== null ? <Text span fz="xs" c="tide" fw={600}> · axis {axisIndex + 1}</Text> : null}
           </Text>
           <Text fz="xs" c="dimmed">
-            {spec.meaning} Allowed {describeRange(spec)}; default {spec.default}{unit ? ` ${unit}` : ''}.
+            {spec.meaning} Allowed {describeRange(spec)}; default {plainNumber(spec.default)}{unit ? ` ${unit}` : ''}.
           </Text>
         </div>
         <SegmentedControl
@@ -61,7 +61,7 @@ export function InputRow({ spec, choice, onChange, errors, axisIndex }: InputRow
           label={`Value${unitHint} or expression over other inputs`}
           aria-label={`${spec.name} fixed value`}
           data-testid={`fixed-${spec.name}`}
-          placeholder={`${spec.default}${unit ? ` ${spec.unit}` : ''}, or e.g. Te_eV`}
+          placeholder={`${plainNumber(spec.default)}${unit ? ` ${spec.unit}` : ''}, or e.g. Te_eV`}
           value={choice.value}
           onChange={(e) => set({ value: e.currentTarget.value })}
           error={err('value')}
