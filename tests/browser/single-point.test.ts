@@ -13,12 +13,10 @@
  *   data-testid="inputs-invalid"      shown instead of outputs while an input is invalid
  *   data-testid="profile-plot"        column-profile radial plots, data-a = width a (m)
  */
-import fs from 'node:fs';
-import path from 'node:path';
 import type { Browser, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { chromiumAvailable, launchBrowser, signInThroughForm } from '../support/browser.js';
-import { startServer, type RunningServer } from '../support/server.js';
+import { beforeEach, describe, expect, it } from 'vitest';
+import { browserSuite, chromiumAvailable, signInThroughForm } from '../support/browser.js';
+import type { RunningServer } from '../support/server.js';
 
 const run = chromiumAvailable();
 
@@ -54,17 +52,12 @@ function shown(text: string): number {
 const signIn = (page: Page, baseUrl: string) => signInThroughForm(page, baseUrl);
 
 describe.runIf(run)('single-point page', () => {
+  const suite = browserSuite();
   let server: RunningServer;
   let browser: Browser;
-
-  beforeAll(async () => {
-    server = await startServer();
-    if (!fs.existsSync(path.join(server.config.uiDist, 'index.html'))) throw new Error('ui is not built: run npm run build first');
-    browser = await launchBrowser();
-  });
-  afterAll(async () => {
-    await browser?.close();
-    await server?.close();
+  beforeEach(() => {
+    server = suite.server();
+    browser = suite.browser();
   });
 
   it('reads drifts and ρ_i/L_n for 10 eV, 0.5 T, 2 cm that match the hand calculation', async () => {

@@ -16,12 +16,10 @@
  *   quota-verdict (data-allowed), quota-violation.
  *   The sweep page (catalogue engineer's): sweep-status (StatusBadge, data-status).
  */
-import fs from 'node:fs';
-import path from 'node:path';
 import type { Browser, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { chromiumAvailable, launchBrowser, signInThroughForm } from '../support/browser.js';
-import { startServer, type RunningServer } from '../support/server.js';
+import { beforeEach, describe, expect, it } from 'vitest';
+import { browserSuite, chromiumAvailable, signInThroughForm } from '../support/browser.js';
+import type { RunningServer } from '../support/server.js';
 import { waitForSweep } from '../support/sweeps.js';
 import { DEMO } from '../support/app.js';
 
@@ -39,17 +37,12 @@ async function axisKind(page: Page, input: string, label: 'Linear' | 'Logarithmi
 }
 
 describe.runIf(run)('sweep builder', () => {
+  const suite = browserSuite();
   let server: RunningServer;
   let browser: Browser;
-
-  beforeAll(async () => {
-    server = await startServer();
-    if (!fs.existsSync(path.join(server.config.uiDist, 'index.html'))) throw new Error('ui is not built: run npm run build first');
-    browser = await launchBrowser();
-  });
-  afterAll(async () => {
-    await browser?.close();
-    await server?.close();
+  beforeEach(() => {
+    server = suite.server();
+    browser = suite.browser();
   });
 
   it('builds the Te × B deuterium scan, previews 1,550 points, keeps the draft across sign-in, submits and completes', async () => {
