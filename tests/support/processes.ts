@@ -25,10 +25,11 @@ export interface Proc {
   kill(signal?: NodeJS.Signals): Promise<void>;
 }
 
-export function spawnNode(script: string, env: Record<string, string>): Proc {
+/** Runs a built script; `nodeArgs` are node's own flags (e.g. --cpu-prof, refused in NODE_OPTIONS). */
+export function spawnNode(script: string, env: Record<string, string>, nodeArgs: string[] = []): Proc {
   const file = path.join(REPO, script);
   if (!fs.existsSync(file)) throw new Error(`${script} is not built: run npm run build first`);
-  const child = spawn(process.execPath, [file], { env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'] });
+  const child = spawn(process.execPath, [...nodeArgs, file], { env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'] });
   let out = '';
   child.stdout!.on('data', (d) => (out = (out + d).slice(-20000)));
   child.stderr!.on('data', (d) => (out = (out + d).slice(-20000)));

@@ -3,7 +3,6 @@
  * start, sign in, submit a sweep and wait for it, count its stored rows straight from SQLite.
  */
 import Database from 'better-sqlite3';
-import { spawn } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
 import { apiJson, apiLogin, freePort, REPO, spawnNode, waitForHealth, type Proc } from '../../support/processes.js';
@@ -21,22 +20,6 @@ export interface ApiHandle {
   /** Spawn → healthy → signed in, ms. */
   startMs: number;
   stop(): Promise<void>;
-}
-
-/** As spawnNode in tests/support, with node flags (--cpu-prof is refused in NODE_OPTIONS). */
-function spawnWithArgs(script: string, env: Record<string, string>, nodeArgs: string[]): Proc {
-  const child = spawn(process.execPath, [...nodeArgs, path.join(REPO, script)], { env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'] });
-  let out = '';
-  child.stdout!.on('data', (d) => (out = (out + d).slice(-20000)));
-  child.stderr!.on('data', (d) => (out = (out + d).slice(-20000)));
-  const exited = new Promise<number | null>((r) => child.on('exit', (code) => r(code)));
-  return {
-    child, exited, output: () => out,
-    async kill(signal = 'SIGTERM') {
-      if (child.exitCode === null && child.signalCode === null) child.kill(signal);
-      await exited;
-    },
-  };
 }
 
 /** Stops a child: SIGTERM, then SIGKILL if it has not exited after `graceMs`. */
@@ -58,7 +41,7 @@ export async function startApi(label: string, env: Record<string, string> = {}):
   const port = await freePort();
   const apiEnv = { NODE_ENV: 'test', LOG_LEVEL: 'warn', HOST: '127.0.0.1', PORT: String(port), DEMO_SEED: 'true', DATA_DIR: dataDir, ...env };
   const proc = profile
-    ? spawnWithArgs('api/dist/main.js', apiEnv, ['--cpu-prof', `--cpu-prof-dir=${PROFILE_DIR}`, `--cpu-prof-name=api-${label}-${Date.now()}.cpuprofile`])
+    ? spawnNode('api/dist/main.js', apiEnv, ['--cpu-prof', `--cpu-prof-dir=${PROFILE_DIR}`, `--cpu-prof-name=api-${label}-${Date.now()}.cpuprofile`])
     : spawnNode('api/dist/main.js', apiEnv);
   const stop = track(`api ${label}`, async () => {
     await stopProc(proc);
