@@ -1,4 +1,4 @@
-import type { FitInput, FitRequest, FitResult } from '@driftgrid/domain';
+import type { FitInput, FitParameterView, FitPlotData, FitRequest, FitResult } from '@driftgrid/domain';
 import type { FitData } from './fit-sources.js';
 import { tQuantile } from './t-quantile.js';
 
@@ -8,25 +8,7 @@ export const CONFIDENCE_LEVEL = 0.95;
 export const CONFIDENCE_METHOD =
   'value ± t·stdError, t the Student-t quantile for (1 + 0.95)/2 at the fit\'s degrees of freedom (regularized incomplete beta, inverted by bisection)';
 
-export interface FitParameterView {
-  name: string;
-  value: number | null;
-  stdError: number | null;
-  /** Unit where the model makes it plain (exponents '1', polytropic Te in eV and n0 in y's unit, exponential s in x's unit). */
-  unit: string | null;
-  ci95: { low: number; high: number } | null;
-}
-
-export interface FitPlotData {
-  xNames: string[];
-  x: Record<string, (number | null)[]>;
-  y: (number | null)[];
-  fitted: (number | null)[];
-  residuals: (number | null)[];
-  /** Points in the fit, and points in these arrays. */
-  total: number;
-  shown: number;
-}
+export type { FitParameterView, FitPlotData };
 
 /** What a completed (or non-converged) fit stores in fits.result. */
 export interface StoredFitResult {

@@ -2,3 +2,4 @@ export * from './auth.js';
 export * from './accounts.js';
 export * from './catalogue.js';
 export * from './datasets.js';
+export * from './fits.js';

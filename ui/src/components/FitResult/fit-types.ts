@@ -1,23 +1,9 @@
 import { api, type Page } from '../../api/client.js';
 
-/** The fit shape GET /api/fits/:id returns (SPEC §6 plus intervals, plot data, versions). */
-export interface FitParameterView {
-  name: string;
-  value: number | null;
-  stdError: number | null;
-  unit: string | null;
-  ci95: { low: number; high: number } | null;
-}
+// The fit shape GET /api/fits/:id returns (SPEC §6 plus intervals, plot data, versions).
+import type { FitParameterView, FitPlotData } from '@driftgrid/domain';
 
-export interface FitPlotData {
-  xNames: string[];
-  x: Record<string, (number | null)[]>;
-  y: (number | null)[];
-  fitted: (number | null)[];
-  residuals: (number | null)[];
-  total: number;
-  shown: number;
-}
+export type { FitParameterView, FitPlotData };
 
 export type FitSourceKind = 'sweep' | 'dataset';
 
