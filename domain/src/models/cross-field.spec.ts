@@ -1,4 +1,7 @@
 import fc from 'fast-check';
+
+// A fixed seed: the same cases on every run, so a failure can be replayed.
+fc.configureGlobal({ seed: 20261201 });
 import { describe, expect, it } from 'vitest';
 import { ELEMENTARY_CHARGE as E, VACUUM_PERMEABILITY as MU0 } from '../constants.js';
 import { crossField } from './cross-field.js';
@@ -75,7 +78,9 @@ describe('cross-field textbook facts', () => {
     // Guiding-centre theory: v_E = E×B/B², independent of q and m (CONFIRMED, see README).
     fc.assert(
       fc.property(
-        fc.double({ min: -1e5, max: 1e5, noNaN: true }), fc.double({ min: 0.01, max: 10, noNaN: true }),
+        // Subnormal fields (|E_r| < 1e-300 V/m) are not physical and lose the relative precision checked below.
+        fc.double({ min: -1e5, max: 1e5, noNaN: true }).filter((x) => x === 0 || Math.abs(x) > 1e-300),
+        fc.double({ min: 0.01, max: 10, noNaN: true }),
         fc.double({ min: 1, max: 200, noNaN: true }), fc.double({ min: 1, max: 20, noNaN: true }),
         fc.double({ min: 0.1, max: 1e4, noNaN: true }),
         (Er, B, mu, Z, T) => {
