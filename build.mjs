@@ -6,10 +6,26 @@ import path from 'node:path';
 
 const force = process.argv.includes('--force');
 const steps = [
-  { name: 'domain', inputs: ['domain/src', 'domain/tsconfig.json', 'domain/tsconfig.build.json', 'domain/package.json'], out: 'domain/dist' },
-  { name: 'worker', inputs: ['worker/src', 'worker/tsconfig.json', 'worker/package.json', 'domain/src'], out: 'worker/dist' },
-  { name: 'api', inputs: ['api/src', 'api/tsconfig.json', 'api/package.json', 'domain/src', 'worker/src'], out: 'api/dist' },
-  { name: 'ui', inputs: ['ui/src', 'ui/public', 'ui/index.html', 'ui/vite.config.ts', 'ui/package.json', 'domain/src', 'examples'], out: 'ui/dist' },
+  {
+    name: 'domain',
+    inputs: ['domain/src', 'domain/tsconfig.json', 'domain/tsconfig.build.json', 'domain/package.json'],
+    out: 'domain/dist',
+  },
+  {
+    name: 'worker',
+    inputs: ['worker/src', 'worker/tsconfig.json', 'worker/package.json', 'domain/src'],
+    out: 'worker/dist',
+  },
+  {
+    name: 'api',
+    inputs: ['api/src', 'api/tsconfig.json', 'api/package.json', 'domain/src', 'worker/src'],
+    out: 'api/dist',
+  },
+  {
+    name: 'ui',
+    inputs: ['ui/src', 'ui/public', 'ui/index.html', 'ui/vite.config.ts', 'ui/package.json', 'domain/src', 'examples'],
+    out: 'ui/dist',
+  },
 ];
 
 function newest(p) {

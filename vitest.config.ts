@@ -29,15 +29,33 @@ export default defineConfig({
       },
       {
         resolve: { alias },
-        test: { name: 'integration', include: ['tests/integration/**/*.test.ts'], environment: 'node', testTimeout: 120000, hookTimeout: 60000 },
+        test: {
+          name: 'integration',
+          include: ['tests/integration/**/*.test.ts'],
+          environment: 'node',
+          testTimeout: 120000,
+          hookTimeout: 60000,
+        },
       },
       {
         resolve: { alias },
-        test: { name: 'queue', include: ['tests/queue/**/*.test.ts'], environment: 'node', testTimeout: 60000, fileParallelism: false },
+        test: {
+          name: 'queue',
+          include: ['tests/queue/**/*.test.ts'],
+          environment: 'node',
+          testTimeout: 60000,
+          fileParallelism: false,
+        },
       },
       {
         resolve: { alias },
-        test: { name: 'api', include: ['tests/api/**/*.test.ts'], environment: 'node', testTimeout: 120000, hookTimeout: 60000 },
+        test: {
+          name: 'api',
+          include: ['tests/api/**/*.test.ts'],
+          environment: 'node',
+          testTimeout: 120000,
+          hookTimeout: 60000,
+        },
       },
       {
         resolve: { alias },

@@ -22,7 +22,22 @@ export class AppModule {
   static forRoot(config: AppConfig): DynamicModule {
     return {
       module: AppModule,
-      imports: [ConfigModule.forRoot(config), ClockModule, DbModule, UsersModule, AuthModule, HealthModule, SeedModule, PeopleModule, QueueModule.forRoot(config), SweepsModule, ModelsModule, CatalogueModule, FitsModule, ExportModule],
+      imports: [
+        ConfigModule.forRoot(config),
+        ClockModule,
+        DbModule,
+        UsersModule,
+        AuthModule,
+        HealthModule,
+        SeedModule,
+        PeopleModule,
+        QueueModule.forRoot(config),
+        SweepsModule,
+        ModelsModule,
+        CatalogueModule,
+        FitsModule,
+        ExportModule,
+      ],
       providers: [{ provide: APP_FILTER, useClass: HttpErrorFilter }],
     };
   }

@@ -38,7 +38,11 @@ export async function createApp(config: AppConfig): Promise<CreatedApp> {
     helmet({
       contentSecurityPolicy: {
         useDefaults: true,
-        directives: { 'img-src': ["'self'", 'data:', 'blob:'], 'connect-src': ["'self'"], 'upgrade-insecure-requests': null },
+        directives: {
+          'img-src': ["'self'", 'data:', 'blob:'],
+          'connect-src': ["'self'"],
+          'upgrade-insecure-requests': null,
+        },
       },
       crossOriginEmbedderPolicy: false,
     }),
@@ -49,11 +53,15 @@ export async function createApp(config: AppConfig): Promise<CreatedApp> {
 
   const docs = new DocumentBuilder()
     .setTitle('Driftgrid API')
-    .setDescription('Parameter sweeps, results catalogue and fits for fluid drifts and parallel force balance. Canonical units: SI, temperatures in eV.')
+    .setDescription(
+      'Parameter sweeps, results catalogue and fits for fluid drifts and parallel force balance. Canonical units: SI, temperatures in eV.',
+    )
     .setVersion(config.appVersion)
     .addBearerAuth()
     .build();
-  SwaggerModule.setup('api/docs', app, () => SwaggerModule.createDocument(app, docs), { jsonDocumentUrl: 'api/docs/openapi.json' });
+  SwaggerModule.setup('api/docs', app, () => SwaggerModule.createDocument(app, docs), {
+    jsonDocumentUrl: 'api/docs/openapi.json',
+  });
 
   const seeder = app.get(SeedService);
   await seeder.assertNoDemoCredentials();

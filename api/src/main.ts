@@ -22,9 +22,14 @@ async function main(): Promise<void> {
   server.keepAliveTimeout = 65_000;
   server.headersTimeout = 66_000;
   const url = `http://localhost:${config.port}`;
-  const lines = [`Driftgrid ${config.appVersion} is serving ${url} (api docs: ${url}/api/docs)`, `data: ${config.dataDir}`];
+  const lines = [
+    `Driftgrid ${config.appVersion} is serving ${url} (api docs: ${url}/api/docs)`,
+    `data: ${config.dataDir}`,
+  ];
   if (config.seedDemo) {
-    lines.push(`demo sign-ins (password "${DEMO_PASSWORD}", demo only): ${DEMO_USERS.map((u) => `${u.email} (${u.role})`).join(', ')}`);
+    lines.push(
+      `demo sign-ins (password "${DEMO_PASSWORD}", demo only): ${DEMO_USERS.map((u) => `${u.email} (${u.role})`).join(', ')}`,
+    );
   }
   console.log(lines.join('\n'));
 }

@@ -21,6 +21,21 @@ function bench(id: string, n: number, vary: (name: string, k: number) => number 
 }
 
 const N = 100_000;
-bench('cross-field', N, (name, k) => (name === 'Te_eV' ? 1 + (k % 1000) : name === 'B_T' ? 0.1 + (k % 50) * 0.1 : undefined), 30);
-bench('parallel-balance', N, (name, k) => (name === 'phi_V' ? -20 + (k % 400) * 0.1 : name === 'gamma_e' ? 1 + (k % 3) * 0.3 : undefined), 30);
-bench('column-profile', 20_000, (name, k) => (name === 'Te0_eV' ? 1 + (k % 100) : name === 'gamma_e' ? 1 + (k % 3) * 0.3 : undefined), 3);
+bench(
+  'cross-field',
+  N,
+  (name, k) => (name === 'Te_eV' ? 1 + (k % 1000) : name === 'B_T' ? 0.1 + (k % 50) * 0.1 : undefined),
+  30,
+);
+bench(
+  'parallel-balance',
+  N,
+  (name, k) => (name === 'phi_V' ? -20 + (k % 400) * 0.1 : name === 'gamma_e' ? 1 + (k % 3) * 0.3 : undefined),
+  30,
+);
+bench(
+  'column-profile',
+  20_000,
+  (name, k) => (name === 'Te0_eV' ? 1 + (k % 100) : name === 'gamma_e' ? 1 + (k % 3) * 0.3 : undefined),
+  3,
+);

@@ -1,8 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import { math } from './units/math.js';
 import {
-  BOLTZMANN, ELECTRON_MASS, ELEMENTARY_CHARGE, KELVIN_PER_EV, PROTON_MASS, SPEED_OF_LIGHT,
-  VACUUM_PERMEABILITY, VACUUM_PERMITTIVITY,
+  BOLTZMANN,
+  ELECTRON_MASS,
+  ELEMENTARY_CHARGE,
+  KELVIN_PER_EV,
+  PROTON_MASS,
+  SPEED_OF_LIGHT,
+  VACUUM_PERMEABILITY,
+  VACUUM_PERMITTIVITY,
 } from './constants.js';
 
 describe('CODATA 2018 constants', () => {

@@ -18,7 +18,10 @@ describe('a password change ends the other sessions', () => {
     const desktop = await t.login(DEMO.reviewer);
     // JWT iat has whole seconds: let the clock pass a second boundary so the cut-off is meaningful.
     await wait(1100);
-    const res = await t.http.post('/api/auth/password').set(auth(desktop)).send({ current: 'driftgrid-demo', next: 'reviewer-new-secret' });
+    const res = await t.http
+      .post('/api/auth/password')
+      .set(auth(desktop))
+      .send({ current: 'driftgrid-demo', next: 'reviewer-new-secret' });
     expect(res.status).toBe(200);
     expect(typeof res.body.accessToken).toBe('string');
     expect(res.body.user.email).toBe(DEMO.reviewer);
@@ -29,6 +32,8 @@ describe('a password change ends the other sessions', () => {
     expect((await t.http.get('/api/auth/me').set(auth(desktop))).status).toBe(401);
     expect((await t.http.get('/api/auth/me').set(auth(res.body.accessToken))).status).toBe(200);
     // A new sign-in with the new password works as usual.
-    expect((await t.http.post('/api/auth/login').send({ email: DEMO.reviewer, password: 'reviewer-new-secret' })).status).toBe(200);
+    expect(
+      (await t.http.post('/api/auth/login').send({ email: DEMO.reviewer, password: 'reviewer-new-secret' })).status,
+    ).toBe(200);
   });
 });

@@ -29,16 +29,24 @@ describe('login throttling', () => {
     expect(real.last.message).toBe(ghost.last.message);
     expect(real.last.message).not.toMatch(/exist|unknown|researcher/i);
     // Even the right password is refused while throttled.
-    expect((await t.http.post('/api/auth/login').send({ email: DEMO.researcher, password: 'driftgrid-demo' })).status).toBe(429);
+    expect(
+      (await t.http.post('/api/auth/login').send({ email: DEMO.researcher, password: 'driftgrid-demo' })).status,
+    ).toBe(429);
   });
 
   it('throttles password-reset requests the same way, and leaves other routes alone', async () => {
     const codes: number[] = [];
-    for (let i = 0; i < 4; i++) codes.push((await t.http.post('/api/auth/password-reset').send({ email: DEMO.reviewer })).status);
+    for (let i = 0; i < 4; i++)
+      codes.push((await t.http.post('/api/auth/password-reset').send({ email: DEMO.reviewer })).status);
     expect(codes).toEqual([202, 202, 202, 429]);
     // A different address still gets through, and the catalogue-style routes are never throttled.
-    expect((await t.http.post('/api/auth/login').send({ email: DEMO.admin, password: 'driftgrid-demo' })).status).toBe(200);
+    expect((await t.http.post('/api/auth/login').send({ email: DEMO.admin, password: 'driftgrid-demo' })).status).toBe(
+      200,
+    );
     const admin = await t.http.post('/api/auth/login').send({ email: DEMO.admin, password: 'driftgrid-demo' });
-    for (let i = 0; i < 20; i++) expect((await t.http.get('/api/auth/me').set('authorization', `Bearer ${admin.body.accessToken}`)).status).toBe(200);
+    for (let i = 0; i < 20; i++)
+      expect((await t.http.get('/api/auth/me').set('authorization', `Bearer ${admin.body.accessToken}`)).status).toBe(
+        200,
+      );
   });
 });

@@ -22,21 +22,32 @@ afterAll(async () => {
 describe('personal API tokens', () => {
   it('creates a token shown once, stored as SHA-256, listed without the secret', async () => {
     const expiresAt = new Date(Date.now() + 30 * 86_400_000).toISOString();
-    const res = await t.http.post('/api/tokens').set(auth(researcher)).send({ name: 'laptop notebook', scope: 'read-write', expiresAt });
+    const res = await t.http
+      .post('/api/tokens')
+      .set(auth(researcher))
+      .send({ name: 'laptop notebook', scope: 'read-write', expiresAt });
     expect(res.status).toBe(201);
     expect(Object.keys(res.body).sort()).toEqual(['createdAt', 'expiresAt', 'id', 'name', 'prefix', 'scope', 'token']);
     // dgt_ + base64url of 32 bytes = 43 characters
     expect(res.body.token).toMatch(/^dgt_[A-Za-z0-9_-]{43}$/);
     expect(res.body.token.startsWith(res.body.prefix)).toBe(true);
     expect(res.body.expiresAt).toBe(Date.parse(expiresAt));
-    const row = sqlite.prepare('SELECT token_hash FROM api_tokens WHERE id = ?').get(res.body.id) as { token_hash: string };
+    const row = sqlite.prepare('SELECT token_hash FROM api_tokens WHERE id = ?').get(res.body.id) as {
+      token_hash: string;
+    };
     expect(row.token_hash).toBe(createHash('sha256').update(res.body.token).digest('hex'));
 
     const list = await t.http.get('/api/tokens').set(auth(researcher));
     expect(list.status).toBe(200);
     expect(list.body).toMatchObject({ total: 1, page: 1 });
     expect(JSON.stringify(list.body)).not.toContain(res.body.token);
-    expect(list.body.items[0]).toMatchObject({ id: res.body.id, name: 'laptop notebook', scope: 'read-write', revokedAt: null, lastUsedAt: null });
+    expect(list.body.items[0]).toMatchObject({
+      id: res.body.id,
+      name: 'laptop notebook',
+      scope: 'read-write',
+      revokedAt: null,
+      lastUsedAt: null,
+    });
 
     const me = await t.http.get('/api/auth/me').set(auth(res.body.token));
     expect(me.status).toBe(200);
@@ -57,7 +68,10 @@ describe('personal API tokens', () => {
   });
 
   it('answers 401 to an expired token and to an unknown one', async () => {
-    const res = await t.http.post('/api/tokens').set(auth(researcher)).send({ name: 'short-lived', scope: 'read', expiresAt: Date.now() + 3600_000 });
+    const res = await t.http
+      .post('/api/tokens')
+      .set(auth(researcher))
+      .send({ name: 'short-lived', scope: 'read', expiresAt: Date.now() + 3600_000 });
     expect((await t.http.get('/api/auth/me').set(auth(res.body.token))).status).toBe(200);
     sqlite.prepare('UPDATE api_tokens SET expires_at = ? WHERE id = ?').run(Date.now() - 1, res.body.id);
     expect((await t.http.get('/api/auth/me').set(auth(res.body.token))).status).toBe(401);
@@ -87,10 +101,16 @@ describe('personal API tokens', () => {
     const r1 = await t.http.post('/api/tokens').set(auth(researcher)).send({ name: '', scope: 'admin' });
     expect(r1.status).toBe(400);
     expect(r1.body.details.map((d: { path: string }) => d.path)).toEqual(expect.arrayContaining(['name', 'scope']));
-    const past = await t.http.post('/api/tokens').set(auth(researcher)).send({ name: 'x', scope: 'read', expiresAt: '2001-01-01' });
+    const past = await t.http
+      .post('/api/tokens')
+      .set(auth(researcher))
+      .send({ name: 'x', scope: 'read', expiresAt: '2001-01-01' });
     expect(past.status).toBe(400);
     expect(past.body.details[0]).toEqual({ path: 'expiresAt', message: 'must be in the future' });
-    const far = await t.http.post('/api/tokens').set(auth(researcher)).send({ name: 'x', scope: 'read', expiresAt: Date.now() + 400 * 86_400_000 });
+    const far = await t.http
+      .post('/api/tokens')
+      .set(auth(researcher))
+      .send({ name: 'x', scope: 'read', expiresAt: Date.now() + 400 * 86_400_000 });
     expect(far.status).toBe(400);
     expect(far.body.details[0].path).toBe('expiresAt');
   });

@@ -36,8 +36,15 @@ beforeAll(async () => {
   t = await startTestApp();
   // A second researcher, inserted directly (the invitation flow is tested elsewhere).
   const now = Date.now();
-  otherId = Number(t.sqlite().prepare(`INSERT INTO users (email, name, role, password_hash, active, failed_logins, created_at, updated_at)
-    VALUES ('second.researcher@example.com', 'Second Researcher', 'researcher', ?, 1, 0, ?, ?)`).run(bcrypt.hashSync(DEMO_PASSWORD, 4), now, now).lastInsertRowid);
+  otherId = Number(
+    t
+      .sqlite()
+      .prepare(
+        `INSERT INTO users (email, name, role, password_hash, active, failed_logins, created_at, updated_at)
+    VALUES ('second.researcher@example.com', 'Second Researcher', 'researcher', ?, 1, 0, ?, ?)`,
+      )
+      .run(bcrypt.hashSync(DEMO_PASSWORD, 4), now, now).lastInsertRowid,
+  );
   tok.owner = await t.login(DEMO.researcher);
   tok.other = await t.login('second.researcher@example.com');
   tok.reviewer = await t.login(DEMO.reviewer);
@@ -46,13 +53,22 @@ beforeAll(async () => {
 
   ids.private = await submit({ name: 'Argon private scan', tags: ['argon', 'private-tag'] });
   ids.shared = await submit({ name: 'Argon shared scan', tags: ['argon', 'shared-tag'] });
-  ids.archived = await submit({ name: 'Deuterium archived scan', tags: ['deuterium'], fixed: { ...smallSweep().fixed, mu: 2 } });
+  ids.archived = await submit({
+    name: 'Deuterium archived scan',
+    tags: ['deuterium'],
+    fixed: { ...smallSweep().fixed, mu: 2 },
+  });
   ids.group = await submit({ name: 'Argon group scan', tags: ['argon'], visibility: 'group' });
-  const share = await t.http.put(`/api/sweeps/${ids.shared}/sharing`).set(auth(tok.owner)).send({ visibility: 'private', userIds: [reviewerId] });
+  const share = await t.http
+    .put(`/api/sweeps/${ids.shared}/sharing`)
+    .set(auth(tok.owner))
+    .send({ visibility: 'private', userIds: [reviewerId] });
   expect(share.status).toBe(200);
   expect(share.body.sharedWith).toEqual([reviewerId]);
   // The archive route belongs to another module; the fixture sets the state directly.
-  t.sqlite().prepare(`UPDATE sweeps SET status = 'archived', archived_at = ? WHERE id = ?`).run(Date.now(), ids.archived);
+  t.sqlite()
+    .prepare(`UPDATE sweeps SET status = 'archived', archived_at = ? WHERE id = ?`)
+    .run(Date.now(), ids.archived);
 }, 120_000);
 
 afterAll(async () => {
@@ -60,7 +76,10 @@ afterAll(async () => {
 });
 
 async function listIds(token: string, query: Record<string, string | number> = {}): Promise<number[]> {
-  const res = await t.http.get('/api/sweeps').query({ pageSize: 1000, ...query }).set(auth(token));
+  const res = await t.http
+    .get('/api/sweeps')
+    .query({ pageSize: 1000, ...query })
+    .set(auth(token));
   expect(res.status).toBe(200);
   return res.body.items.map((s: { id: number }) => s.id);
 }
@@ -82,7 +101,10 @@ describe('visibility matrix', () => {
       expect(listed, `${who[i]} lists ${kind}`).toBe(expected[i]);
       const results = await t.http.get(`/api/sweeps/${ids[kind]}/results`).set(auth(token));
       expect(results.status, `${who[i]} reads ${kind}`).toBe(expected[i] ? 200 : 404);
-      const series = await t.http.get(`/api/sweeps/${ids[kind]}/series`).query({ x: 'Te_eV', y: 'vDi_ms' }).set(auth(token));
+      const series = await t.http
+        .get(`/api/sweeps/${ids[kind]}/series`)
+        .query({ x: 'Te_eV', y: 'vDi_ms' })
+        .set(auth(token));
       expect(series.status, `${who[i]} plots ${kind}`).toBe(expected[i] ? 200 : 404);
     }
   });
@@ -118,7 +140,9 @@ describe('catalogue filters, sorting and paging', () => {
     expect((await listIds(tok.owner, { minPoints: 35, maxPoints: 35 })).length).toBe(4);
     expect(await listIds(tok.owner, { minPoints: 36 })).toEqual([]);
     expect(await listIds(tok.owner, { createdTo: '2000-01-01' })).toEqual([]);
-    expect((await listIds(tok.owner, { createdFrom: '2000-01-01', finishedFrom: '2000-01-01T00:00:00Z' })).length).toBe(4);
+    expect((await listIds(tok.owner, { createdFrom: '2000-01-01', finishedFrom: '2000-01-01T00:00:00Z' })).length).toBe(
+      4,
+    );
   });
 
   it('pages with a stable total and sorts by name', async () => {
@@ -130,8 +154,14 @@ describe('catalogue filters, sorting and paging', () => {
       seen.push(...res.body.items.map((s: { id: number }) => s.id));
     }
     expect(seen).toEqual(all);
-    const names = (t.sqlite().prepare(`SELECT id FROM sweeps WHERE owner_id = (SELECT id FROM users WHERE email = ?) ORDER BY name COLLATE NOCASE`)
-      .all(DEMO.researcher) as { id: number }[]).map((r) => r.id);
+    const names = (
+      t
+        .sqlite()
+        .prepare(
+          `SELECT id FROM sweeps WHERE owner_id = (SELECT id FROM users WHERE email = ?) ORDER BY name COLLATE NOCASE`,
+        )
+        .all(DEMO.researcher) as { id: number }[]
+    ).map((r) => r.id);
     expect(all).toEqual(names);
     expect(await listIds(tok.owner, { sort: 'name:desc' })).toEqual([...names].reverse());
   });
@@ -163,22 +193,37 @@ describe('results', () => {
     const [lo, hi] = span(id);
     const te = slotOf(id, 'Te_eV');
     const v = slotOf(id, 'vDi_ms');
-    const expected = t.sqlite().prepare(`SELECT id - ? AS idx, ${v} AS v FROM results WHERE id BETWEEN ? AND ? AND ${te} >= 2 AND ${te} <= 50 ORDER BY ${v} DESC, id`)
+    const expected = t
+      .sqlite()
+      .prepare(
+        `SELECT id - ? AS idx, ${v} AS v FROM results WHERE id BETWEEN ? AND ? AND ${te} >= 2 AND ${te} <= 50 ORDER BY ${v} DESC, id`,
+      )
       .all(lo, lo, hi) as { idx: number; v: number }[];
     expect(expected.length).toBeGreaterThan(5);
     expect(expected.length).toBeLessThan(35);
-    const res = await t.http.get(`/api/sweeps/${id}/results`).query({ sort: 'vDi_ms:desc', filter: JSON.stringify({ Te_eV: { gte: 2, lte: 50 } }), pageSize: 4, page: 2 }).set(auth(tok.owner));
+    const res = await t.http
+      .get(`/api/sweeps/${id}/results`)
+      .query({ sort: 'vDi_ms:desc', filter: JSON.stringify({ Te_eV: { gte: 2, lte: 50 } }), pageSize: 4, page: 2 })
+      .set(auth(tok.owner));
     expect(res.status).toBe(200);
     expect(res.body.total).toBe(expected.length);
     expect(res.body.rows.map((r: { idx: number }) => r.idx)).toEqual(expected.slice(4, 8).map((r) => r.idx));
     expect(res.body.rows.map((r: { vDi_ms: number }) => r.vDi_ms)).toEqual(expected.slice(4, 8).map((r) => r.v));
-    expect(res.body.columns.find((c: { name: string }) => c.name === 'vDi_ms')).toMatchObject({ unit: 'm/s', kind: 'output' });
+    expect(res.body.columns.find((c: { name: string }) => c.name === 'vDi_ms')).toMatchObject({
+      unit: 'm/s',
+      kind: 'output',
+    });
   });
 
   it('filters on validity', async () => {
     const id = ids.private;
     const [lo, hi] = span(id);
-    const n = (t.sqlite().prepare(`SELECT COUNT(*) AS n FROM results WHERE id BETWEEN ? AND ? AND ${slotOf(id, 'valid')} = 1`).get(lo, hi) as { n: number }).n;
+    const n = (
+      t
+        .sqlite()
+        .prepare(`SELECT COUNT(*) AS n FROM results WHERE id BETWEEN ? AND ? AND ${slotOf(id, 'valid')} = 1`)
+        .get(lo, hi) as { n: number }
+    ).n;
     const yes = await t.http.get(`/api/sweeps/${id}/results`).query({ valid: 'true' }).set(auth(tok.owner));
     const no = await t.http.get(`/api/sweeps/${id}/results`).query({ valid: 'false' }).set(auth(tok.owner));
     expect(yes.body.total).toBe(n);
@@ -217,7 +262,10 @@ describe('results', () => {
 
 describe('series', () => {
   it('draws one line per group from exact grid points, thinned to maxPoints', async () => {
-    const res = await t.http.get(`/api/sweeps/${ids.private}/series`).query({ x: 'Te_eV', y: 'vDi_ms', groupBy: 'B_T', maxPoints: 10 }).set(auth(tok.owner));
+    const res = await t.http
+      .get(`/api/sweeps/${ids.private}/series`)
+      .query({ x: 'Te_eV', y: 'vDi_ms', groupBy: 'B_T', maxPoints: 10 })
+      .set(auth(tok.owner));
     expect(res.status).toBe(200);
     expect(res.body.method).toBe('grid-slice');
     expect(res.body.groups).toHaveLength(5);
@@ -233,21 +281,33 @@ describe('series', () => {
   });
 
   it('holds the other swept inputs at a slice and checks the slice index', async () => {
-    const ok = await t.http.get(`/api/sweeps/${ids.private}/series`).query({ x: 'Te_eV', y: 'vDi_ms', 'slice.B_T': 4 }).set(auth(tok.owner));
+    const ok = await t.http
+      .get(`/api/sweeps/${ids.private}/series`)
+      .query({ x: 'Te_eV', y: 'vDi_ms', 'slice.B_T': 4 })
+      .set(auth(tok.owner));
     expect(ok.status).toBe(200);
     expect(ok.body.slice.B_T).toMatchObject({ index: 4, unit: 'T' });
     expect(ok.body.slice.B_T.value).toBeCloseTo(0.5, 12);
     expect(ok.body.groups[0].points).toHaveLength(7);
-    const bad = await t.http.get(`/api/sweeps/${ids.private}/series`).query({ x: 'Te_eV', y: 'vDi_ms', 'slice.B_T': 5 }).set(auth(tok.owner));
+    const bad = await t.http
+      .get(`/api/sweeps/${ids.private}/series`)
+      .query({ x: 'Te_eV', y: 'vDi_ms', 'slice.B_T': 5 })
+      .set(auth(tok.owner));
     expect(bad.status).toBe(400);
     expect(bad.body.details[0].path).toBe('slice.B_T');
-    const notSwept = await t.http.get(`/api/sweeps/${ids.private}/series`).query({ x: 'Te_eV', y: 'vDi_ms', 'slice.mu': 0 }).set(auth(tok.owner));
+    const notSwept = await t.http
+      .get(`/api/sweeps/${ids.private}/series`)
+      .query({ x: 'Te_eV', y: 'vDi_ms', 'slice.mu': 0 })
+      .set(auth(tok.owner));
     expect(notSwept.status).toBe(400);
   });
 
   it('gives heatmap cells equal to the stored rows, flagged where a validity flag is raised', async () => {
     const id = ids.private;
-    const res = await t.http.get(`/api/sweeps/${id}/series`).query({ kind: 'heatmap', x: 'Te_eV', y: 'B_T', z: 'rho_i_over_Ln' }).set(auth(tok.owner));
+    const res = await t.http
+      .get(`/api/sweeps/${id}/series`)
+      .query({ kind: 'heatmap', x: 'Te_eV', y: 'B_T', z: 'rho_i_over_Ln' })
+      .set(auth(tok.owner));
     expect(res.status).toBe(200);
     expect(res.body.cells).toHaveLength(35);
     expect(res.body.x.values).toHaveLength(7);
@@ -264,26 +324,38 @@ describe('series', () => {
       expect(bad).toBe((row.flags & res.body.invalidMask) !== 0 ? 1 : 0);
       flagged += bad;
     }
-    const invalid = (t.sqlite().prepare('SELECT invalid_points AS n FROM sweeps WHERE id = ?').get(id) as { n: number }).n;
+    const invalid = (t.sqlite().prepare('SELECT invalid_points AS n FROM sweeps WHERE id = ?').get(id) as { n: number })
+      .n;
     expect(flagged).toBe(invalid);
     expect(res.body.flags.map((f: { code: string }) => f.code)).toContain('rho_i_over_Ln');
   });
 
   it('thins a heatmap to maxPoints cells and can average instead of slicing', async () => {
-    const thin = await t.http.get(`/api/sweeps/${ids.private}/series`).query({ kind: 'heatmap', x: 'Te_eV', y: 'B_T', z: 'beta', maxPoints: 12 }).set(auth(tok.owner));
+    const thin = await t.http
+      .get(`/api/sweeps/${ids.private}/series`)
+      .query({ kind: 'heatmap', x: 'Te_eV', y: 'B_T', z: 'beta', maxPoints: 12 })
+      .set(auth(tok.owner));
     expect(thin.status).toBe(200);
     expect(thin.body.cells.length).toBeLessThanOrEqual(12);
     expect(thin.body.x.values[0]).toBeCloseTo(1, 12);
     expect(thin.body.x.values.at(-1)).toBeCloseTo(100, 10);
-    const mean = await t.http.get(`/api/sweeps/${ids.private}/series`).query({ kind: 'heatmap', x: 'Te_eV', y: 'B_T', z: 'beta', agg: 'mean' }).set(auth(tok.owner));
+    const mean = await t.http
+      .get(`/api/sweeps/${ids.private}/series`)
+      .query({ kind: 'heatmap', x: 'Te_eV', y: 'B_T', z: 'beta', agg: 'mean' })
+      .set(auth(tok.owner));
     expect(mean.body.method).toBe('grid-mean');
     // Two swept axes only: the mean over one point per cell is that point.
-    const slice = await t.http.get(`/api/sweeps/${ids.private}/series`).query({ kind: 'heatmap', x: 'Te_eV', y: 'B_T', z: 'beta' }).set(auth(tok.owner));
-    for (let i = 0; i < slice.body.cells.length; i++) expect(mean.body.cells[i][2]).toBeCloseTo(slice.body.cells[i][2], 12);
+    const slice = await t.http
+      .get(`/api/sweeps/${ids.private}/series`)
+      .query({ kind: 'heatmap', x: 'Te_eV', y: 'B_T', z: 'beta' })
+      .set(auth(tok.owner));
+    for (let i = 0; i < slice.body.cells.length; i++)
+      expect(mean.body.cells[i][2]).toBeCloseTo(slice.body.cells[i][2], 12);
   });
 
   it('rejects unknown columns, a heatmap without z and too large a budget', async () => {
-    const q = (query: Record<string, string | number>) => t.http.get(`/api/sweeps/${ids.private}/series`).query(query).set(auth(tok.owner));
+    const q = (query: Record<string, string | number>) =>
+      t.http.get(`/api/sweeps/${ids.private}/series`).query(query).set(auth(tok.owner));
     expect((await q({ x: 'Te_eV', y: 'nope' })).body.details[0].path).toBe('y');
     expect((await q({ kind: 'heatmap', x: 'Te_eV', y: 'B_T' })).body.details[0].path).toBe('z');
     expect((await q({ x: 'Te_eV', y: 'beta', maxPoints: 1e6 })).status).toBe(400);
@@ -291,7 +363,10 @@ describe('series', () => {
   });
 
   it('takes strided samples when x is not a swept input', async () => {
-    const res = await t.http.get(`/api/sweeps/${ids.private}/series`).query({ x: 'vte_ms', y: 'vDi_ms', maxPoints: 8 }).set(auth(tok.owner));
+    const res = await t.http
+      .get(`/api/sweeps/${ids.private}/series`)
+      .query({ x: 'vte_ms', y: 'vDi_ms', maxPoints: 8 })
+      .set(auth(tok.owner));
     expect(res.status).toBe(200);
     expect(res.body.method).toBe('stride');
     expect(res.body.returned).toBeLessThanOrEqual(8);
@@ -302,17 +377,54 @@ describe('series', () => {
 
 describe('sharing', () => {
   it('lets only the owner or an admin share, and checks the users', async () => {
-    expect((await t.http.put(`/api/sweeps/${ids.private}/sharing`).set(auth(tok.other)).send({ visibility: 'group', userIds: [] })).status).toBe(404);
-    expect((await t.http.put(`/api/sweeps/${ids.group}/sharing`).set(auth(tok.other)).send({ visibility: 'private', userIds: [] })).status).toBe(403);
-    expect((await t.http.put(`/api/sweeps/${ids.private}/sharing`).set(auth(tok.reviewer)).send({ visibility: 'group', userIds: [] })).status).toBe(403);
-    const bad = await t.http.put(`/api/sweeps/${ids.private}/sharing`).set(auth(tok.owner)).send({ visibility: 'private', userIds: [otherId, 99999] });
+    expect(
+      (
+        await t.http
+          .put(`/api/sweeps/${ids.private}/sharing`)
+          .set(auth(tok.other))
+          .send({ visibility: 'group', userIds: [] })
+      ).status,
+    ).toBe(404);
+    expect(
+      (
+        await t.http
+          .put(`/api/sweeps/${ids.group}/sharing`)
+          .set(auth(tok.other))
+          .send({ visibility: 'private', userIds: [] })
+      ).status,
+    ).toBe(403);
+    expect(
+      (
+        await t.http
+          .put(`/api/sweeps/${ids.private}/sharing`)
+          .set(auth(tok.reviewer))
+          .send({ visibility: 'group', userIds: [] })
+      ).status,
+    ).toBe(403);
+    const bad = await t.http
+      .put(`/api/sweeps/${ids.private}/sharing`)
+      .set(auth(tok.owner))
+      .send({ visibility: 'private', userIds: [otherId, 99999] });
     expect(bad.status).toBe(400);
     expect(bad.body.details[0].path).toBe('userIds.1');
-    expect((await t.http.put(`/api/sweeps/${ids.archived}/sharing`).set(auth(tok.owner)).send({ visibility: 'group', userIds: [] })).status).toBe(409);
-    const ok = await t.http.put(`/api/sweeps/${ids.private}/sharing`).set(auth(tok.admin)).send({ visibility: 'private', userIds: [otherId] });
+    expect(
+      (
+        await t.http
+          .put(`/api/sweeps/${ids.archived}/sharing`)
+          .set(auth(tok.owner))
+          .send({ visibility: 'group', userIds: [] })
+      ).status,
+    ).toBe(409);
+    const ok = await t.http
+      .put(`/api/sweeps/${ids.private}/sharing`)
+      .set(auth(tok.admin))
+      .send({ visibility: 'private', userIds: [otherId] });
     expect(ok.status).toBe(200);
     expect((await t.http.get(`/api/sweeps/${ids.private}`).set(auth(tok.other))).status).toBe(200);
-    await t.http.put(`/api/sweeps/${ids.private}/sharing`).set(auth(tok.owner)).send({ visibility: 'private', userIds: [] });
+    await t.http
+      .put(`/api/sweeps/${ids.private}/sharing`)
+      .set(auth(tok.owner))
+      .send({ visibility: 'private', userIds: [] });
     expect((await t.http.get(`/api/sweeps/${ids.private}`).set(auth(tok.other))).status).toBe(404);
   });
 

@@ -12,11 +12,17 @@ describe('row limit', () => {
       const token = await small.login(DEMO.researcher);
       const rows = ['x'];
       for (let i = 0; i < 11; i++) rows.push(String(i));
-      const res = await small.http.post('/api/datasets').set(auth(token)).attach('file', Buffer.from(rows.join('\n')), 'x.csv');
+      const res = await small.http
+        .post('/api/datasets')
+        .set(auth(token))
+        .attach('file', Buffer.from(rows.join('\n')), 'x.csv');
       expect(res.status).toBe(413);
       expect(res.body.message).toMatch(/10 data rows/);
       // Past multer's own limit (the body is under the early Content-Length cut-off).
-      const big = await small.http.post('/api/datasets').set(auth(token)).attach('file', Buffer.alloc(5000, 'x\n'), 'x.csv');
+      const big = await small.http
+        .post('/api/datasets')
+        .set(auth(token))
+        .attach('file', Buffer.alloc(5000, 'x\n'), 'x.csv');
       expect(big.status).toBe(413);
       expect(big.body.message).toMatch(/2000 bytes/);
     } finally {
@@ -24,4 +30,3 @@ describe('row limit', () => {
     }
   });
 });
-

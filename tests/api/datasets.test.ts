@@ -45,7 +45,12 @@ afterAll(async () => t?.close());
 
 describe('POST /api/datasets', () => {
   it('stores a probe profile with units converted to canonical SI', async () => {
-    const res = await upload(researcher, probeCsv, { name: 'Argon probe scan', units: JSON.stringify({ r: 'cm', phi: 'V', n: 'cm^-3' }) }, 'argon-probe-profile.csv');
+    const res = await upload(
+      researcher,
+      probeCsv,
+      { name: 'Argon probe scan', units: JSON.stringify({ r: 'cm', phi: 'V', n: 'cm^-3' }) },
+      'argon-probe-profile.csv',
+    );
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({ name: 'Argon probe scan', rows: 13 });
     expect(res.body.columns).toEqual([
@@ -55,7 +60,10 @@ describe('POST /api/datasets', () => {
       { name: 'probe', kind: 'text', unit: '', canonicalUnit: '', quantity: null },
     ]);
     const id = res.body.id as number;
-    const rows = t.sqlite().prepare('SELECT id, cells FROM dataset_rows WHERE id BETWEEN ? AND ? ORDER BY id').all(id * 2 ** 32, (id + 1) * 2 ** 32 - 1) as { id: number; cells: string }[];
+    const rows = t
+      .sqlite()
+      .prepare('SELECT id, cells FROM dataset_rows WHERE id BETWEEN ? AND ? ORDER BY id')
+      .all(id * 2 ** 32, (id + 1) * 2 ** 32 - 1) as { id: number; cells: string }[];
     expect(rows).toHaveLength(13);
     expect(rows[0].id).toBe(id * 2 ** 32);
     // SI definitions: 1 cm = 1e-2 m, 1 cm^-3 = 1e6 m^-3 (exact).
@@ -73,11 +81,19 @@ describe('POST /api/datasets', () => {
   });
 
   it('keeps kelvin and gauss columns in eV and T', async () => {
-    const res = await upload(researcher, 'Te,B\n11604.51812,1500\n23209.03624,2000\n', { units: JSON.stringify({ Te: 'K', B: 'G' }) });
+    const res = await upload(researcher, 'Te,B\n11604.51812,1500\n23209.03624,2000\n', {
+      units: JSON.stringify({ Te: 'K', B: 'G' }),
+    });
     expect(res.status).toBe(201);
     expect(res.body.columns.map((c: { canonicalUnit: string }) => c.canonicalUnit)).toEqual(['eV', 'T']);
     const me = t.sqlite().prepare('SELECT id FROM users WHERE email = ?').get(DEMO.researcher) as { id: number };
-    const cols = t.app.get(DatasetsService).columns({ id: me.id, email: DEMO.researcher, name: '', role: 'researcher', via: 'session', scope: 'read-write' }, res.body.id, ['Te', 'B']);
+    const cols = t.app
+      .get(DatasetsService)
+      .columns(
+        { id: me.id, email: DEMO.researcher, name: '', role: 'researcher', via: 'session', scope: 'read-write' },
+        res.body.id,
+        ['Te', 'B'],
+      );
     // CODATA 2018: 1 eV ↔ 11604.51812 K (k_B and e exact); 1 G = 1e-4 T (NRL Plasma Formulary).
     expect(rel(cols.data.Te[0], 1)).toBeLessThan(1e-9);
     expect(rel(cols.data.Te[1], 2)).toBeLessThan(1e-9);
@@ -158,7 +174,10 @@ describe('POST /api/datasets', () => {
     const res = await upload(researcher, csv, { units: JSON.stringify({ B: 'G' }) });
     expect(res.status).toBe(201);
     const id = res.body.id;
-    const stored = t.sqlite().prepare('SELECT cells FROM dataset_rows WHERE id = ?').get(id * 2 ** 32) as { cells: string };
+    const stored = t
+      .sqlite()
+      .prepare('SELECT cells FROM dataset_rows WHERE id = ?')
+      .get(id * 2 ** 32) as { cells: string };
     expect(JSON.parse(stored.cells)).toEqual([0.025, evil]);
 
     const zipRes = await t.http.get(`/api/datasets/${id}/export`).set(auth(researcher)).buffer(true).parse(binary);
@@ -169,7 +188,13 @@ describe('POST /api/datasets', () => {
     const parsed = Papa.parse<string[]>(strFromU8(files['data.csv']), { skipEmptyLines: true });
     expect(parsed.errors).toEqual([]);
     // OWASP CSV Injection advice: a leading ' keeps =, +, -, @ cells as text in spreadsheets.
-    expect(parsed.data.slice(1).map((r) => r[1])).toEqual([`'${evil}`, "'+SUM(A1:A2)", "'-2+3", "'@evil", 'plain text']);
+    expect(parsed.data.slice(1).map((r) => r[1])).toEqual([
+      `'${evil}`,
+      "'+SUM(A1:A2)",
+      "'-2+3",
+      "'@evil",
+      'plain text',
+    ]);
     expect(parsed.data[1][0]).toBe('0.025');
     const manifest = JSON.parse(strFromU8(files['manifest.json']));
     expect(manifest.data.rows).toBe(5);
@@ -193,7 +218,12 @@ describe('reading, sharing, deleting', () => {
   let id: number;
 
   beforeAll(async () => {
-    const res = await upload(researcher, driftCsv, { name: 'Drift-velocity scan', units: JSON.stringify({ B: 'G', Er: 'V/m', vE: 'm/s' }) }, 'drift-velocity-scan.csv');
+    const res = await upload(
+      researcher,
+      driftCsv,
+      { name: 'Drift-velocity scan', units: JSON.stringify({ B: 'G', Er: 'V/m', vE: 'm/s' }) },
+      'drift-velocity-scan.csv',
+    );
     expect(res.status).toBe(201);
     id = res.body.id;
   });
@@ -211,18 +241,31 @@ describe('reading, sharing, deleting', () => {
   });
 
   it('shares with a named user, then with the group', async () => {
-    const reviewerId = (t.sqlite().prepare('SELECT id FROM users WHERE email = ?').get(DEMO.reviewer) as { id: number }).id;
-    const bad = await t.http.put(`/api/datasets/${id}/sharing`).set(auth(researcher)).send({ userIds: [reviewerId, 9999] });
+    const reviewerId = (t.sqlite().prepare('SELECT id FROM users WHERE email = ?').get(DEMO.reviewer) as { id: number })
+      .id;
+    const bad = await t.http
+      .put(`/api/datasets/${id}/sharing`)
+      .set(auth(researcher))
+      .send({ userIds: [reviewerId, 9999] });
     expect(bad.status).toBe(400);
     expect(bad.body.details[0].path).toBe('userIds.1');
-    const shared = await t.http.put(`/api/datasets/${id}/sharing`).set(auth(researcher)).send({ userIds: [reviewerId] });
+    const shared = await t.http
+      .put(`/api/datasets/${id}/sharing`)
+      .set(auth(researcher))
+      .send({ userIds: [reviewerId] });
     expect(shared.status).toBe(200);
     expect(shared.body.sharedWith).toEqual([reviewerId]);
     const seen = await t.http.get(`/api/datasets/${id}`).set(auth(reviewer));
     expect(seen.status).toBe(200);
     expect(seen.body.owner.name).toBeTruthy();
-    expect((await t.http.put(`/api/datasets/${id}/sharing`).set(auth(reviewer)).send({ visibility: 'group' })).status).toBe(403);
-    await t.http.put(`/api/datasets/${id}/sharing`).set(auth(researcher)).send({ userIds: [], visibility: 'group' }).expect(200);
+    expect(
+      (await t.http.put(`/api/datasets/${id}/sharing`).set(auth(reviewer)).send({ visibility: 'group' })).status,
+    ).toBe(403);
+    await t.http
+      .put(`/api/datasets/${id}/sharing`)
+      .set(auth(researcher))
+      .send({ userIds: [], visibility: 'group' })
+      .expect(200);
     expect((await t.http.get(`/api/datasets/${id}/rows`).set(auth(reviewer))).status).toBe(200);
   });
 
@@ -248,13 +291,19 @@ describe('reading, sharing, deleting', () => {
     expect((await t.http.delete(`/api/datasets/${id}`).set(auth(reviewer))).status).toBe(403);
     expect((await t.http.delete(`/api/datasets/${id}`).set(auth(researcher))).status).toBe(204);
     expect((await t.http.get(`/api/datasets/${id}`).set(auth(researcher))).status).toBe(404);
-    const left = t.sqlite().prepare('SELECT COUNT(*) AS n FROM dataset_rows WHERE id BETWEEN ? AND ?').get(id * 2 ** 32, (id + 1) * 2 ** 32 - 1) as { n: number };
+    const left = t
+      .sqlite()
+      .prepare('SELECT COUNT(*) AS n FROM dataset_rows WHERE id BETWEEN ? AND ?')
+      .get(id * 2 ** 32, (id + 1) * 2 ** 32 - 1) as { n: number };
     expect(left.n).toBe(0);
   });
 });
 
 /** supertest parser that keeps a binary body as a Buffer. */
-function binary(res: NodeJS.ReadableStream & { setEncoding(e: string): void }, cb: (err: Error | null, body: Buffer) => void) {
+function binary(
+  res: NodeJS.ReadableStream & { setEncoding(e: string): void },
+  cb: (err: Error | null, body: Buffer) => void,
+) {
   const chunks: Buffer[] = [];
   res.on('data', (c: Buffer) => chunks.push(c));
   res.on('end', () => cb(null, Buffer.concat(chunks)));

@@ -30,7 +30,8 @@ describe.runIf(redis)('scale-out: api plus two standalone workers on a real Redi
     // Wait until both workers say they started.
     const deadline = Date.now() + 20_000;
     while (!procs.slice(1).every((p) => p.output().includes('started'))) {
-      if (Date.now() > deadline) throw new Error(`workers did not start:\n${procs.map((p) => p.output()).join('\n---\n')}`);
+      if (Date.now() > deadline)
+        throw new Error(`workers did not start:\n${procs.map((p) => p.output()).join('\n---\n')}`);
       await new Promise((r) => setTimeout(r, 100));
     }
   });
@@ -43,10 +44,13 @@ describe.runIf(redis)('scale-out: api plus two standalone workers on a real Redi
 
   it('completes a sweep whose provenance shows both workers, with the exact row count', async () => {
     const token = await apiLogin(baseUrl, 'researcher@example.com');
-    const def = smallSweep({ name: 'scale-out scan', axes: [
-      { param: 'Te_eV', kind: 'log', min: 1, max: 1000, count: 100 },
-      { param: 'B_T', kind: 'linear', min: 0.1, max: 5, count: 400 },
-    ] });
+    const def = smallSweep({
+      name: 'scale-out scan',
+      axes: [
+        { param: 'Te_eV', kind: 'log', min: 1, max: 1000, count: 100 },
+        { param: 'B_T', kind: 'linear', min: 0.1, max: 5, count: 400 },
+      ],
+    });
     const created = await apiJson(baseUrl, token, 'POST', '/api/sweeps', def);
     expect(created.status).toBe(201);
     const id = created.body.id as number;
@@ -68,7 +72,9 @@ describe.runIf(redis)('scale-out: api plus two standalone workers on a real Redi
 
     const db = new Database(path.join(dataDir, 'driftgrid.db'), { readonly: true });
     const base = id * 2 ** 32;
-    const stats = db.prepare('SELECT COUNT(*) n, MIN(id) - ? lo, MAX(id) - ? hi FROM results WHERE id BETWEEN ? AND ?').get(base, base, base, base + 2 ** 32 - 1);
+    const stats = db
+      .prepare('SELECT COUNT(*) n, MIN(id) - ? lo, MAX(id) - ? hi FROM results WHERE id BETWEEN ? AND ?')
+      .get(base, base, base, base + 2 ** 32 - 1);
     expect(stats).toEqual({ n: 40_000, lo: 0, hi: 39_999 });
     db.close();
   });

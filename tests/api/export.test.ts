@@ -28,7 +28,12 @@ async function download(id: number, token: string) {
   return { res, body: res.body as Buffer };
 }
 
-interface StoredColumn { name: string; kind: string; type: string; slot: string }
+interface StoredColumn {
+  name: string;
+  kind: string;
+  type: string;
+  slot: string;
+}
 
 /** The sweep's rows straight from SQLite, in index order, under their column names. */
 function dbRows(id: number): { columns: StoredColumn[]; rows: (number | null)[][] } {
@@ -36,15 +41,29 @@ function dbRows(id: number): { columns: StoredColumn[]; rows: (number | null)[][
   const s = db.prepare('SELECT columns FROM sweeps WHERE id = ?').get(id) as { columns: string };
   const columns = JSON.parse(s.columns) as StoredColumn[];
   const sel = columns.map((c) => (c.kind === 'index' ? `id - ${id * 2 ** 32}` : c.slot)).join(', ');
-  const rows = db.prepare(`SELECT ${sel} FROM results WHERE id BETWEEN ? AND ? ORDER BY id`).raw(true).all(id * 2 ** 32, (id + 1) * 2 ** 32 - 1) as (number | null)[][];
+  const rows = db
+    .prepare(`SELECT ${sel} FROM results WHERE id BETWEEN ? AND ? ORDER BY id`)
+    .raw(true)
+    .all(id * 2 ** 32, (id + 1) * 2 ** 32 - 1) as (number | null)[][];
   return { columns, rows };
 }
 
 function insertFit(id: number, model: string, result: unknown) {
   const owner = (t.sqlite().prepare('SELECT id FROM users WHERE email = ?').get(DEMO.researcher) as { id: number }).id;
-  t.sqlite().prepare(`INSERT INTO fits (owner_id, source_kind, source_id, model, request, result, status, progress, app_version, created_at, finished_at)
-    VALUES (?, 'sweep', ?, ?, ?, ?, 'completed', 1, '0.1.0', ?, ?)`)
-    .run(owner, id, model, JSON.stringify({ source: { kind: 'sweep', id }, model, y: 'vDi_ms', x: ['Te_eV', 'B_T'] }), JSON.stringify(result), Date.now(), Date.now());
+  t.sqlite()
+    .prepare(
+      `INSERT INTO fits (owner_id, source_kind, source_id, model, request, result, status, progress, app_version, created_at, finished_at)
+    VALUES (?, 'sweep', ?, ?, ?, ?, 'completed', 1, '0.1.0', ?, ?)`,
+    )
+    .run(
+      owner,
+      id,
+      model,
+      JSON.stringify({ source: { kind: 'sweep', id }, model, y: 'vDi_ms', x: ['Te_eV', 'B_T'] }),
+      JSON.stringify(result),
+      Date.now(),
+      Date.now(),
+    );
 }
 
 beforeAll(async () => {
@@ -52,7 +71,10 @@ beforeAll(async () => {
   researcher = await t.login(DEMO.researcher);
   reviewer = await t.login(DEMO.reviewer);
   admin = await t.login(DEMO.admin);
-  const created = await t.http.post('/api/sweeps').set(auth(researcher)).send(smallSweep({ name: 'Argon column / export check' }));
+  const created = await t.http
+    .post('/api/sweeps')
+    .set(auth(researcher))
+    .send(smallSweep({ name: 'Argon column / export check' }));
   expect(created.status).toBe(201);
   sweepId = created.body.id;
   const done = await waitForSweep(t, researcher, sweepId);
@@ -100,7 +122,11 @@ describe('GET /api/sweeps/:id/export', () => {
     expect(manifest.times.finishedAt).toBeTruthy();
     expect(manifest.times.archivedAt).toBeNull();
     expect(manifest.fits).toHaveLength(1);
-    expect(manifest.fits[0]).toMatchObject({ model: 'power-law', request: { y: 'vDi_ms' }, result: { parameters: [{ name: 'C' }] } });
+    expect(manifest.fits[0]).toMatchObject({
+      model: 'power-law',
+      request: { y: 'vDi_ms' },
+      result: { parameters: [{ name: 'C' }] },
+    });
     expect(manifest.flags.map((f: { code: string }) => f.code)).toContain('rho_i_over_Ln');
 
     const cols = Papa.parse<string[]>(strFromU8(files['columns.csv']), { skipEmptyLines: true }).data;
@@ -126,7 +152,10 @@ describe('GET /api/sweeps/:id/export', () => {
 describe('POST /api/sweeps/:id/archive', () => {
   it('refuses reviewers and sweeps that are not completed', async () => {
     expect((await t.http.post(`/api/sweeps/${sweepId}/archive`).set(auth(reviewer))).status).toBe(403);
-    const other = await t.http.post('/api/sweeps').set(auth(researcher)).send(smallSweep({ name: 'not finished' }));
+    const other = await t.http
+      .post('/api/sweeps')
+      .set(auth(researcher))
+      .send(smallSweep({ name: 'not finished' }));
     await waitForSweep(t, researcher, other.body.id);
     for (const status of ['failed', 'cancelled', 'running']) {
       // Put the sweep in each state directly: the archive route must refuse all but completed.
@@ -144,7 +173,10 @@ describe('POST /api/sweeps/:id/archive', () => {
     const { sha256: sha, bytes } = res.body.archive;
     expect(sha).toMatch(/^[0-9a-f]{64}$/);
 
-    const row = t.sqlite().prepare('SELECT archive_file, archive_bytes, archived_at FROM sweeps WHERE id = ?').get(sweepId) as { archive_file: string; archive_bytes: number; archived_at: number };
+    const row = t
+      .sqlite()
+      .prepare('SELECT archive_file, archive_bytes, archived_at FROM sweeps WHERE id = ?')
+      .get(sweepId) as { archive_file: string; archive_bytes: number; archived_at: number };
     expect(row.archive_file).toBe(`sweep-${sweepId}-${sha.slice(0, 12)}.zip`);
     const onDisk = fs.readFileSync(path.join(t.config.archiveDir, row.archive_file));
     expect(sha256(onDisk)).toBe(sha);
@@ -173,7 +205,10 @@ describe('POST /api/sweeps/:id/archive', () => {
     expect(manifest.fits.map((f: { model: string }) => f.model)).toEqual(['power-law']);
     expect(strFromU8(files['README.txt'])).toMatch(/frozen archive/);
 
-    const cached = await t.http.get(`/api/sweeps/${sweepId}/export`).set(auth(reviewer)).set('if-none-match', `"${sha}"`);
+    const cached = await t.http
+      .get(`/api/sweeps/${sweepId}/export`)
+      .set(auth(reviewer))
+      .set('if-none-match', `"${sha}"`);
     expect(cached.status).toBe(304);
   });
 

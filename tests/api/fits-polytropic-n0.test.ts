@@ -18,17 +18,24 @@ describe('polytropic fit of a raw density column (SPEC §13.3)', () => {
   let datasetId: number;
 
   beforeAll(async () => {
-    const res = await t.http.post('/api/datasets').set(auth(researcher))
+    const res = await t.http
+      .post('/api/datasets')
+      .set(auth(researcher))
       .field('name', 'Argon column probe scan (raw density)')
       .field('units', JSON.stringify({ phi: 'V', n: 'cm^-3' }))
       .attach('file', Buffer.from(probeScanCsv()), 'argon-probe-polytropic.csv');
     expect(res.status).toBe(201);
-    expect(res.body.columns.find((c: { name: string }) => c.name === 'n')).toMatchObject({ unit: 'cm^-3', canonicalUnit: 'm^-3' });
+    expect(res.body.columns.find((c: { name: string }) => c.name === 'n')).toMatchObject({
+      unit: 'cm^-3',
+      canonicalUnit: 'm^-3',
+    });
     datasetId = res.body.id;
   });
 
   it('fits γ, Te and n0 (in m^-3) within 3 standard errors of the generating values', async () => {
-    const res = await t.http.post('/api/fits').set(auth(researcher))
+    const res = await t.http
+      .post('/api/fits')
+      .set(auth(researcher))
       .send({ source: { kind: 'dataset', id: datasetId }, model: 'polytropic', y: 'n', x: 'phi' });
     expect(res.status).toBe(201);
     const f = res.body;
@@ -59,14 +66,24 @@ describe('polytropic fit of a raw density column (SPEC §13.3)', () => {
   });
 
   it('takes a start value for n0 from params, and refuses a non-positive one naming the field', async () => {
-    const ok = await t.http.post('/api/fits').set(auth(researcher))
-      .send({ source: { kind: 'dataset', id: datasetId }, model: 'polytropic', y: 'n', x: 'phi', params: { n0: 5e17, gamma: 1.2 } });
+    const ok = await t.http
+      .post('/api/fits')
+      .set(auth(researcher))
+      .send({
+        source: { kind: 'dataset', id: datasetId },
+        model: 'polytropic',
+        y: 'n',
+        x: 'phi',
+        params: { n0: 5e17, gamma: 1.2 },
+      });
     expect(ok.status).toBe(201);
     expect(ok.body.converged).toBe(true);
     const n0 = ok.body.parameters.find((q: { name: string }) => q.name === 'n0');
     expect(Math.abs(n0.value - SCAN.n0Cm3 * 1e6)).toBeLessThan(3 * n0.stdError);
 
-    const bad = await t.http.post('/api/fits').set(auth(researcher))
+    const bad = await t.http
+      .post('/api/fits')
+      .set(auth(researcher))
       .send({ source: { kind: 'dataset', id: datasetId }, model: 'polytropic', y: 'n', x: 'phi', params: { n0: -1 } });
     expect(bad.status).toBe(400);
     expect(JSON.stringify(bad.body)).toMatch(/params\.n0/);

@@ -20,11 +20,15 @@ describe('fits interrupted by a restart', () => {
     const token = await t.login(DEMO.researcher);
     const res = await t.http.post('/api/sweeps').set('authorization', `Bearer ${token}`).send(smallSweep());
     await waitForSweep(t, token, res.body.id);
-    const fit = await t.http.post('/api/fits').set('authorization', `Bearer ${token}`)
+    const fit = await t.http
+      .post('/api/fits')
+      .set('authorization', `Bearer ${token}`)
       .send({ source: { kind: 'sweep', id: res.body.id }, model: 'power-law', y: 'vDe_ms', x: ['Te_eV', 'B_T'] });
     expect(fit.status).toBe(201);
     // Stand-in for a fit that was running when the process died.
-    t.sqlite().prepare("UPDATE fits SET status = 'running', result = NULL, progress = 0.1, finished_at = NULL WHERE id = ?").run(fit.body.id);
+    t.sqlite()
+      .prepare("UPDATE fits SET status = 'running', result = NULL, progress = 0.1, finished_at = NULL WHERE id = ?")
+      .run(fit.body.id);
     await t.close();
     t = await startTestApp({ DATA_DIR: dir });
     const again = await t.login(DEMO.researcher);

@@ -77,11 +77,21 @@ describe('power law on a noiseless cross-field sweep (SPEC §13.2)', () => {
     const res = await t.http.post('/api/fits').set(auth(researcher)).send(powerLaw());
     expect(res.status).toBe(201);
     fit = res.body;
-    const valid = await t.http.get(`/api/sweeps/${sweepId}/results`).query({ filter: JSON.stringify({ valid: { eq: true } }), pageSize: 1 }).set(auth(researcher));
+    const valid = await t.http
+      .get(`/api/sweeps/${sweepId}/results`)
+      .query({ filter: JSON.stringify({ valid: { eq: true } }), pageSize: 1 })
+      .set(auth(researcher));
     // The filter matters: some points break the drift ordering (ρ_i/Ln ≥ 0.1), some do not.
     expect(valid.body.total).toBeGreaterThan(10);
     expect(valid.body.total).toBeLessThan(64);
-    expect(fit).toMatchObject({ status: 'completed', model: 'power-law', converged: true, n: valid.body.total, dropped: 0, signRestored: true });
+    expect(fit).toMatchObject({
+      status: 'completed',
+      model: 'power-law',
+      converged: true,
+      n: valid.body.total,
+      dropped: 0,
+      signRestored: true,
+    });
     const p = Object.fromEntries(fit.parameters.map((q: { name: string }) => [q.name, q]));
     expect(Object.keys(p)).toEqual(['C', 'exp_Ti_eV', 'exp_B_T', 'exp_Ln_m']);
     expect(Math.abs(p.exp_Ti_eV.value - 1)).toBeLessThan(1e-9);
@@ -89,7 +99,11 @@ describe('power law on a noiseless cross-field sweep (SPEC §13.2)', () => {
     expect(Math.abs(p.exp_Ln_m.value + 1)).toBeLessThan(1e-9);
     // vDi = −Ti/(B·Ln) exactly for γ_i = Z = 1 (T in volts): C = −1 m/s per V/(T·m).
     expect(Math.abs(p.C.value + 1)).toBeLessThan(1e-9);
-    for (const q of Object.values(p) as { stdError: number; unit: string | null; ci95: { low: number; high: number } }[]) {
+    for (const q of Object.values(p) as {
+      stdError: number;
+      unit: string | null;
+      ci95: { low: number; high: number };
+    }[]) {
       expect(q.stdError).toBeGreaterThanOrEqual(0);
       expect(q.stdError).toBeLessThan(1e-9);
       expect(q.ci95.low).toBeLessThanOrEqual(q.ci95.high);
@@ -109,7 +123,11 @@ describe('power law on a noiseless cross-field sweep (SPEC §13.2)', () => {
     expect(fit.modelVersion).toBe(sweep.body.provenance.modelVersion);
     expect(fit.appVersion).toBe(sweep.body.provenance.appVersion);
     expect(fit.owner.id).toBeGreaterThan(0);
-    expect(fit.request).toMatchObject({ source: { kind: 'sweep', id: sweepId }, y: 'vDi_ms', filter: { valid: { eq: true } } });
+    expect(fit.request).toMatchObject({
+      source: { kind: 'sweep', id: sweepId },
+      y: 'vDi_ms',
+      filter: { valid: { eq: true } },
+    });
     expect(fit.plot.shown).toBe(fit.n);
     expect(fit.plot.x.B_T).toHaveLength(fit.n);
     expect(fit.plot.y.every((v: number) => v < 0)).toBe(true);
@@ -118,8 +136,19 @@ describe('power law on a noiseless cross-field sweep (SPEC §13.2)', () => {
     // t(0.975, ν) from a standard table (NIST/SEMATECH e-Handbook §1.3.6.7.2) lies between 2.0 and 2.2 for ν ≥ 10.
     expect(fit.confidence.t).toBeGreaterThan(2.0);
     expect(fit.confidence.t).toBeLessThan(2.23);
-    const row = t.sqlite().prepare('SELECT owner_id, source_kind, source_id, status, request, app_version, source_model_version FROM fits WHERE id = ?').get(fit.id) as Record<string, unknown>;
-    expect(row).toMatchObject({ source_kind: 'sweep', source_id: sweepId, status: 'completed', app_version: fit.appVersion, source_model_version: fit.modelVersion });
+    const row = t
+      .sqlite()
+      .prepare(
+        'SELECT owner_id, source_kind, source_id, status, request, app_version, source_model_version FROM fits WHERE id = ?',
+      )
+      .get(fit.id) as Record<string, unknown>;
+    expect(row).toMatchObject({
+      source_kind: 'sweep',
+      source_id: sweepId,
+      status: 'completed',
+      app_version: fit.appVersion,
+      source_model_version: fit.modelVersion,
+    });
     expect(JSON.parse(row.request as string).x).toEqual(['Ti_eV', 'B_T', 'Ln_m']);
   });
 
@@ -138,15 +167,21 @@ describe('power law on a noiseless cross-field sweep (SPEC §13.2)', () => {
 
   it('a power law on a quantity of both signs is refused naming y', async () => {
     // vE = −Er/B changes sign with Er: no single sign to carry on C.
-    const mixed = await runSweep(researcher, smallSweep({
-      name: 'Mixed-sign E×B scan',
-      axes: [
-        { param: 'Te_eV', kind: 'log', min: 1, max: 100, count: 3 },
-        { param: 'Er_Vm', kind: 'list', values: [-100, 50, 200] },
-      ],
-      fixed: { n_m3: 1e18, mu: 40, Z: 1, gamma_i: 1, gamma_e: 1, Ti_eV: 'Te_eV', Ln_m: 0.02, B_T: 0.1 },
-    }));
-    const res = await t.http.post('/api/fits').set(auth(researcher)).send({ source: { kind: 'sweep', id: mixed }, model: 'power-law', y: 'vE_ms', x: ['Te_eV'] });
+    const mixed = await runSweep(
+      researcher,
+      smallSweep({
+        name: 'Mixed-sign E×B scan',
+        axes: [
+          { param: 'Te_eV', kind: 'log', min: 1, max: 100, count: 3 },
+          { param: 'Er_Vm', kind: 'list', values: [-100, 50, 200] },
+        ],
+        fixed: { n_m3: 1e18, mu: 40, Z: 1, gamma_i: 1, gamma_e: 1, Ti_eV: 'Te_eV', Ln_m: 0.02, B_T: 0.1 },
+      }),
+    );
+    const res = await t.http
+      .post('/api/fits')
+      .set(auth(researcher))
+      .send({ source: { kind: 'sweep', id: mixed }, model: 'power-law', y: 'vE_ms', x: ['Te_eV'] });
     expect(res.status).toBe(400);
     expect(res.body.details[0].path).toBe('y');
   });
@@ -154,38 +189,56 @@ describe('power law on a noiseless cross-field sweep (SPEC §13.2)', () => {
 
 describe('errors and access', () => {
   it('names an unknown column (400)', async () => {
-    const res = await t.http.post('/api/fits').set(auth(researcher)).send(powerLaw({ x: ['Ti_eV', 'B_tesla'] }));
+    const res = await t.http
+      .post('/api/fits')
+      .set(auth(researcher))
+      .send(powerLaw({ x: ['Ti_eV', 'B_tesla'] }));
     expect(res.status).toBe(400);
     expect(res.body.details[0]).toMatchObject({ path: 'x.1' });
     expect(res.body.message).toContain('B_tesla');
   });
 
   it('names an unknown filter column (400)', async () => {
-    const res = await t.http.post('/api/fits').set(auth(researcher)).send(powerLaw({ filter: { nope: { gte: 1 } } }));
+    const res = await t.http
+      .post('/api/fits')
+      .set(auth(researcher))
+      .send(powerLaw({ filter: { nope: { gte: 1 } } }));
     expect(res.status).toBe(400);
     expect(res.body.details[0].path).toBe('filter.nope');
   });
 
   it('refuses too few points (400)', async () => {
     // One point survives this filter; four parameters need at least five.
-    const res = await t.http.post('/api/fits').set(auth(researcher)).send(powerLaw({ filter: { Ti_eV: { lte: 1 }, B_T: { lte: 0.1 }, Ln_m: { lte: 0.05 } } }));
+    const res = await t.http
+      .post('/api/fits')
+      .set(auth(researcher))
+      .send(powerLaw({ filter: { Ti_eV: { lte: 1 }, B_T: { lte: 0.1 }, Ln_m: { lte: 0.05 } } }));
     expect(res.status).toBe(400);
     expect(res.body.message).toMatch(/too few points/);
-    const none = await t.http.post('/api/fits').set(auth(researcher)).send(powerLaw({ filter: { Ti_eV: { gt: 1000 } } }));
+    const none = await t.http
+      .post('/api/fits')
+      .set(auth(researcher))
+      .send(powerLaw({ filter: { Ti_eV: { gt: 1000 } } }));
     expect(none.status).toBe(400);
     expect(none.body.message).toMatch(/too few points/);
   });
 
   it('refuses a singular problem (400 naming x)', async () => {
     // Ti fixed by the filter: ln Ti is constant, collinear with ln C.
-    const res = await t.http.post('/api/fits').set(auth(researcher)).send(powerLaw({ filter: { Ti_eV: { lte: 1 } } }));
+    const res = await t.http
+      .post('/api/fits')
+      .set(auth(researcher))
+      .send(powerLaw({ filter: { Ti_eV: { lte: 1 } } }));
     expect(res.status).toBe(400);
     expect(res.body.details[0].path).toBe('x');
     expect(res.body.message).toMatch(/singular/);
   });
 
   it('rejects a malformed request with field paths', async () => {
-    const res = await t.http.post('/api/fits').set(auth(researcher)).send({ source: { kind: 'sweep', id: sweepId }, model: 'spline', y: 'vDi_ms', x: 'B_T' });
+    const res = await t.http
+      .post('/api/fits')
+      .set(auth(researcher))
+      .send({ source: { kind: 'sweep', id: sweepId }, model: 'spline', y: 'vDi_ms', x: 'B_T' });
     expect(res.status).toBe(400);
     expect(res.body.details.map((d: { path: string }) => d.path)).toContain('model');
   });
@@ -197,9 +250,15 @@ describe('errors and access', () => {
 
   it("hides another user's private sweep and its fits (404)", async () => {
     const adminSweep = await runSweep(admin, crossFieldScan({ ti: 3, b: 3, ln: [0.1, 0.5] }, 'Admin private scan'));
-    const adminFit = await t.http.post('/api/fits').set(auth(admin)).send(powerLaw({ source: { kind: 'sweep', id: adminSweep }, filter: undefined }));
+    const adminFit = await t.http
+      .post('/api/fits')
+      .set(auth(admin))
+      .send(powerLaw({ source: { kind: 'sweep', id: adminSweep }, filter: undefined }));
     expect(adminFit.status).toBe(201);
-    const post = await t.http.post('/api/fits').set(auth(researcher)).send(powerLaw({ source: { kind: 'sweep', id: adminSweep } }));
+    const post = await t.http
+      .post('/api/fits')
+      .set(auth(researcher))
+      .send(powerLaw({ source: { kind: 'sweep', id: adminSweep } }));
     expect(post.status).toBe(404);
     expect((await t.http.get(`/api/fits/${adminFit.body.id}`).set(auth(researcher))).status).toBe(404);
     expect((await t.http.get(`/api/fits/${adminFit.body.id}`).set(auth(reviewer))).status).toBe(404);
@@ -230,7 +289,9 @@ describe('polytropic fit on an uploaded dataset (SPEC §13.3)', () => {
       const y = (1 + ((GAMMA - 1) / GAMMA) * (phi / TE)) ** (1 / (GAMMA - 1)) + SIGMA * noise();
       lines.push(MISSING.includes(i) ? `${phi},,${SIGMA}` : `${phi},${y},${SIGMA}`);
     }
-    const res = await t.http.post('/api/datasets').set(auth(researcher))
+    const res = await t.http
+      .post('/api/datasets')
+      .set(auth(researcher))
       .field('name', 'Probe sweep, argon column')
       .field('units', JSON.stringify({ phi_V: 'V' }))
       .attach('file', Buffer.from(lines.join('\n') + '\n'), 'probe.csv');
@@ -239,10 +300,19 @@ describe('polytropic fit on an uploaded dataset (SPEC §13.3)', () => {
   });
 
   it('recovers Te and γ within 3 standard errors and reports the dropped rows', async () => {
-    const res = await t.http.post('/api/fits').set(auth(researcher)).send({ source: { kind: 'dataset', id: datasetId }, model: 'polytropic', y: 'n_over_n0', x: 'phi_V' });
+    const res = await t.http
+      .post('/api/fits')
+      .set(auth(researcher))
+      .send({ source: { kind: 'dataset', id: datasetId }, model: 'polytropic', y: 'n_over_n0', x: 'phi_V' });
     expect(res.status).toBe(201);
     const f = res.body;
-    expect(f).toMatchObject({ status: 'completed', converged: true, n: N - MISSING.length, dropped: MISSING.length, modelVersion: null });
+    expect(f).toMatchObject({
+      status: 'completed',
+      converged: true,
+      n: N - MISSING.length,
+      dropped: MISSING.length,
+      modelVersion: null,
+    });
     const p = Object.fromEntries(f.parameters.map((q: { name: string }) => [q.name, q]));
     expect(p.Te_eV.unit).toBe('eV');
     expect(f.units.phi_V).toBe('V');
@@ -258,26 +328,43 @@ describe('polytropic fit on an uploaded dataset (SPEC §13.3)', () => {
   });
 
   it('weights by σ give a reduced χ² near 1, and a range filter narrows the points', async () => {
-    const res = await t.http.post('/api/fits').set(auth(researcher)).send({
-      source: { kind: 'dataset', id: datasetId }, model: 'polytropic', y: 'n_over_n0', x: 'phi_V', weights: 'sigma',
-      filter: { phi_V: { gte: -10 } },
-    });
+    const res = await t.http
+      .post('/api/fits')
+      .set(auth(researcher))
+      .send({
+        source: { kind: 'dataset', id: datasetId },
+        model: 'polytropic',
+        y: 'n_over_n0',
+        x: 'phi_V',
+        weights: 'sigma',
+        filter: { phi_V: { gte: -10 } },
+      });
     expect(res.status).toBe(201);
     // χ²/ν has standard deviation sqrt(2/ν) ≈ 0.1 here (common practice); 3σ band.
     expect(res.body.chi2red).toBeGreaterThan(0.7);
     expect(res.body.chi2red).toBeLessThan(1.3);
     expect(res.body.n).toBeLessThan(N - MISSING.length);
     expect(res.body.n).toBeGreaterThan(150);
-    const list = await t.http.get('/api/fits').query({ sourceKind: 'dataset', sourceId: datasetId }).set(auth(researcher));
+    const list = await t.http
+      .get('/api/fits')
+      .query({ sourceKind: 'dataset', sourceId: datasetId })
+      .set(auth(researcher));
     expect(list.body.total).toBe(2);
     expect(list.body.items[0].source.name).toBe('Probe sweep, argon column');
   });
 
   it('an expression fit on the dataset reports its own parameters', async () => {
-    const res = await t.http.post('/api/fits').set(auth(researcher)).send({
-      source: { kind: 'dataset', id: datasetId }, model: 'expression', y: 'n_over_n0', x: ['phi_V'],
-      expr: 'A * exp(phi_V / T)', params: { A: 1, T: 4 },
-    });
+    const res = await t.http
+      .post('/api/fits')
+      .set(auth(researcher))
+      .send({
+        source: { kind: 'dataset', id: datasetId },
+        model: 'expression',
+        y: 'n_over_n0',
+        x: ['phi_V'],
+        expr: 'A * exp(phi_V / T)',
+        params: { A: 1, T: 4 },
+      });
     expect(res.status).toBe(201);
     expect(res.body.parameters.map((q: { name: string }) => q.name).sort()).toEqual(['A', 'T']);
     expect(res.body.converged).toBe(true);
@@ -285,10 +372,18 @@ describe('polytropic fit on an uploaded dataset (SPEC §13.3)', () => {
 
   it('stores a fit that did not converge as failed, with converged: false and the reason', async () => {
     // One iteration from a far start cannot reach the minimum; it must not be marked converged.
-    const res = await t.http.post('/api/fits').set(auth(researcher)).send({
-      source: { kind: 'dataset', id: datasetId }, model: 'expression', y: 'n_over_n0', x: ['phi_V'],
-      expr: 'A * exp(phi_V / T)', params: { A: 50, T: 0.3 }, maxIterations: 1,
-    });
+    const res = await t.http
+      .post('/api/fits')
+      .set(auth(researcher))
+      .send({
+        source: { kind: 'dataset', id: datasetId },
+        model: 'expression',
+        y: 'n_over_n0',
+        x: ['phi_V'],
+        expr: 'A * exp(phi_V / T)',
+        params: { A: 50, T: 0.3 },
+        maxIterations: 1,
+      });
     expect(res.status).toBe(201);
     expect(res.body.converged).toBe(false);
     expect(res.body.status).toBe('failed');
@@ -297,7 +392,10 @@ describe('polytropic fit on an uploaded dataset (SPEC §13.3)', () => {
   });
 
   it('hides a private dataset from a reviewer (404)', async () => {
-    const list = await t.http.get('/api/fits').query({ sourceKind: 'dataset', sourceId: datasetId }).set(auth(reviewer));
+    const list = await t.http
+      .get('/api/fits')
+      .query({ sourceKind: 'dataset', sourceId: datasetId })
+      .set(auth(reviewer));
     expect(list.body.total).toBe(0);
   });
 });
@@ -307,7 +405,10 @@ describe('long fits run queued (≥ 100,000 points)', () => {
     // 50 × 50 × 40 = 100,000 points, every one fitted (no filter).
     const ln = Array.from({ length: 40 }, (_, k) => 0.05 + 0.01 * k);
     const big = await runSweep(researcher, crossFieldScan({ ti: 50, b: 50, ln }, 'Large drift scaling scan'));
-    const res = await t.http.post('/api/fits').set(auth(researcher)).send(powerLaw({ source: { kind: 'sweep', id: big }, filter: undefined }));
+    const res = await t.http
+      .post('/api/fits')
+      .set(auth(researcher))
+      .send(powerLaw({ source: { kind: 'sweep', id: big }, filter: undefined }));
     expect(res.status).toBe(202);
     expect(res.body).toMatchObject({ status: 'queued', n: 100_000 });
     let f: Record<string, any> = {};

@@ -37,7 +37,9 @@ function prng(seed: number) {
 async function sha256Of(baseUrl: string, token: string, id: number): Promise<string> {
   const r = await fetch(`${baseUrl}/api/sweeps/${id}/export`, { headers: { authorization: `Bearer ${token}` } });
   expect(r.status).toBe(200);
-  return createHash('sha256').update(Buffer.from(await r.arrayBuffer())).digest('hex');
+  return createHash('sha256')
+    .update(Buffer.from(await r.arrayBuffer()))
+    .digest('hex');
 }
 
 describe.runIf(redis)('kill -9 of the api and of a standalone worker at seeded random moments', () => {
@@ -49,7 +51,12 @@ describe.runIf(redis)('kill -9 of the api and of a standalone worker at seeded r
   let worker: Proc;
 
   const startWorker = () => {
-    worker = spawnNode('worker/dist/main.js', { REDIS_URL: redis!.url, QUEUE_PREFIX: env.QUEUE_PREFIX, WORKER_CONCURRENCY: '2', WORKER_THREADS: '1' });
+    worker = spawnNode('worker/dist/main.js', {
+      REDIS_URL: redis!.url,
+      QUEUE_PREFIX: env.QUEUE_PREFIX,
+      WORKER_CONCURRENCY: '2',
+      WORKER_THREADS: '1',
+    });
     procs.push(worker);
   };
   const startApi = async () => {
@@ -76,7 +83,10 @@ describe.runIf(redis)('kill -9 of the api and of a standalone worker at seeded r
       for (;;) {
         const r = await apiJson(api.baseUrl, token, 'GET', `/api/sweeps/${id}`).catch(() => null);
         if (r?.status === 200 && !['queued', 'running'].includes(r.body.status)) return r.body;
-        if (Date.now() > deadline) throw new Error(`sweep ${id} not finished: ${JSON.stringify(r?.body?.progress)}\napi:\n${api.proc.output()}\nworker:\n${worker.output()}`);
+        if (Date.now() > deadline)
+          throw new Error(
+            `sweep ${id} not finished: ${JSON.stringify(r?.body?.progress)}\napi:\n${api.proc.output()}\nworker:\n${worker.output()}`,
+          );
         await new Promise((res) => setTimeout(res, 100));
       }
     };
@@ -89,17 +99,28 @@ describe.runIf(redis)('kill -9 of the api and of a standalone worker at seeded r
     const ROUNDS = 3;
     const sweeps: { id: number; points: number }[] = [];
     for (let round = 0; round < ROUNDS; round++) {
-      const created = await apiJson(api.baseUrl, token, 'POST', '/api/sweeps', smallSweep({
-        name: `fault round ${round}`,
-        axes: [{ param: 'Te_eV', kind: 'log', min: 1, max: 1000, count: 100 }, { param: 'B_T', kind: 'linear', min: 0.1, max: 5, count: 400 }],
-      }));
+      const created = await apiJson(
+        api.baseUrl,
+        token,
+        'POST',
+        '/api/sweeps',
+        smallSweep({
+          name: `fault round ${round}`,
+          axes: [
+            { param: 'Te_eV', kind: 'log', min: 1, max: 1000, count: 100 },
+            { param: 'B_T', kind: 'linear', min: 0.1, max: 5, count: 400 },
+          ],
+        }),
+      );
       expect(created.status).toBe(201);
       const id = created.body.id as number;
       sweeps.push({ id, points: created.body.points });
       const victim = rand() < 0.5 ? 'api' : 'worker';
       const delay = Math.floor(rand() * 1500);
       await new Promise((r) => setTimeout(r, delay));
-      console.log(`fault round ${round} (seed ${SEED}): kill -9 of the ${victim} ${delay} ms after submitting sweep ${id}`);
+      console.log(
+        `fault round ${round} (seed ${SEED}): kill -9 of the ${victim} ${delay} ms after submitting sweep ${id}`,
+      );
       if (victim === 'api') {
         await api.proc.kill('SIGKILL');
         await startApi();
@@ -121,7 +142,9 @@ describe.runIf(redis)('kill -9 of the api and of a standalone worker at seeded r
     const db = new Database(path.join(dataDir, 'driftgrid.db'), { readonly: true });
     for (const s of sweeps) {
       const base = s.id * 2 ** 32;
-      const stats = db.prepare('SELECT COUNT(*) n, MIN(id) - ? lo, MAX(id) - ? hi FROM results WHERE id BETWEEN ? AND ?').get(base, base, base, base + 2 ** 32 - 1);
+      const stats = db
+        .prepare('SELECT COUNT(*) n, MIN(id) - ? lo, MAX(id) - ? hi FROM results WHERE id BETWEEN ? AND ?')
+        .get(base, base, base, base + 2 ** 32 - 1);
       // Rowids are unique: count = points with min 0 and max points-1 means every idx once.
       expect(stats, `sweep ${s.id}`).toEqual({ n: s.points, lo: 0, hi: s.points - 1 });
     }
@@ -136,7 +159,13 @@ describe.runIf(redis)('kill -9 of the api and of a standalone worker at seeded r
 describe('a DATA_DIR that cannot be written', () => {
   const startFails = async (dataDir: string) => {
     const port = await freePort();
-    const proc = spawnNode('api/dist/main.js', { NODE_ENV: 'test', HOST: '127.0.0.1', PORT: String(port), DATA_DIR: dataDir, LOG_LEVEL: 'warn' });
+    const proc = spawnNode('api/dist/main.js', {
+      NODE_ENV: 'test',
+      HOST: '127.0.0.1',
+      PORT: String(port),
+      DATA_DIR: dataDir,
+      LOG_LEVEL: 'warn',
+    });
     procs.push(proc);
     const code = await proc.exited;
     return { code, out: proc.output() };
@@ -173,10 +202,18 @@ describe('a full database', () => {
       // Simulated full disk: this connection (the app's only writer) may grow by 20 pages; SQLITE_FULL beyond.
       const pages = (db.pragma('page_count') as { page_count: number }[])[0].page_count;
       db.pragma(`max_page_count = ${pages + 20}`);
-      const created = await t.http.post('/api/sweeps').set({ authorization: `Bearer ${token}` }).send(smallSweep({
-        name: 'disk full scan',
-        axes: [{ param: 'Te_eV', kind: 'log', min: 1, max: 1000, count: 100 }, { param: 'B_T', kind: 'linear', min: 0.1, max: 5, count: 500 }],
-      }));
+      const created = await t.http
+        .post('/api/sweeps')
+        .set({ authorization: `Bearer ${token}` })
+        .send(
+          smallSweep({
+            name: 'disk full scan',
+            axes: [
+              { param: 'Te_eV', kind: 'log', min: 1, max: 1000, count: 100 },
+              { param: 'B_T', kind: 'linear', min: 0.1, max: 5, count: 500 },
+            ],
+          }),
+        );
       expect(created.status).toBeLessThan(500);
       if (created.status === 201) {
         // Give the persistence time to hit the limit several times.
@@ -191,7 +228,11 @@ describe('a full database', () => {
         // It fails with a reason naming the full database instead of staying "running" for ever.
         expect(last!.status).toBe('failed');
         expect((last as unknown as { error: string }).error).toMatch(/database is full/);
-        const n = (db.prepare('SELECT COUNT(*) n FROM results WHERE id >= ? AND id < ?').get(created.body.id * 2 ** 32, (created.body.id + 1) * 2 ** 32) as { n: number }).n;
+        const n = (
+          db
+            .prepare('SELECT COUNT(*) n FROM results WHERE id >= ? AND id < ?')
+            .get(created.body.id * 2 ** 32, (created.body.id + 1) * 2 ** 32) as { n: number }
+        ).n;
         expect(n).toBeLessThan(created.body.points);
       } else {
         expect(created.body.message).toMatch(/full|space|disk/i);

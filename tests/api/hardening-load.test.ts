@@ -33,17 +33,25 @@ const auth = () => ({ authorization: `Bearer ${token}` });
 beforeAll(async () => {
   t = await startTestApp();
   token = await t.login(DEMO.researcher);
-  const small = await t.http.post('/api/sweeps').set(auth()).send(smallSweep({ name: 'load browse scan' }));
+  const small = await t.http
+    .post('/api/sweeps')
+    .set(auth())
+    .send(smallSweep({ name: 'load browse scan' }));
   expect(small.status).toBe(201);
   doneId = small.body.id;
   await waitForSweep(t, token, doneId);
-  const big = await t.http.post('/api/sweeps').set(auth()).send(smallSweep({
-    name: 'load large scan',
-    axes: [
-      { param: 'Te_eV', kind: 'log', min: 1, max: 1000, count: 500 },
-      { param: 'B_T', kind: 'linear', min: 0.05, max: 5, count: 1000 },
-    ],
-  }));
+  const big = await t.http
+    .post('/api/sweeps')
+    .set(auth())
+    .send(
+      smallSweep({
+        name: 'load large scan',
+        axes: [
+          { param: 'Te_eV', kind: 'log', min: 1, max: 1000, count: 500 },
+          { param: 'B_T', kind: 'linear', min: 0.05, max: 5, count: 1000 },
+        ],
+      }),
+    );
   expect(big.status).toBe(201);
   expect(big.body.points).toBe(500_000);
   bigId = big.body.id;
@@ -63,9 +71,11 @@ describe('50 concurrent clients while a large sweep runs', () => {
     const routes = (): string => {
       const r = rand();
       const id = rand() < 0.5 ? doneId : bigId;
-      if (r < 0.25) return `/api/sweeps?page=1&pageSize=${pick([10, 50, 100])}&sort=${pick(['createdAt:desc', 'name:asc', 'points:desc'])}`;
+      if (r < 0.25)
+        return `/api/sweeps?page=1&pageSize=${pick([10, 50, 100])}&sort=${pick(['createdAt:desc', 'name:asc', 'points:desc'])}`;
       if (r < 0.45) return `/api/sweeps/${id}`;
-      if (r < 0.8) return `/api/sweeps/${id}/results?page=${1 + Math.floor(rand() * 20)}&pageSize=${pick([50, 100, 500])}&sort=${pick(sorts)}`;
+      if (r < 0.8)
+        return `/api/sweeps/${id}/results?page=${1 + Math.floor(rand() * 20)}&pageSize=${pick([50, 100, 500])}&sort=${pick(sorts)}`;
       return `/api/sweeps/${id}/series?x=Te_eV&y=vE_ms&maxPoints=${pick([200, 2000])}`;
     };
     const started = Date.now();
@@ -88,7 +98,9 @@ describe('50 concurrent clients while a large sweep runs', () => {
     const progress = (await t.http.get(`/api/sweeps/${bigId}`).set(auth())).body.progress;
     latencies.sort((a, b) => a - b);
     const q = (p: number) => latencies[Math.min(latencies.length - 1, Math.floor(p * latencies.length))].toFixed(1);
-    console.log(`load: ${latencies.length} requests in ${((Date.now() - started) / 1000).toFixed(1)} s from ${CLIENTS} clients; p50 ${q(0.5)} ms, p95 ${q(0.95)} ms, max ${q(1)} ms; statuses ${JSON.stringify(statuses)}; large sweep ${progress.done}/${progress.total} points meanwhile`);
+    console.log(
+      `load: ${latencies.length} requests in ${((Date.now() - started) / 1000).toFixed(1)} s from ${CLIENTS} clients; p50 ${q(0.5)} ms, p95 ${q(0.95)} ms, max ${q(1)} ms; statuses ${JSON.stringify(statuses)}; large sweep ${progress.done}/${progress.total} points meanwhile`,
+    );
     expect(errors).toEqual([]);
     // Only 200 (and a 400 for a sort column a model lacks would be a bug in this test): every request is served.
     expect(Object.keys(statuses)).toEqual(['200']);

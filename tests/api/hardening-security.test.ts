@@ -65,27 +65,62 @@ afterAll(async () => {
 
 describe('the expression sandbox', () => {
   it('refuses every escape route in derived columns, fixed-value expressions and fit expressions, with no side effect', async () => {
-    const created = await t.http.post('/api/sweeps').set(auth(researcher)).send(smallSweep({ name: 'sandbox fit source' }));
+    const created = await t.http
+      .post('/api/sweeps')
+      .set(auth(researcher))
+      .send(smallSweep({ name: 'sandbox fit source' }));
     expect(created.status).toBe(201);
     const sweepId = created.body.id as number;
     await waitForSweep(t, researcher, sweepId);
-    const count = () => (t.sqlite().prepare('SELECT (SELECT COUNT(*) FROM sweeps) + (SELECT COUNT(*) FROM fits) n').get() as { n: number }).n;
+    const count = () =>
+      (
+        t.sqlite().prepare('SELECT (SELECT COUNT(*) FROM sweeps) + (SELECT COUNT(*) FROM fits) n').get() as {
+          n: number;
+        }
+      ).n;
     const before = count();
     const accepted: string[] = [];
     for (const expr of ESCAPES) {
-      const derived = await t.http.post('/api/sweeps').set(auth(researcher)).send(smallSweep({ derived: [{ name: 'q', expr }] }));
-      if (derived.status !== 400 || !JSON.stringify(derived.body.details).includes('derived.0')) accepted.push(`derived ${expr} → ${derived.status} ${JSON.stringify(derived.body).slice(0, 160)}`);
-      const fixed = await t.http.post('/api/sweeps').set(auth(researcher)).send(smallSweep({ fixed: { ...smallSweep().fixed, Ti_eV: expr } }));
-      if (fixed.status !== 400 || !JSON.stringify(fixed.body.details).includes('Ti_eV')) accepted.push(`fixed ${expr} → ${fixed.status} ${JSON.stringify(fixed.body).slice(0, 160)}`);
-      const fit = await t.http.post('/api/fits').set(auth(researcher)).send({ source: { kind: 'sweep', id: sweepId }, model: 'expression', expr, params: { a: 1 }, y: 'vE_ms', x: ['Te_eV'] });
-      if (fit.status !== 400 || !JSON.stringify(fit.body).includes('expr')) accepted.push(`fit ${expr} → ${fit.status} ${JSON.stringify(fit.body).slice(0, 160)}`);
+      const derived = await t.http
+        .post('/api/sweeps')
+        .set(auth(researcher))
+        .send(smallSweep({ derived: [{ name: 'q', expr }] }));
+      if (derived.status !== 400 || !JSON.stringify(derived.body.details).includes('derived.0'))
+        accepted.push(`derived ${expr} → ${derived.status} ${JSON.stringify(derived.body).slice(0, 160)}`);
+      const fixed = await t.http
+        .post('/api/sweeps')
+        .set(auth(researcher))
+        .send(smallSweep({ fixed: { ...smallSweep().fixed, Ti_eV: expr } }));
+      if (fixed.status !== 400 || !JSON.stringify(fixed.body.details).includes('Ti_eV'))
+        accepted.push(`fixed ${expr} → ${fixed.status} ${JSON.stringify(fixed.body).slice(0, 160)}`);
+      const fit = await t.http
+        .post('/api/fits')
+        .set(auth(researcher))
+        .send({
+          source: { kind: 'sweep', id: sweepId },
+          model: 'expression',
+          expr,
+          params: { a: 1 },
+          y: 'vE_ms',
+          x: ['Te_eV'],
+        });
+      if (fit.status !== 400 || !JSON.stringify(fit.body).includes('expr'))
+        accepted.push(`fit ${expr} → ${fit.status} ${JSON.stringify(fit.body).slice(0, 160)}`);
       for (const r of [derived, fixed, fit]) expect(r.status, expr).toBeLessThan(500);
     }
     expect(accepted).toEqual([]);
     expect((globalThis as Record<string, unknown>)[CANARY]).toBeUndefined();
     expect(count()).toBe(before);
     // The sandbox is not simply refusing everything: the plain forms are accepted.
-    const ok = await t.http.post('/api/sweeps/preview').set(auth(researcher)).send(smallSweep({ derived: [{ name: 'q', expr: 'vE_ms / max(abs(vDi_ms), 1)' }], fixed: { ...smallSweep().fixed, Ti_eV: 'Te_eV / 2' } }));
+    const ok = await t.http
+      .post('/api/sweeps/preview')
+      .set(auth(researcher))
+      .send(
+        smallSweep({
+          derived: [{ name: 'q', expr: 'vE_ms / max(abs(vDi_ms), 1)' }],
+          fixed: { ...smallSweep().fixed, Ti_eV: 'Te_eV / 2' },
+        }),
+      );
     expect(ok.body.errors).toEqual([]);
   });
 });
@@ -118,7 +153,10 @@ describe('upload file names', () => {
     const target = `/tmp/driftgrid-pwned-${process.pid}.csv`;
     fs.rmSync(target, { force: true });
     const name = `../../../..${target}`;
-    const res = await t.http.post('/api/datasets').set(auth(researcher)).field('name', 'traversal check')
+    const res = await t.http
+      .post('/api/datasets')
+      .set(auth(researcher))
+      .field('name', 'traversal check')
       .attach('file', Buffer.from('r,phi\n0,1\n1,2\n'), name);
     expect(res.status).toBeLessThan(500);
     expect(fs.existsSync(target)).toBe(false);
@@ -140,7 +178,13 @@ describe('production start-up', () => {
     const dataDir = tempDataDir();
     dirs.push(dataDir);
     const port = await freePort();
-    const proc = spawnNode('api/dist/main.js', { NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(port), DATA_DIR: dataDir, ...env });
+    const proc = spawnNode('api/dist/main.js', {
+      NODE_ENV: 'production',
+      HOST: '127.0.0.1',
+      PORT: String(port),
+      DATA_DIR: dataDir,
+      ...env,
+    });
     procs.push(proc);
     const code = await proc.exited;
     expect(code, proc.output()).not.toBe(0);
@@ -159,7 +203,13 @@ describe('production start-up', () => {
   it('starts for a trial with ALLOW_INSECURE_DEMO=true', async () => {
     const dataDir = tempDataDir();
     dirs.push(dataDir);
-    const api = await startApiProcess({ NODE_ENV: 'production', DATA_DIR: dataDir, DEMO_SEED: 'true', DEMO_CONTENT: 'false', ALLOW_INSECURE_DEMO: 'true' });
+    const api = await startApiProcess({
+      NODE_ENV: 'production',
+      DATA_DIR: dataDir,
+      DEMO_SEED: 'true',
+      DEMO_CONTENT: 'false',
+      ALLOW_INSECURE_DEMO: 'true',
+    });
     procs.push(api.proc);
     expect((await fetch(`${api.baseUrl}/api/health`)).status).toBe(200);
     await api.proc.kill('SIGTERM');
@@ -181,19 +231,30 @@ describe('secrets stay out of logs and responses', () => {
     const dataDir = tempDataDir();
     dirs.push(dataDir);
     const jwtSecret = 'zq-distinctive-jwt-secret-7f3a91c2e6';
-    const api = await startApiProcess({ DATA_DIR: dataDir, LOG_LEVEL: 'debug', JWT_SECRET: jwtSecret, DEMO_CONTENT: 'false', PUBLIC_URL: 'http://driftgrid.test:9' });
+    const api = await startApiProcess({
+      DATA_DIR: dataDir,
+      LOG_LEVEL: 'debug',
+      JWT_SECRET: jwtSecret,
+      DEMO_CONTENT: 'false',
+      PUBLIC_URL: 'http://driftgrid.test:9',
+    });
     procs.push(api.proc);
     const bodies: string[] = [];
     const call = async (method: string, route: string, body?: unknown, token?: string) => {
       const r = await fetch(`${api.baseUrl}${route}`, {
-        method, headers: { ...(token ? { authorization: `Bearer ${token}` } : {}), ...(body ? { 'content-type': 'application/json' } : {}) },
+        method,
+        headers: {
+          ...(token ? { authorization: `Bearer ${token}` } : {}),
+          ...(body ? { 'content-type': 'application/json' } : {}),
+        },
         body: body ? JSON.stringify(body) : undefined,
       });
       const text = await r.text();
       bodies.push(`${method} ${route} ${r.status} ${JSON.stringify([...r.headers])} ${text}`);
       return { status: r.status, json: text && text.startsWith('{') ? JSON.parse(text) : null };
     };
-    const login = async (email: string, password: string) => (await call('POST', '/api/auth/login', { email, password })).json?.accessToken as string;
+    const login = async (email: string, password: string) =>
+      (await call('POST', '/api/auth/login', { email, password })).json?.accessToken as string;
     const admin = await login(DEMO.admin, 'driftgrid-demo');
     let researcherToken = await login(DEMO.researcher, 'driftgrid-demo');
     await call('POST', '/api/auth/login', { email: DEMO.researcher, password: 'zq-wrong-password-1234' });
@@ -207,38 +268,61 @@ describe('secrets stay out of logs and responses', () => {
     let resetToken = '';
     for (let i = 0; i < 100 && !resetToken; i++) {
       const list = await call('GET', '/api/admin/mailbox?pageSize=50', undefined, admin);
-      const hit = (list.json.items as { id: number; subject: string; to: string }[]).find((m) => m.to.includes(DEMO.researcher) && /reset/i.test(m.subject));
-      if (hit) resetToken = /reset-password\?token=([A-Za-z0-9_-]+)/.exec((await call('GET', `/api/admin/mailbox/${hit.id}`, undefined, admin)).json.text)?.[1] ?? '';
+      const hit = (list.json.items as { id: number; subject: string; to: string }[]).find(
+        (m) => m.to.includes(DEMO.researcher) && /reset/i.test(m.subject),
+      );
+      if (hit)
+        resetToken =
+          /reset-password\?token=([A-Za-z0-9_-]+)/.exec(
+            (await call('GET', `/api/admin/mailbox/${hit.id}`, undefined, admin)).json.text,
+          )?.[1] ?? '';
       else await new Promise((r) => setTimeout(r, 50));
     }
     expect(resetToken).not.toBe('');
     const newPassword = 'zq-reset-password-5d2b8e';
-    expect((await call('POST', '/api/auth/password-reset/confirm', { token: resetToken, password: newPassword })).status).toBe(200);
+    expect(
+      (await call('POST', '/api/auth/password-reset/confirm', { token: resetToken, password: newPassword })).status,
+    ).toBe(200);
     researcherToken = await login(DEMO.researcher, newPassword);
     const changed = 'zq-changed-password-a81c4f';
-    expect((await call('POST', '/api/auth/password', { current: newPassword, next: changed }, researcherToken)).status).toBe(200);
+    expect(
+      (await call('POST', '/api/auth/password', { current: newPassword, next: changed }, researcherToken)).status,
+    ).toBe(200);
     researcherToken = await login(DEMO.researcher, changed);
     await call('GET', '/api/admin/users', undefined, admin);
     await call('GET', '/api/admin/audit?pageSize=200', undefined, admin);
     await call('PATCH', '/api/admin/users/2', { name: 'Rosa R.' }, admin);
     // Error paths: a forged token, an expired-looking token, malformed JSON.
     await call('GET', '/api/auth/me', undefined, `${researcherToken}x`);
-    await fetch(`${api.baseUrl}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: `{"email":"${DEMO.admin}","password":"${changed}` });
+    await fetch(`${api.baseUrl}/api/auth/login`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json' },
+      body: `{"email":"${DEMO.admin}","password":"${changed}`,
+    });
     await api.proc.kill('SIGTERM');
 
     const logs = api.proc.output();
     expect(logs.length).toBeGreaterThan(0);
     const leaks: string[] = [];
-    const secrets: Record<string, string> = { jwtSecret, newPassword, changed, wrongPassword: 'zq-wrong-password-1234', resetToken };
+    const secrets: Record<string, string> = {
+      jwtSecret,
+      newPassword,
+      changed,
+      wrongPassword: 'zq-wrong-password-1234',
+      resetToken,
+    };
     for (const [name, s] of Object.entries(secrets)) {
       if (logs.includes(s)) leaks.push(`log holds ${name}`);
       bodies.forEach((b) => {
         // The reset token is legitimately in the mailed text the admin mailbox shows.
-        if (b.includes(s) && !(name === 'resetToken' && b.includes('/api/admin/mailbox/'))) leaks.push(`response holds ${name}: ${b.slice(0, 120)}`);
+        if (b.includes(s) && !(name === 'resetToken' && b.includes('/api/admin/mailbox/')))
+          leaks.push(`response holds ${name}: ${b.slice(0, 120)}`);
       });
     }
     if (logs.includes(tokenSecret)) leaks.push('log holds the API token secret');
-    bodies.filter((b) => !b.startsWith('POST /api/tokens 201')).forEach((b) => b.includes(tokenSecret) && leaks.push(`response holds the token secret: ${b.slice(0, 120)}`));
+    bodies
+      .filter((b) => !b.startsWith('POST /api/tokens 201'))
+      .forEach((b) => b.includes(tokenSecret) && leaks.push(`response holds the token secret: ${b.slice(0, 120)}`));
     if (/\$2[aby]\$\d\d\$/.test(logs)) leaks.push('log holds a bcrypt hash');
     bodies.forEach((b) => /\$2[aby]\$\d\d\$/.test(b) && leaks.push(`response holds a bcrypt hash: ${b.slice(0, 120)}`));
     // Bearer tokens of sessions do not belong in logs either.
@@ -246,4 +330,3 @@ describe('secrets stay out of logs and responses', () => {
     expect(leaks).toEqual([]);
   });
 });
-

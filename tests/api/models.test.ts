@@ -126,14 +126,18 @@ describe('models api', () => {
   });
 
   it('gives the same numbers for canonical numbers, other units and defaults', async () => {
-    const a = await t.http.post('/api/models/cross-field/evaluate').set(auth(token)).send({ inputs: { Te_eV: 10, B_T: 0.5, Ln_m: 0.02 } });
+    const a = await t.http
+      .post('/api/models/cross-field/evaluate')
+      .set(auth(token))
+      .send({ inputs: { Te_eV: 10, B_T: 0.5, Ln_m: 0.02 } });
     const b = await t.http
       .post('/api/models/cross-field/evaluate')
       .set(auth(token))
       .send({ inputs: { Te_eV: '0.01 keV', B_T: '5000 G', Ln_m: '20 mm', n_m3: '1e13 cm^-3' } });
     expect(a.status).toBe(200);
     expect(b.status).toBe(200);
-    for (const k of ['vDe_ms', 'vDi_ms', 'rho_i_m', 'lambdaD_m', 'beta']) expect(b.body.outputs[k] / a.body.outputs[k], k).toBeCloseTo(1, 12);
+    for (const k of ['vDe_ms', 'vDi_ms', 'rho_i_m', 'lambdaD_m', 'beta'])
+      expect(b.body.outputs[k] / a.body.outputs[k], k).toBeCloseTo(1, 12);
     // No inputs at all: every registry default (Te 10 eV, B 0.5 T, L_n 2 cm) — the same point.
     const d = await t.http.post('/api/models/cross-field/evaluate').set(auth(token)).send({});
     expect(d.status).toBe(200);
@@ -153,32 +157,50 @@ describe('models api', () => {
   });
 
   it('400 names the field and the allowed range', async () => {
-    const neg = await t.http.post('/api/models/cross-field/evaluate').set(auth(token)).send({ inputs: { Te_eV: -5 } });
+    const neg = await t.http
+      .post('/api/models/cross-field/evaluate')
+      .set(auth(token))
+      .send({ inputs: { Te_eV: -5 } });
     expect(neg.status).toBe(400);
     const d = neg.body.details.find((x: { path: string }) => x.path === 'inputs.Te_eV');
     expect(d.message).toContain('Te_eV');
     expect(d.message).toMatch(/> 0 and ≤ 1e6 eV/);
 
-    const dim = await t.http.post('/api/models/cross-field/evaluate').set(auth(token)).send({ inputs: { B_T: '3 cm' } });
+    const dim = await t.http
+      .post('/api/models/cross-field/evaluate')
+      .set(auth(token))
+      .send({ inputs: { B_T: '3 cm' } });
     expect(dim.status).toBe(400);
     expect(dim.body.details[0].path).toBe('inputs.B_T');
     expect(dim.body.details[0].message).toMatch(/\bT\b/);
 
-    const unknown = await t.http.post('/api/models/cross-field/evaluate').set(auth(token)).send({ inputs: { Tx: 1 } });
+    const unknown = await t.http
+      .post('/api/models/cross-field/evaluate')
+      .set(auth(token))
+      .send({ inputs: { Tx: 1 } });
     expect(unknown.status).toBe(400);
     expect(unknown.body.details[0].path).toBe('inputs.Tx');
     expect(unknown.body.details[0].message).toContain('Te_eV');
 
-    const whole = await t.http.post('/api/models/column-profile/evaluate').set(auth(token)).send({ inputs: { nr: 10.5 } });
+    const whole = await t.http
+      .post('/api/models/column-profile/evaluate')
+      .set(auth(token))
+      .send({ inputs: { nr: 10.5 } });
     expect(whole.status).toBe(400);
     expect(whole.body.details[0].path).toBe('inputs.nr');
     expect(whole.body.details[0].message).toMatch(/≥ 16 and ≤ 8192/);
 
-    const shape = await t.http.post('/api/models/cross-field/evaluate').set(auth(token)).send({ inputs: { Te_eV: [1] } });
+    const shape = await t.http
+      .post('/api/models/cross-field/evaluate')
+      .set(auth(token))
+      .send({ inputs: { Te_eV: [1] } });
     expect(shape.status).toBe(400);
     expect(shape.body.details[0].path).toBe('inputs.Te_eV');
 
-    const th = await t.http.post('/api/models/cross-field/evaluate').set(auth(token)).send({ inputs: {}, thresholds: { nope: 1 } });
+    const th = await t.http
+      .post('/api/models/cross-field/evaluate')
+      .set(auth(token))
+      .send({ inputs: {}, thresholds: { nope: 1 } });
     expect(th.status).toBe(400);
     expect(th.body.details[0].path).toBe('thresholds.nope');
   });
@@ -191,7 +213,8 @@ describe('models api', () => {
     expect(res.status).toBe(200);
     const p = res.body.profile;
     expect(p.r_m).toHaveLength(128);
-    for (const k of ['n_m3', 'p_Pa', 'vDe_ms', 'vDi_ms', 'vE_ms', 'jTheta_Am2', 'B_T']) expect(p[k], k).toHaveLength(128);
+    for (const k of ['n_m3', 'p_Pa', 'vDe_ms', 'vDi_ms', 'vE_ms', 'jTheta_Am2', 'B_T'])
+      expect(p[k], k).toHaveLength(128);
     expect(p.r_m[0]).toBe(0);
     // r_max = 3a (registry default rmax_over_a = 3).
     expect(p.r_m[127]).toBeCloseTo(0.12, 12);

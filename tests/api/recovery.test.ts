@@ -13,7 +13,13 @@ afterAll(async () => {
   for (const d of dirs) fs.rmSync(d, { recursive: true, force: true });
 });
 
-async function poll(baseUrl: string, token: string, id: number, until: (s: { status: string; progress: { done: number } }) => boolean, ms: number) {
+async function poll(
+  baseUrl: string,
+  token: string,
+  id: number,
+  until: (s: { status: string; progress: { done: number } }) => boolean,
+  ms: number,
+) {
   const deadline = Date.now() + ms;
   for (;;) {
     const r = await apiJson(baseUrl, token, 'GET', `/api/sweeps/${id}`);
@@ -32,10 +38,13 @@ describe('recovery after kill -9 of the api (embedded queue)', () => {
     const first = await startApiProcess(env);
     procs.push(first.proc);
     const token = await apiLogin(first.baseUrl, 'researcher@example.com');
-    const def = smallSweep({ name: 'recovery scan', axes: [
-      { param: 'Te_eV', kind: 'log', min: 1, max: 1000, count: 200 },
-      { param: 'B_T', kind: 'linear', min: 0.1, max: 5, count: 1000 },
-    ] });
+    const def = smallSweep({
+      name: 'recovery scan',
+      axes: [
+        { param: 'Te_eV', kind: 'log', min: 1, max: 1000, count: 200 },
+        { param: 'B_T', kind: 'linear', min: 0.1, max: 5, count: 1000 },
+      ],
+    });
     const created = await apiJson(first.baseUrl, token, 'POST', '/api/sweeps', def);
     expect(created.status).toBe(201);
     const id = created.body.id as number;
@@ -59,10 +68,14 @@ describe('recovery after kill -9 of the api (embedded queue)', () => {
 
     const db = new Database(path.join(dataDir, 'driftgrid.db'), { readonly: true });
     const base = id * 2 ** 32;
-    const stats = db.prepare('SELECT COUNT(*) n, MIN(id) - ? lo, MAX(id) - ? hi FROM results WHERE id BETWEEN ? AND ?').get(base, base, base, base + 2 ** 32 - 1) as { n: number; lo: number; hi: number };
+    const stats = db
+      .prepare('SELECT COUNT(*) n, MIN(id) - ? lo, MAX(id) - ? hi FROM results WHERE id BETWEEN ? AND ?')
+      .get(base, base, base, base + 2 ** 32 - 1) as { n: number; lo: number; hi: number };
     // Rowids are unique, so count = points with min 0 and max points-1 means every idx is present once.
     expect(stats).toEqual({ n: points, lo: 0, hi: points - 1 });
-    const chunks = db.prepare("SELECT COUNT(*) n FROM sweep_chunks WHERE sweep_id = ? AND state != 'done'").get(id) as { n: number };
+    const chunks = db.prepare("SELECT COUNT(*) n FROM sweep_chunks WHERE sweep_id = ? AND state != 'done'").get(id) as {
+      n: number;
+    };
     expect(chunks.n).toBe(0);
     db.close();
   });

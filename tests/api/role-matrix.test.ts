@@ -88,8 +88,9 @@ function toOpenApiPath(p: string): string {
 }
 
 function routerRoutes(app: Express): string[] {
-  const router = (app as unknown as { router?: { stack: unknown[] }; _router?: { stack: unknown[] } }).router
-    ?? (app as unknown as { _router: { stack: unknown[] } })._router;
+  const router =
+    (app as unknown as { router?: { stack: unknown[] }; _router?: { stack: unknown[] } }).router ??
+    (app as unknown as { _router: { stack: unknown[] } })._router;
   const out: string[] = [];
   for (const layer of router.stack as { route?: { path: string | string[]; methods: Record<string, boolean> } }[]) {
     if (!layer.route) continue;
@@ -119,11 +120,18 @@ beforeAll(async () => {
   const doc = await t.http.get('/api/docs/openapi.json');
   expect(doc.status).toBe(200);
   const fromDoc = Object.entries(doc.body.paths as Record<string, Record<string, unknown>>).flatMap(([p, ops]) =>
-    Object.keys(ops).filter((m) => (METHODS as readonly string[]).includes(m)).map((m) => `${m.toUpperCase()} ${p}`),
+    Object.keys(ops)
+      .filter((m) => (METHODS as readonly string[]).includes(m))
+      .map((m) => `${m.toUpperCase()} ${p}`),
   );
-  const fromRouter = routerRoutes(t.app.getHttpAdapter().getInstance() as Express).filter((r) => !r.split(' ')[1]!.startsWith(DOCS_PREFIX));
+  const fromRouter = routerRoutes(t.app.getHttpAdapter().getInstance() as Express).filter(
+    (r) => !r.split(' ')[1]!.startsWith(DOCS_PREFIX),
+  );
   served = [...new Set([...fromDoc, ...fromRouter])].sort();
-  const created = await t.http.post('/api/tokens').set('authorization', `Bearer ${tokens.researcher}`).send({ name: 'matrix read', scope: 'read' });
+  const created = await t.http
+    .post('/api/tokens')
+    .set('authorization', `Bearer ${tokens.researcher}`)
+    .send({ name: 'matrix read', scope: 'read' });
   expect(created.status).toBe(201);
   readToken = created.body.token;
 });
@@ -140,12 +148,17 @@ function call(route: string, bearer?: string) {
 
 describe('role matrix', () => {
   it('finds the routes it checks (router and OpenAPI agree on a known core)', () => {
-    expect(served).toEqual(expect.arrayContaining(['POST /api/auth/login', 'GET /api/auth/me', 'GET /api/admin/users', 'POST /api/tokens']));
+    expect(served).toEqual(
+      expect.arrayContaining(['POST /api/auth/login', 'GET /api/auth/me', 'GET /api/admin/users', 'POST /api/tokens']),
+    );
   });
 
   it('has an entry for every served route', () => {
     const missing = served.filter((r) => !(r in ROLE_MATRIX));
-    expect(missing, `routes without a ROLE_MATRIX entry in tests/api/role-matrix.test.ts: ${missing.join(', ')}`).toEqual([]);
+    expect(
+      missing,
+      `routes without a ROLE_MATRIX entry in tests/api/role-matrix.test.ts: ${missing.join(', ')}`,
+    ).toEqual([]);
   });
 
   it('answers anonymous callers 401 on every non-public route', async () => {
@@ -154,7 +167,8 @@ describe('role matrix', () => {
       const who = ROLE_MATRIX[route];
       if (!who) continue;
       const res = await call(route);
-      if (who === 'public' ? [401, 403].includes(res.status) : res.status !== 401) wrong.push(`${route} → ${res.status}`);
+      if (who === 'public' ? [401, 403].includes(res.status) : res.status !== 401)
+        wrong.push(`${route} → ${res.status}`);
     }
     expect(wrong).toEqual([]);
   });
@@ -167,7 +181,8 @@ describe('role matrix', () => {
       for (const role of ALL) {
         const res = await call(route, tokens[role]);
         const allowed = who === 'public' || who.includes(role);
-        if (allowed ? [401, 403].includes(res.status) : res.status !== 403) wrong.push(`${role} ${route} → ${res.status} ${res.body?.message ?? ''}`);
+        if (allowed ? [401, 403].includes(res.status) : res.status !== 403)
+          wrong.push(`${role} ${route} → ${res.status} ${res.body?.message ?? ''}`);
       }
     }
     expect(wrong).toEqual([]);
@@ -177,7 +192,14 @@ describe('role matrix', () => {
     const wrong: string[] = [];
     for (const route of served) {
       const who = ROLE_MATRIX[route];
-      if (!who || who === 'public' || !who.includes('researcher') || route.startsWith('GET ') || READ_SCOPE_OK.has(route)) continue;
+      if (
+        !who ||
+        who === 'public' ||
+        !who.includes('researcher') ||
+        route.startsWith('GET ') ||
+        READ_SCOPE_OK.has(route)
+      )
+        continue;
       const res = await call(route, readToken);
       if (res.status !== 403) wrong.push(`${route} → ${res.status}`);
     }

@@ -29,9 +29,17 @@ describe('sweep preview', () => {
   });
 
   it('reports every definition error with its path', async () => {
-    const res = await t.http.post('/api/sweeps/preview').set(auth(researcher)).send(smallSweep({
-      axes: [{ param: 'Te_eV', kind: 'log', min: -1, max: 100, count: 7 }, { param: 'nonsense', kind: 'linear', min: 0, max: 1, count: 2 }],
-    }));
+    const res = await t.http
+      .post('/api/sweeps/preview')
+      .set(auth(researcher))
+      .send(
+        smallSweep({
+          axes: [
+            { param: 'Te_eV', kind: 'log', min: -1, max: 100, count: 7 },
+            { param: 'nonsense', kind: 'linear', min: 0, max: 1, count: 2 },
+          ],
+        }),
+      );
     expect(res.status).toBe(200);
     expect(res.body.ok).toBe(false);
     const paths = res.body.errors.map((e: { path: string }) => e.path);
@@ -58,19 +66,27 @@ describe('sweep life cycle', () => {
     expect(done.provenance.modelVersion).toBeTruthy();
     expect(done.owner.email).toBe(DEMO.researcher);
     // Exactly one stored row per point, indices 0..34 with no gaps.
-    const rows = t.sqlite().prepare('SELECT id - ? * 4294967296 AS idx FROM results WHERE id BETWEEN ? AND ? ORDER BY id')
+    const rows = t
+      .sqlite()
+      .prepare('SELECT id - ? * 4294967296 AS idx FROM results WHERE id BETWEEN ? AND ? ORDER BY id')
       .all(done.id, done.id * 2 ** 32, (done.id + 1) * 2 ** 32 - 1) as { idx: number }[];
     expect(rows.map((r) => r.idx)).toEqual(Array.from({ length: 35 }, (_, i) => i));
   });
 
   it('rejects a bad definition with 400 naming the field', async () => {
-    const res = await t.http.post('/api/sweeps').set(auth(researcher)).send(smallSweep({ model: 'no-such-model' }));
+    const res = await t.http
+      .post('/api/sweeps')
+      .set(auth(researcher))
+      .send(smallSweep({ model: 'no-such-model' }));
     expect(res.status).toBe(400);
     expect(res.body.details.map((d: { path: string }) => d.path)).toContain('model');
   });
 
   it('hides a private sweep from other users with 404 and lets admins see it', async () => {
-    const res = await t.http.post('/api/sweeps').set(auth(researcher)).send(smallSweep({ name: 'private one' }));
+    const res = await t.http
+      .post('/api/sweeps')
+      .set(auth(researcher))
+      .send(smallSweep({ name: 'private one' }));
     const id = res.body.id;
     await waitForSweep(t, researcher, id);
     expect((await t.http.get(`/api/sweeps/${id}`).set(auth(reviewer))).status).toBe(404);
@@ -79,7 +95,13 @@ describe('sweep life cycle', () => {
   });
 
   it('cancels a queued sweep and refuses to cancel it twice', async () => {
-    const big = smallSweep({ name: 'to cancel', axes: [{ param: 'Te_eV', kind: 'log', min: 1, max: 100, count: 400 }, { param: 'B_T', kind: 'linear', min: 0.05, max: 0.5, count: 500 }] });
+    const big = smallSweep({
+      name: 'to cancel',
+      axes: [
+        { param: 'Te_eV', kind: 'log', min: 1, max: 100, count: 400 },
+        { param: 'B_T', kind: 'linear', min: 0.05, max: 0.5, count: 500 },
+      ],
+    });
     // Paused, the queue hands out no chunks, so the sweep is certainly still queued when cancelled.
     await t.http.post('/api/admin/queue/pause').set(auth(admin));
     const res = await t.http.post('/api/sweeps').set(auth(researcher)).send(big);

@@ -42,10 +42,14 @@ export async function main(): Promise<number> {
   };
   process.once('SIGINT', onSignal);
   process.once('SIGTERM', onSignal);
-  console.log(`Driftgrid bench (${cfg.quick ? 'quick' : 'full'}) — node ${process.version}, ${os.cpus().length} × ${os.cpus()[0]?.model ?? 'cpu'}`);
+  console.log(
+    `Driftgrid bench (${cfg.quick ? 'quick' : 'full'}) — node ${process.version}, ${os.cpus().length} × ${os.cpus()[0]?.model ?? 'cpu'}`,
+  );
   const loadStart = os.loadavg();
   if (loadStart[0]! > os.cpus().length * 0.5) {
-    report.note(`load average ${loadStart.map((l) => l.toFixed(1)).join(' / ')} at start on ${os.cpus().length} cores: other work is running, figures will read low`);
+    report.note(
+      `load average ${loadStart.map((l) => l.toFixed(1)).join(' / ')} at start on ${os.cpus().length} cores: other work is running, figures will read low`,
+    );
   }
   let failure: unknown;
   try {
@@ -72,19 +76,33 @@ export async function main(): Promise<number> {
   }
   const seconds = (Date.now() - started) / 1000;
   const loadEnd = os.loadavg();
-  report.note(`load average (1/5/15 min) at start ${loadStart.map((l) => l.toFixed(1)).join(' / ')}, at end ${loadEnd.map((l) => l.toFixed(1)).join(' / ')}`);
+  report.note(
+    `load average (1/5/15 min) at start ${loadStart.map((l) => l.toFixed(1)).join(' / ')}, at end ${loadEnd.map((l) => l.toFixed(1)).join(' / ')}`,
+  );
   printTable(report);
   console.log(`\nbench ${cfg.quick ? 'quick' : 'full'} run: ${seconds.toFixed(1)} s`);
   fs.mkdirSync(path.dirname(RESULTS), { recursive: true });
   const out = {
-    at: new Date().toISOString(), mode: cfg.quick ? 'quick' : 'full', seconds, node: process.version,
-    cpus: os.cpus().length, cpuModel: os.cpus()[0]?.model, loadStart, loadEnd, config: cfg, failure: failure ? String(failure instanceof Error ? failure.message : failure) : null,
-    rows: report.rows, notes: report.notes, details: report.details,
+    at: new Date().toISOString(),
+    mode: cfg.quick ? 'quick' : 'full',
+    seconds,
+    node: process.version,
+    cpus: os.cpus().length,
+    cpuModel: os.cpus()[0]?.model,
+    loadStart,
+    loadEnd,
+    config: cfg,
+    failure: failure ? String(failure instanceof Error ? failure.message : failure) : null,
+    rows: report.rows,
+    notes: report.notes,
+    details: report.details,
   };
   fs.writeFileSync(RESULTS, `${JSON.stringify(out, null, 2)}\n`);
   console.log(`results written to ${path.relative(process.cwd(), RESULTS) || RESULTS}`);
   if (failure) {
-    console.error(`\nBENCH FAILED (harness error, figures above are partial):\n${failure instanceof Error ? failure.stack ?? failure.message : String(failure)}`);
+    console.error(
+      `\nBENCH FAILED (harness error, figures above are partial):\n${failure instanceof Error ? (failure.stack ?? failure.message) : String(failure)}`,
+    );
     return 1;
   }
   return 0;

@@ -33,10 +33,14 @@ describe.runIf(run)('archive journey: owner archives on the sweep page, reviewer
 
   beforeAll(async () => {
     server = await startServer();
-    if (!fs.existsSync(path.join(server.config.uiDist, 'index.html'))) throw new Error('ui is not built: run npm run build -w ui first');
+    if (!fs.existsSync(path.join(server.config.uiDist, 'index.html')))
+      throw new Error('ui is not built: run npm run build -w ui first');
     browser = await launchBrowser();
     ownerToken = await server.login(DEMO.researcher);
-    const created = await server.http.post('/api/sweeps').set('authorization', `Bearer ${ownerToken}`).send(smallSweep({ name: 'Argon column journey to the archive' }));
+    const created = await server.http
+      .post('/api/sweeps')
+      .set('authorization', `Bearer ${ownerToken}`)
+      .send(smallSweep({ name: 'Argon column journey to the archive' }));
     expect(created.status).toBe(201);
     sweepId = created.body.id;
     expect((await waitForSweep(server, ownerToken, sweepId, 120_000)).status).toBe('completed');
@@ -67,7 +71,10 @@ describe.runIf(run)('archive journey: owner archives on the sweep page, reviewer
     expect(shownToOwner).toMatch(SHA256_HEX);
     // Archived: the archive button is gone and the status says so.
     expect(await page.getByTestId('archive-open').count()).toBe(0);
-    await page.getByTestId('sweep-status').filter({ hasText: /archived/i }).waitFor({ timeout: WAIT });
+    await page
+      .getByTestId('sweep-status')
+      .filter({ hasText: /archived/i })
+      .waitFor({ timeout: WAIT });
 
     // The api agrees with the page.
     const api = await server.http.get(`/api/sweeps/${sweepId}`).set('authorization', `Bearer ${ownerToken}`);
@@ -89,7 +96,10 @@ describe.runIf(run)('archive journey: owner archives on the sweep page, reviewer
     await listed.waitFor({ timeout: WAIT });
     expect((await listed.textContent())?.trim()).toBe(shownToOwner);
 
-    const [download] = await Promise.all([page.waitForEvent('download', { timeout: WAIT }), row.getByTestId('download-archive').click()]);
+    const [download] = await Promise.all([
+      page.waitForEvent('download', { timeout: WAIT }),
+      row.getByTestId('download-archive').click(),
+    ]);
     expect(download.suggestedFilename()).toMatch(/\.zip$/);
     const file = await download.path();
     const bytes = fs.readFileSync(file!);

@@ -28,10 +28,14 @@ describe.runIf(run)('archived sweeps on the Downloads page', () => {
 
   beforeAll(async () => {
     server = await startServer();
-    if (!fs.existsSync(path.join(server.config.uiDist, 'index.html'))) throw new Error('ui is not built: run npm run build first');
+    if (!fs.existsSync(path.join(server.config.uiDist, 'index.html')))
+      throw new Error('ui is not built: run npm run build first');
     browser = await launchBrowser();
     const token = await server.login(DEMO.researcher);
-    const created = await server.http.post('/api/sweeps').set('authorization', `Bearer ${token}`).send(smallSweep({ name: 'Argon column archive for review' }));
+    const created = await server.http
+      .post('/api/sweeps')
+      .set('authorization', `Bearer ${token}`)
+      .send(smallSweep({ name: 'Argon column archive for review' }));
     sweepId = created.body.id;
     expect((await waitForSweep(server, token, sweepId)).status).toBe('completed');
     const archived = await server.http.post(`/api/sweeps/${sweepId}/archive`).set('authorization', `Bearer ${token}`);

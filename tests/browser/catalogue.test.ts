@@ -21,7 +21,8 @@ describe.runIf(run)('catalogue, sweep page and plots', () => {
 
   beforeAll(async () => {
     server = await startServer();
-    if (!fs.existsSync(path.join(server.config.uiDist, 'index.html'))) throw new Error('ui is not built: run npm run build first');
+    if (!fs.existsSync(path.join(server.config.uiDist, 'index.html')))
+      throw new Error('ui is not built: run npm run build first');
     const token = await server.login(DEMO.researcher);
     const submit = async (body: Record<string, unknown>) => {
       const res = await server.http.post('/api/sweeps').set('authorization', `Bearer ${token}`).send(smallSweep(body));
@@ -74,8 +75,15 @@ describe.runIf(run)('catalogue, sweep page and plots', () => {
 
     await page.getByRole('tab', { name: 'Results' }).click();
     await page.getByTestId('results-total').filter({ hasText: '35 rows' }).waitFor({ timeout: 15000 });
-    const sorted = page.waitForResponse((r) => r.url().includes(`/api/sweeps/${argonId}/results`) && r.url().includes('sort=vDi_ms') && r.status() === 200);
-    await page.getByRole('columnheader', { name: /^vDi_ms/ }).getByText(/^vDi_ms/).first().click();
+    const sorted = page.waitForResponse(
+      (r) =>
+        r.url().includes(`/api/sweeps/${argonId}/results`) && r.url().includes('sort=vDi_ms') && r.status() === 200,
+    );
+    await page
+      .getByRole('columnheader', { name: /^vDi_ms/ })
+      .getByText(/^vDi_ms/)
+      .first()
+      .click();
     const body = (await (await sorted).json()) as { rows: { vDi_ms: number }[] };
     const values = body.rows.map((r) => r.vDi_ms);
     expect(values.length).toBeGreaterThan(1);

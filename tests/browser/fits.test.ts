@@ -41,7 +41,10 @@ async function signIn(page: Page, baseUrl: string) {
 async function pick(page: Page, label: string | RegExp, name: string) {
   const scope = page.getByTestId('fit-builder');
   await scope.getByLabel(label).first().click();
-  await page.getByRole('option', { name: new RegExp(`^${name}\\b`) }).first().click();
+  await page
+    .getByRole('option', { name: new RegExp(`^${name}\\b`) })
+    .first()
+    .click();
 }
 
 describe.runIf(run)('fits through the ui', () => {
@@ -52,15 +55,25 @@ describe.runIf(run)('fits through the ui', () => {
 
   beforeAll(async () => {
     server = await startServer();
-    if (!fs.existsSync(path.join(server.config.uiDist, 'index.html'))) throw new Error('ui is not built: run npm run build first');
+    if (!fs.existsSync(path.join(server.config.uiDist, 'index.html')))
+      throw new Error('ui is not built: run npm run build first');
     const token = await server.login(DEMO.researcher);
     // L_n = 20 cm so that a good share of the Te × B grid keeps ρ_i/L_n < 0.1 (valid points).
-    const res = await server.http.post('/api/sweeps').set('authorization', `Bearer ${token}`)
-      .send(smallSweep({ name: 'Argon column scan for a fit', fixed: { n_m3: 1e18, mu: 40, Z: 1, Er_Vm: 0, gamma_i: 1, gamma_e: 1, Ti_eV: 'Te_eV', Ln_m: 0.2 } }));
+    const res = await server.http
+      .post('/api/sweeps')
+      .set('authorization', `Bearer ${token}`)
+      .send(
+        smallSweep({
+          name: 'Argon column scan for a fit',
+          fixed: { n_m3: 1e18, mu: 40, Z: 1, Er_Vm: 0, gamma_i: 1, gamma_e: 1, Ti_eV: 'Te_eV', Ln_m: 0.2 },
+        }),
+      );
     expect(res.status).toBe(201);
     sweepId = res.body.id;
     expect((await waitForSweep(server, token, sweepId)).status).toBe('completed');
-    const valid = await server.http.get(`/api/sweeps/${sweepId}/results`).query({ filter: JSON.stringify({ valid: { eq: true } }), pageSize: 1 })
+    const valid = await server.http
+      .get(`/api/sweeps/${sweepId}/results`)
+      .query({ filter: JSON.stringify({ valid: { eq: true } }), pageSize: 1 })
       .set('authorization', `Bearer ${token}`);
     validPoints = valid.body.total;
     expect(validPoints).toBeGreaterThan(5);
@@ -121,8 +134,11 @@ describe.runIf(run)('fits through the ui', () => {
       lines.push(`${phi},${(1 + (0.4 / 1.4) * (phi / 5)) ** (1 / 0.4)}`);
     }
     const token = await server.login(DEMO.researcher);
-    const up = await server.http.post('/api/datasets').set('authorization', `Bearer ${token}`)
-      .field('name', 'Probe scan, argon column').field('units', JSON.stringify({ phi_V: 'V' }))
+    const up = await server.http
+      .post('/api/datasets')
+      .set('authorization', `Bearer ${token}`)
+      .field('name', 'Probe scan, argon column')
+      .field('units', JSON.stringify({ phi_V: 'V' }))
       .attach('file', Buffer.from(lines.join('\n') + '\n'), 'probe.csv');
     expect(up.status).toBe(201);
 
@@ -170,7 +186,12 @@ describe.runIf(run)('fits through the ui', () => {
     await page.goto(`${server.baseUrl}/fits`);
     const saved = page.getByTestId('saved-fits');
     await expect.poll(() => saved.textContent(), { timeout: 15000 }).toContain('Argon column scan for a fit');
-    expect(await saved.getByRole('link', { name: /Sweep \d+ · Argon column scan for a fit/ }).first().getAttribute('href')).toBe(`/sweeps/${sweepId}`);
+    expect(
+      await saved
+        .getByRole('link', { name: /Sweep \d+ · Argon column scan for a fit/ })
+        .first()
+        .getAttribute('href'),
+    ).toBe(`/sweeps/${sweepId}`);
     await page.close();
   });
 });

@@ -36,7 +36,10 @@ async function signIn(page: Page, baseUrl: string) {
 /** Opens a Mantine select of the fit form by its label and picks the option whose text starts with `name`. */
 async function pick(page: Page, label: string | RegExp, name: string) {
   await page.getByTestId('fit-builder').getByLabel(label).first().click();
-  await page.getByRole('option', { name: new RegExp(`^${name}\\b`) }).first().click();
+  await page
+    .getByRole('option', { name: new RegExp(`^${name}\\b`) })
+    .first()
+    .click();
 }
 
 async function param(page: Page, name: string) {
@@ -55,7 +58,8 @@ describe.runIf(run)('probe-fit journey through the ui (SPEC §13.3)', () => {
 
   beforeAll(async () => {
     server = await startServer();
-    if (!fs.existsSync(path.join(server.config.uiDist, 'index.html'))) throw new Error('ui is not built: run npm run build first');
+    if (!fs.existsSync(path.join(server.config.uiDist, 'index.html')))
+      throw new Error('ui is not built: run npm run build first');
     browser = await launchBrowser();
   }, 120_000);
   afterAll(async () => {
@@ -72,11 +76,14 @@ describe.runIf(run)('probe-fit journey through the ui (SPEC §13.3)', () => {
     await page.waitForURL(/\/datasets$/, { timeout: WAIT });
     await page.getByTestId('dataset-upload-open').first().click();
     await page.getByTestId('dataset-dropzone').waitFor({ timeout: WAIT });
-    await page.getByTestId('dataset-dropzone').locator('input[type="file"]').setInputFiles({
-      name: 'argon-probe-scan.csv',
-      mimeType: 'text/csv',
-      buffer: Buffer.from(probeScanCsv()),
-    });
+    await page
+      .getByTestId('dataset-dropzone')
+      .locator('input[type="file"]')
+      .setInputFiles({
+        name: 'argon-probe-scan.csv',
+        mimeType: 'text/csv',
+        buffer: Buffer.from(probeScanCsv()),
+      });
 
     // The browser preview shows the columns; map the units as measured.
     await page.getByTestId('dataset-preview').waitFor({ timeout: WAIT });
@@ -89,11 +96,16 @@ describe.runIf(run)('probe-fit journey through the ui (SPEC §13.3)', () => {
     await page.waitForURL(/\/datasets\/\d+$/, { timeout: WAIT });
     const datasetId = Number(new URL(page.url()).pathname.split('/').pop());
     await page.getByTestId('dataset-rows').waitFor({ timeout: WAIT });
-    expect(await page.getByTestId('dataset-rows').locator('th').filter({ hasText: /^n/ }).first().textContent()).toMatch(/m/);
+    expect(
+      await page.getByTestId('dataset-rows').locator('th').filter({ hasText: /^n/ }).first().textContent(),
+    ).toMatch(/m/);
     const token = await server.login('researcher@example.com');
     const stored = await server.http.get(`/api/datasets/${datasetId}`).set('authorization', `Bearer ${token}`);
     expect(stored.body.rows).toBe(SCAN.points);
-    expect(stored.body.columns.find((c: { name: string }) => c.name === 'n')).toMatchObject({ unit: 'cm^-3', canonicalUnit: 'm^-3' });
+    expect(stored.body.columns.find((c: { name: string }) => c.name === 'n')).toMatchObject({
+      unit: 'cm^-3',
+      canonicalUnit: 'm^-3',
+    });
 
     // Fit n against φ with the polytropic model, from the dataset page's Fits tab.
     await page.getByRole('tab', { name: 'Fits' }).click();

@@ -11,7 +11,8 @@ describe.runIf(run)('sign-in through the form', () => {
     const page = await suite.browser().newPage();
     const external: string[] = [];
     page.on('request', (r) => {
-      if (!r.url().startsWith(server.baseUrl) && !r.url().startsWith('data:') && !r.url().startsWith('blob:')) external.push(r.url());
+      if (!r.url().startsWith(server.baseUrl) && !r.url().startsWith('data:') && !r.url().startsWith('blob:'))
+        external.push(r.url());
     });
     await page.goto(server.baseUrl + '/');
     await page.getByLabel('Email').fill('researcher@example.com');

@@ -41,8 +41,23 @@ function hand(Te: number, Ti: number, B: number, n: number, Ln: number, mu: numb
 
 /** The number shown on screen (4 significant figures, typographic minus, × 10ⁿ notation). */
 function shown(text: string): number {
-  const sup: Record<string, string> = { '⁰': '0', '¹': '1', '²': '2', '³': '3', '⁴': '4', '⁵': '5', '⁶': '6', '⁷': '7', '⁸': '8', '⁹': '9', '⁻': '-' };
-  const t = text.replace(/\u2212/g, '-').replace(/\u00a0/g, ' ').trim();
+  const sup: Record<string, string> = {
+    '⁰': '0',
+    '¹': '1',
+    '²': '2',
+    '³': '3',
+    '⁴': '4',
+    '⁵': '5',
+    '⁶': '6',
+    '⁷': '7',
+    '⁸': '8',
+    '⁹': '9',
+    '⁻': '-',
+  };
+  const t = text
+    .replace(/\u2212/g, '-')
+    .replace(/\u00a0/g, ' ')
+    .trim();
   const m = /^(-?[\d.]+)(?: × 10([⁰¹²³⁴⁵⁶⁷⁸⁹⁻]+))?/.exec(t);
   if (!m) throw new Error(`not a number on screen: "${text}"`);
   const exp = m[2] ? Number([...m[2]].map((c) => sup[c]).join('')) : 0;
@@ -76,7 +91,9 @@ describe.runIf(run)('single-point page', () => {
     const want = hand(10, 10, 0.5, 1e19, 0.02, 2, -500);
     // Outputs follow the typing after a short debounce: wait for the last field typed (E_r).
     const cell = page.getByTestId('output-vE_ms');
-    await expect.poll(async () => Number(await cell.getAttribute('data-value')), { timeout: 10000 }).toBeCloseTo(want.vE_ms, 9);
+    await expect
+      .poll(async () => Number(await cell.getAttribute('data-value')), { timeout: 10000 })
+      .toBeCloseTo(want.vE_ms, 9);
 
     for (const key of ['vE_ms', 'vDe_ms', 'vDi_ms', 'rho_i_m', 'rho_i_over_Ln', 'lambdaD_over_Ln'] as const) {
       const c = page.getByTestId(`output-${key}`);
@@ -112,7 +129,9 @@ describe.runIf(run)('single-point page', () => {
     await page.getByTestId('input-B_T').fill('3 cm');
     await page.getByTestId('inputs-invalid').waitFor({ timeout: 10000 });
     const describedBy = await page.getByTestId('input-B_T').getAttribute('aria-describedby');
-    const errorText = await page.locator(`[id="${describedBy!.split(' ').find((id) => id.includes('error'))}"]`).textContent();
+    const errorText = await page
+      .locator(`[id="${describedBy!.split(' ').find((id) => id.includes('error'))}"]`)
+      .textContent();
     expect(errorText).toMatch(/quantity in T/);
     await page.close();
   });

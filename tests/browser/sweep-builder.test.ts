@@ -71,7 +71,9 @@ describe.runIf(run)('sweep builder', () => {
 
     // An error appears beside its field as you type (axes.1.max → the B "To" field) and goes away.
     await page.getByTestId('axis-max-B_T').fill('500');
-    await expect.poll(async () => (await page.getByTestId('input-row-B_T').textContent()) ?? '', { timeout: 10000 }).toMatch(/≤ 100 T/);
+    await expect
+      .poll(async () => (await page.getByTestId('input-row-B_T').textContent()) ?? '', { timeout: 10000 })
+      .toMatch(/≤ 100 T/);
     await page.getByTestId('axis-max-B_T').fill('5');
 
     const points = page.getByTestId('preview-points');
@@ -105,7 +107,9 @@ describe.runIf(run)('sweep builder', () => {
     // The sweep page follows the run live until it reads Completed.
     const status = page.getByTestId('sweep-status');
     await status.waitFor({ timeout: 15000 });
-    await expect.poll(async () => status.getAttribute('data-status'), { timeout: 60000, interval: 250 }).toBe('completed');
+    await expect
+      .poll(async () => status.getAttribute('data-status'), { timeout: 60000, interval: 250 })
+      .toBe('completed');
 
     const token = await server.login(DEMO.researcher);
     const done = await waitForSweep(server, token, id, 60_000);
@@ -132,7 +136,9 @@ describe.runIf(run)('sweep builder', () => {
     expect(await page.getByTestId('derived-expr-0').inputValue()).toBe('vE_ms / vDi_ms');
     // An unknown symbol in a derived column is reported beside that field.
     await page.getByTestId('derived-expr-0').fill('vE_ms / nonsense');
-    await expect.poll(async () => (await page.getByTestId('preview-errors').textContent()) ?? '', { timeout: 10000 }).toMatch(/derived\.0\.expr/);
+    await expect
+      .poll(async () => (await page.getByTestId('preview-errors').textContent()) ?? '', { timeout: 10000 })
+      .toMatch(/derived\.0\.expr/);
     await page.close();
   });
 });

@@ -17,7 +17,10 @@ describe('online backup and restore', () => {
     const live = await startTestApp();
     apps.push(live);
     const token = await live.login(DEMO.researcher);
-    const created = await live.http.post('/api/sweeps').set('authorization', `Bearer ${token}`).send(smallSweep({ name: 'backed up scan' }));
+    const created = await live.http
+      .post('/api/sweeps')
+      .set('authorization', `Bearer ${token}`)
+      .send(smallSweep({ name: 'backed up scan' }));
     const before = await waitForSweep(live, token, created.body.id);
     fs.mkdirSync(path.join(live.dataDir, 'archives'), { recursive: true });
     fs.writeFileSync(path.join(live.dataDir, 'archives', 'sweep-test.zip'), 'not really a zip, but immutable bytes');

@@ -17,9 +17,27 @@ describe('SQLite with migrations applied', () => {
     const first = openDatabase(file);
     expect(first.created).toBe(true);
     expect(first.sqlite.pragma('journal_mode', { simple: true })).toBe('wal');
-    const tables = first.sqlite.prepare("select name from sqlite_master where type='table'").all().map((r) => (r as { name: string }).name);
-    expect(tables).toEqual(expect.arrayContaining(['users', 'sweeps', 'sweep_chunks', 'results', 'datasets', 'fits', 'api_tokens', 'audit_log']));
-    first.sqlite.prepare("insert into users (email,name,role,password_hash,created_at,updated_at) values ('a@b.c','A','admin','x',1,1)").run();
+    const tables = first.sqlite
+      .prepare("select name from sqlite_master where type='table'")
+      .all()
+      .map((r) => (r as { name: string }).name);
+    expect(tables).toEqual(
+      expect.arrayContaining([
+        'users',
+        'sweeps',
+        'sweep_chunks',
+        'results',
+        'datasets',
+        'fits',
+        'api_tokens',
+        'audit_log',
+      ]),
+    );
+    first.sqlite
+      .prepare(
+        "insert into users (email,name,role,password_hash,created_at,updated_at) values ('a@b.c','A','admin','x',1,1)",
+      )
+      .run();
     first.sqlite.close();
     const second = openDatabase(file);
     expect(second.created).toBe(false);
@@ -32,7 +50,9 @@ describe('SQLite with migrations applied', () => {
     const dir = tempDataDir();
     dirs.push(dir);
     const { sqlite } = openDatabase(path.join(dir, 'driftgrid.db'));
-    const ins = sqlite.prepare("insert into users (email,name,role,password_hash,created_at,updated_at) values (?,?,?,?,1,1)");
+    const ins = sqlite.prepare(
+      'insert into users (email,name,role,password_hash,created_at,updated_at) values (?,?,?,?,1,1)',
+    );
     ins.run('a@b.c', 'A', 'admin', 'x');
     expect(() => ins.run('a@b.c', 'B', 'reviewer', 'y')).toThrow(/UNIQUE/);
     sqlite.close();

@@ -31,7 +31,13 @@ let rosa: number;
 let remy: number;
 let adminId: number;
 
-function addSweep(ownerId: number, points: number, status: string, createdAt = clock.now(), deletedAt: number | null = null): number {
+function addSweep(
+  ownerId: number,
+  points: number,
+  status: string,
+  createdAt = clock.now(),
+  deletedAt: number | null = null,
+): number {
   return Number(
     h.sqlite
       .prepare(
@@ -48,7 +54,15 @@ beforeAll(() => {
   clock = new ManualClock();
   const users = new UsersRepository(h.db);
   const mk = (email: string, role: 'admin' | 'researcher' | 'reviewer') =>
-    users.insert({ email, name: email, role, passwordHash: 'x', active: true, createdAt: clock.now(), updatedAt: clock.now() }).id;
+    users.insert({
+      email,
+      name: email,
+      role,
+      passwordHash: 'x',
+      active: true,
+      createdAt: clock.now(),
+      updatedAt: clock.now(),
+    }).id;
   adminId = mk('ada@example.com', 'admin');
   rosa = mk('rosa@example.com', 'researcher');
   remy = mk('remy@example.com', 'reviewer');
@@ -66,8 +80,18 @@ beforeEach(() => {
 describe('QuotasService', () => {
   it('seeds role defaults once, reviewers at zero', () => {
     const doc = quotas.document();
-    expect(doc.defaults.researcher).toEqual({ maxPointsPerSweep: 2_000_000, maxRunningSweeps: 3, maxPointsPer30Days: 20_000_000, maxStoredPoints: 50_000_000 });
-    expect(doc.defaults.reviewer).toEqual({ maxPointsPerSweep: 0, maxRunningSweeps: 0, maxPointsPer30Days: 0, maxStoredPoints: 0 });
+    expect(doc.defaults.researcher).toEqual({
+      maxPointsPerSweep: 2_000_000,
+      maxRunningSweeps: 3,
+      maxPointsPer30Days: 20_000_000,
+      maxStoredPoints: 50_000_000,
+    });
+    expect(doc.defaults.reviewer).toEqual({
+      maxPointsPerSweep: 0,
+      maxRunningSweeps: 0,
+      maxPointsPer30Days: 0,
+      maxStoredPoints: 0,
+    });
     expect(doc.defaults.admin.maxPointsPerSweep).toBeGreaterThan(doc.defaults.researcher.maxPointsPerSweep);
     quotas.setRoleDefault(adminId, 'researcher', { maxRunningSweeps: 4 });
     quotas.onModuleInit(); // a restart must not overwrite an admin's change
@@ -81,17 +105,32 @@ describe('QuotasService', () => {
     const v = quotas.verdict(rosa, 'researcher', 1001);
     expect(v.allowed).toBe(false);
     expect(v.violations).toEqual([
-      { limit: 'maxPointsPerSweep', value: 1000, usage: 1001, requested: 1001, message: 'maxPointsPerSweep is 1,000 points; this sweep has 1,001' },
+      {
+        limit: 'maxPointsPerSweep',
+        value: 1000,
+        usage: 1001,
+        requested: 1001,
+        message: 'maxPointsPerSweep is 1,000 points; this sweep has 1,001',
+      },
     ]);
     expect(() => quotas.assertAllowed(rosa, 'researcher', 1550)).toThrow(QuotaError);
-    expect(() => quotas.assertAllowed(rosa, 'researcher', 1550)).toThrow('maxPointsPerSweep is 1,000 points; this sweep has 1,550');
+    expect(() => quotas.assertAllowed(rosa, 'researcher', 1550)).toThrow(
+      'maxPointsPerSweep is 1,000 points; this sweep has 1,550',
+    );
   });
 
   it('a null override field falls back to the role default', () => {
     quotas.setUserOverride(adminId, rosa, { maxPointsPerSweep: 10, maxRunningSweeps: 1 });
-    expect(quotas.effectiveQuota(rosa, 'researcher')).toMatchObject({ maxPointsPerSweep: 10, maxRunningSweeps: 1, maxStoredPoints: 50_000_000 });
+    expect(quotas.effectiveQuota(rosa, 'researcher')).toMatchObject({
+      maxPointsPerSweep: 10,
+      maxRunningSweeps: 1,
+      maxStoredPoints: 50_000_000,
+    });
     quotas.setUserOverride(adminId, rosa, { maxPointsPerSweep: null });
-    expect(quotas.effectiveQuota(rosa, 'researcher')).toMatchObject({ maxPointsPerSweep: 2_000_000, maxRunningSweeps: 1 });
+    expect(quotas.effectiveQuota(rosa, 'researcher')).toMatchObject({
+      maxPointsPerSweep: 2_000_000,
+      maxRunningSweeps: 1,
+    });
     quotas.setUserOverride(adminId, rosa, { maxRunningSweeps: null });
     expect(quotas.document().overrides).toEqual([]); // nothing left to override: the row is gone
   });
@@ -120,8 +159,14 @@ describe('QuotasService', () => {
     addSweep(rosa, 400, 'running');
     const v = quotas.verdict(rosa, 'researcher', 301);
     expect(v.violations.map((x) => x.limit)).toEqual(['maxRunningSweeps', 'maxPointsPer30Days']);
-    expect(v.violations[0]).toMatchObject({ value: 2, usage: 2, message: 'maxRunningSweeps is 2; you already have 2 queued or running' });
-    expect(v.violations[1]!.message).toBe('maxPointsPer30Days is 1,000 points; you have used 700 in the last 30 days and this sweep has 301');
+    expect(v.violations[0]).toMatchObject({
+      value: 2,
+      usage: 2,
+      message: 'maxRunningSweeps is 2; you already have 2 queued or running',
+    });
+    expect(v.violations[1]!.message).toBe(
+      'maxPointsPer30Days is 1,000 points; you have used 700 in the last 30 days and this sweep has 301',
+    );
     const stored = quotas.verdict(rosa, 'researcher', 501).violations.find((x) => x.limit === 'maxStoredPoints');
     expect(stored).toMatchObject({ value: 1200, usage: 700, requested: 501 });
   });
@@ -146,9 +191,14 @@ describe('QuotasService', () => {
   it('lowering a quota never deletes data', () => {
     addSweep(rosa, 5000, 'completed');
     quotas.setUserOverride(adminId, rosa, { maxStoredPoints: 10 });
-    expect((h.sqlite.prepare('SELECT COUNT(*) AS n FROM sweeps WHERE owner_id = ?').get(rosa) as { n: number }).n).toBe(1);
+    expect((h.sqlite.prepare('SELECT COUNT(*) AS n FROM sweeps WHERE owner_id = ?').get(rosa) as { n: number }).n).toBe(
+      1,
+    );
     expect(quotas.usage(rosa).storedPoints).toBe(5000);
-    expect(quotas.verdict(rosa, 'researcher', 1).violations[0]).toMatchObject({ limit: 'maxStoredPoints', usage: 5000 });
+    expect(quotas.verdict(rosa, 'researcher', 1).violations[0]).toMatchObject({
+      limit: 'maxStoredPoints',
+      usage: 5000,
+    });
   });
 
   it('check + insert in one synchronous transaction: concurrent submits cannot exceed max running sweeps', async () => {
@@ -158,18 +208,34 @@ describe('QuotasService', () => {
       return addSweep(rosa, points, 'queued');
     });
     const results = await Promise.allSettled(
-      Array.from({ length: 10 }, (_, i) => new Promise<number>((resolve, reject) => setImmediate(() => { try { resolve(submit(10 + i)); } catch (e) { reject(e); } }))),
+      Array.from(
+        { length: 10 },
+        (_, i) =>
+          new Promise<number>((resolve, reject) =>
+            setImmediate(() => {
+              try {
+                resolve(submit(10 + i));
+              } catch (e) {
+                reject(e);
+              }
+            }),
+          ),
+      ),
     );
     expect(results.filter((r) => r.status === 'fulfilled')).toHaveLength(3);
     const refused = results.filter((r): r is PromiseRejectedResult => r.status === 'rejected');
     expect(refused).toHaveLength(7);
-    expect(refused.every((r) => r.reason instanceof QuotaError && /maxRunningSweeps is 3/.test(r.reason.message))).toBe(true);
+    expect(refused.every((r) => r.reason instanceof QuotaError && /maxRunningSweeps is 3/.test(r.reason.message))).toBe(
+      true,
+    );
     expect(quotas.usage(rosa).runningSweeps).toBe(3);
   });
 
   it('records quota changes in the audit log and rejects bad input', () => {
     quotas.setRoleDefault(adminId, 'admin', { maxRunningSweeps: 12 });
-    const last = h.sqlite.prepare("SELECT action, target, actor_id FROM audit_log WHERE action = 'quota.role' ORDER BY id DESC LIMIT 1").get();
+    const last = h.sqlite
+      .prepare("SELECT action, target, actor_id FROM audit_log WHERE action = 'quota.role' ORDER BY id DESC LIMIT 1")
+      .get();
     expect(last).toEqual({ action: 'quota.role', target: 'role:admin', actor_id: adminId });
     expect(() => quotas.setUserOverride(adminId, 987654, { maxRunningSweeps: 1 })).toThrow(/No user with id 987654/);
     expect(() => quotas.verdict(rosa, 'researcher', -1)).toThrow(/points/);

@@ -17,7 +17,11 @@ async function measure(backend: QueueBackend): Promise<void> {
   let done = 0;
   let resolveAll: () => void = () => undefined;
   const all = new Promise<void>((r) => (resolveAll = r));
-  const w = new Worker(name, async (job) => ({ i: job.data.i }), { connection: backend.connect(), prefix, concurrency: CONCURRENCY });
+  const w = new Worker(name, async (job) => ({ i: job.data.i }), {
+    connection: backend.connect(),
+    prefix,
+    concurrency: CONCURRENCY,
+  });
   w.on('completed', () => {
     if (++done === JOBS) resolveAll();
   });
@@ -25,7 +29,9 @@ async function measure(backend: QueueBackend): Promise<void> {
   const tDone = performance.now();
   const addRate = JOBS / ((tAdded - t0) / 1000);
   const procRate = JOBS / ((tDone - tAdded) / 1000);
-  console.log(`${backend.name.padEnd(13)} addBulk ${addRate.toFixed(0).padStart(6)} jobs/s   process ${procRate.toFixed(0).padStart(6)} jobs/s   (${JOBS} jobs, concurrency ${CONCURRENCY})`);
+  console.log(
+    `${backend.name.padEnd(13)} addBulk ${addRate.toFixed(0).padStart(6)} jobs/s   process ${procRate.toFixed(0).padStart(6)} jobs/s   (${JOBS} jobs, concurrency ${CONCURRENCY})`,
+  );
   await w.close();
   await q.obliterate({ force: true });
   await q.close();

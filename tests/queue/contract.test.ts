@@ -17,7 +17,9 @@ else if (process.env.CI === 'true') {
     });
   });
 } else {
-  console.warn('!!! queue contract: no REDIS_TEST_URL and no /usr/bin/redis-server — the real-Redis backend is SKIPPED');
+  console.warn(
+    '!!! queue contract: no REDIS_TEST_URL and no /usr/bin/redis-server — the real-Redis backend is SKIPPED',
+  );
 }
 
 afterAll(async () => {
@@ -93,15 +95,19 @@ describe.each(backends)('BullMQ contract on $name', (backend) => {
     const qe = await events(name);
     let running = 0;
     let maxRunning = 0;
-    const w = worker(name, async (job: Job) => {
-      running++;
-      maxRunning = Math.max(maxRunning, running);
-      await job.updateProgress({ step: 1 });
-      await sleep(80);
-      running--;
-      if (job.data.fail) throw new Error('deliberate failure');
-      return { doubled: job.data.n * 2 };
-    }, { concurrency: 3 });
+    const w = worker(
+      name,
+      async (job: Job) => {
+        running++;
+        maxRunning = Math.max(maxRunning, running);
+        await job.updateProgress({ step: 1 });
+        await sleep(80);
+        running--;
+        if (job.data.fail) throw new Error('deliberate failure');
+        return { doubled: job.data.n * 2 };
+      },
+      { concurrency: 3 },
+    );
     const workerCompleted: Array<[string, unknown]> = [];
     const workerFailed: string[] = [];
     const progress: unknown[] = [];
@@ -123,7 +129,9 @@ describe.each(backends)('BullMQ contract on $name', (backend) => {
     expect(workerCompleted).toHaveLength(5);
     expect(workerFailed).toEqual([`${bad.id}:deliberate failure`]);
     expect(qeFailed.get(bad.id as string)).toBe('deliberate failure');
-    expect([...qeCompleted.values()].map((v) => (v as { doubled: number }).doubled).sort((a, b) => a - b)).toEqual([2, 4, 6, 8, 10]);
+    expect([...qeCompleted.values()].map((v) => (v as { doubled: number }).doubled).sort((a, b) => a - b)).toEqual([
+      2, 4, 6, 8, 10,
+    ]);
     expect(progress).toHaveLength(6);
     expect(qeProgress).toContainEqual({ step: 1 });
     const first = await q.getJob('1');
@@ -142,7 +150,7 @@ describe.each(backends)('BullMQ contract on $name', (backend) => {
       return 'third time lucky';
     });
     const job = await q.add('flaky', {}, { attempts: 3, backoff: { type: 'fixed', delay: 60 } });
-    await waitUntil(async () => (await job.isCompleted()), 'retried job to complete');
+    await waitUntil(async () => await job.isCompleted(), 'retried job to complete');
     const done = await q.getJob(job.id as string);
     expect(seenAttempts).toEqual([0, 1, 2]);
     expect(done?.returnvalue).toBe('third time lucky');
@@ -158,7 +166,7 @@ describe.each(backends)('BullMQ contract on $name', (backend) => {
       throw new Error('always fails');
     });
     const job = await q.add('doomed', {}, { attempts: 3, backoff: { type: 'exponential', delay: 50 } });
-    await waitUntil(async () => (await job.isFailed()), 'job to fail for good');
+    await waitUntil(async () => await job.isFailed(), 'job to fail for good');
     const failed = await q.getJob(job.id as string);
     expect(failed?.attemptsMade).toBe(3);
     expect(failed?.failedReason).toBe('always fails');
@@ -176,7 +184,7 @@ describe.each(backends)('BullMQ contract on $name', (backend) => {
     expect(await job.getState()).toBe('delayed');
     expect((await q.getJobCounts('delayed')).delayed).toBe(1);
     worker(name, async () => 'ran');
-    await waitUntil(async () => (await job.isCompleted()), 'delayed job to run');
+    await waitUntil(async () => await job.isCompleted(), 'delayed job to run');
     const done = await q.getJob(job.id as string);
     expect((done?.processedOn as number) - done!.timestamp).toBeGreaterThanOrEqual(300);
   });
@@ -191,9 +199,13 @@ describe.each(backends)('BullMQ contract on $name', (backend) => {
     await q.add('p1b', {}, { priority: 1 });
     expect((await q.getJobCounts('prioritized')).prioritized).toBe(5);
     const order: string[] = [];
-    worker(name, async (job: Job) => {
-      order.push(job.name);
-    }, { concurrency: 1 });
+    worker(
+      name,
+      async (job: Job) => {
+        order.push(job.name);
+      },
+      { concurrency: 1 },
+    );
     await waitUntil(() => order.length === 5, 'all prioritised jobs');
     expect(order).toEqual(['p1', 'p1b', 'p3', 'p5', 'p2097151']);
   });
@@ -228,14 +240,18 @@ describe.each(backends)('BullMQ contract on $name', (backend) => {
     const q = queue(name);
     let runs = 0;
     const stalled: string[] = [];
-    const w = worker(name, async () => {
-      runs++;
-      await sleep(2600);
-      return 'long done';
-    }, { lockDuration: 1000, stalledInterval: 1000 });
+    const w = worker(
+      name,
+      async () => {
+        runs++;
+        await sleep(2600);
+        return 'long done';
+      },
+      { lockDuration: 1000, stalledInterval: 1000 },
+    );
     w.on('stalled', (id) => stalled.push(id));
     const job = await q.add('long', {});
-    await waitUntil(async () => (await job.isCompleted()), 'long job', 20000);
+    await waitUntil(async () => await job.isCompleted(), 'long job', 20000);
     expect(runs).toBe(1);
     expect(stalled).toEqual([]);
     expect((await q.getJob(job.id as string))?.returnvalue).toBe('long done');
@@ -245,7 +261,9 @@ describe.each(backends)('BullMQ contract on $name', (backend) => {
     const name = names();
     const q = queue(name);
     const qe = await events(name);
-    const payload = Buffer.alloc(1_100_000, 0).map((_, i) => (i * 31 + 7) % 251).toString('base64');
+    const payload = Buffer.alloc(1_100_000, 0)
+      .map((_, i) => (i * 31 + 7) % 251)
+      .toString('base64');
     expect(payload.length).toBeGreaterThan(1_400_000);
     worker(name, async () => ({ chunk: 7, points: payload }));
     let viaEvent: { chunk: number; points: string } | undefined;

@@ -29,12 +29,22 @@ export function tempDataDir(prefix = 'driftgrid-test-'): string {
 
 export async function startTestApp(env: Record<string, string> = {}): Promise<TestApp> {
   const dataDir = env.DATA_DIR ?? tempDataDir();
-  const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: dataDir, LOG_LEVEL: 'error', DEMO_SEED: 'true', PORT: '0', ...env });
+  const config = loadConfig({
+    NODE_ENV: 'test',
+    DATA_DIR: dataDir,
+    LOG_LEVEL: 'error',
+    DEMO_SEED: 'true',
+    PORT: '0',
+    ...env,
+  });
   const { app } = await createApp(config);
   const server = app.getHttpServer();
   const http = request(server);
   return {
-    app, config, dataDir, http,
+    app,
+    config,
+    dataDir,
+    http,
     async login(email, password = DEMO_PASSWORD) {
       const res = await request(server).post('/api/auth/login').send({ email, password });
       if (res.status !== 200) throw new Error(`login ${email} failed: ${res.status} ${JSON.stringify(res.body)}`);

@@ -13,19 +13,34 @@ const CHROMIUM = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
 export function chromiumAvailable(): boolean {
   if (fs.existsSync(CHROMIUM)) return true;
   if (process.env.CI === 'true') throw new Error(`Chromium not found at ${CHROMIUM}; CI requires the browser suite`);
-  console.warn(`\n!!! BROWSER SUITE SKIPPED: no Chromium at ${CHROMIUM} (set CHROMIUM_PATH or apt-get install chromium) !!!\n`);
+  console.warn(
+    `\n!!! BROWSER SUITE SKIPPED: no Chromium at ${CHROMIUM} (set CHROMIUM_PATH or apt-get install chromium) !!!\n`,
+  );
   return false;
 }
 
 export function launchBrowser(): Promise<Browser> {
   return chromium.launch({
     executablePath: CHROMIUM,
-    args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--disable-dev-shm-usage'],
+    args: [
+      '--headless',
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+      '--disable-dev-shm-usage',
+    ],
   });
 }
 
 /** Signs in through the form and waits for the landing page (generous: CI machines are shared). */
-export async function signInThroughForm(page: Page, baseUrl: string, email = 'researcher@example.com', password = 'driftgrid-demo'): Promise<void> {
+export async function signInThroughForm(
+  page: Page,
+  baseUrl: string,
+  email = 'researcher@example.com',
+  password = 'driftgrid-demo',
+): Promise<void> {
   await page.goto(baseUrl + '/sign-in');
   await page.getByLabel('Email').fill(email);
   await page.getByLabel('Password').fill(password);
@@ -39,12 +54,16 @@ export async function signInThroughForm(page: Page, baseUrl: string, email = 're
 }
 
 /** Starts the app and a browser for a suite, and stops both after it. */
-export function browserSuite(env: Record<string, string> = {}): { server: () => RunningServer; browser: () => Browser } {
+export function browserSuite(env: Record<string, string> = {}): {
+  server: () => RunningServer;
+  browser: () => Browser;
+} {
   let server: RunningServer | undefined;
   let browser: Browser | undefined;
   beforeAll(async () => {
     server = await startServer(env);
-    if (!fs.existsSync(path.join(server.config.uiDist, 'index.html'))) throw new Error('ui is not built: run npm run build first');
+    if (!fs.existsSync(path.join(server.config.uiDist, 'index.html')))
+      throw new Error('ui is not built: run npm run build first');
     browser = await launchBrowser();
   });
   afterAll(async () => {

@@ -29,13 +29,18 @@ export interface Proc {
 export function spawnNode(script: string, env: Record<string, string>, nodeArgs: string[] = []): Proc {
   const file = path.join(REPO, script);
   if (!fs.existsSync(file)) throw new Error(`${script} is not built: run npm run build first`);
-  const child = spawn(process.execPath, [...nodeArgs, file], { env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'] });
+  const child = spawn(process.execPath, [...nodeArgs, file], {
+    env: { ...process.env, ...env },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  });
   let out = '';
   child.stdout!.on('data', (d) => (out = (out + d).slice(-20000)));
   child.stderr!.on('data', (d) => (out = (out + d).slice(-20000)));
   const exited = new Promise<number | null>((r) => child.on('exit', (code) => r(code)));
   return {
-    child, exited, output: () => out,
+    child,
+    exited,
+    output: () => out,
     async kill(signal = 'SIGTERM') {
       if (child.exitCode === null && child.signalCode === null) child.kill(signal);
       await exited;
@@ -60,21 +65,33 @@ export async function waitForHealth(baseUrl: string, proc: Proc, timeoutMs = 30_
 
 export async function startApiProcess(env: Record<string, string>): Promise<{ proc: Proc; baseUrl: string }> {
   const port = await freePort();
-  const proc = spawnNode('api/dist/main.js', { NODE_ENV: 'test', LOG_LEVEL: 'warn', HOST: '127.0.0.1', PORT: String(port), DEMO_SEED: 'true', ...env });
+  const proc = spawnNode('api/dist/main.js', {
+    NODE_ENV: 'test',
+    LOG_LEVEL: 'warn',
+    HOST: '127.0.0.1',
+    PORT: String(port),
+    DEMO_SEED: 'true',
+    ...env,
+  });
   const baseUrl = `http://127.0.0.1:${port}`;
   await waitForHealth(baseUrl, proc);
   return { proc, baseUrl };
 }
 
 export async function apiLogin(baseUrl: string, email: string, password = 'driftgrid-demo'): Promise<string> {
-  const r = await fetch(`${baseUrl}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email, password }) });
+  const r = await fetch(`${baseUrl}/api/auth/login`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify({ email, password }),
+  });
   if (!r.ok) throw new Error(`login failed ${r.status}`);
   return ((await r.json()) as { accessToken: string }).accessToken;
 }
 
 export async function apiJson(baseUrl: string, token: string, method: string, route: string, body?: unknown) {
   const r = await fetch(`${baseUrl}${route}`, {
-    method, headers: { authorization: `Bearer ${token}`, ...(body ? { 'content-type': 'application/json' } : {}) },
+    method,
+    headers: { authorization: `Bearer ${token}`, ...(body ? { 'content-type': 'application/json' } : {}) },
     body: body ? JSON.stringify(body) : undefined,
   });
   const text = await r.text();

@@ -23,7 +23,8 @@ export async function waitForSweep(t: TestApp, token: string, id: number, timeou
     const res = await t.http.get(`/api/sweeps/${id}`).set('authorization', `Bearer ${token}`);
     if (res.status !== 200) throw new Error(`GET sweep ${id}: ${res.status} ${JSON.stringify(res.body)}`);
     if (!['queued', 'running'].includes(res.body.status)) return res.body;
-    if (Date.now() > deadline) throw new Error(`sweep ${id} still ${res.body.status} (${res.body.progress.done}/${res.body.progress.total})`);
+    if (Date.now() > deadline)
+      throw new Error(`sweep ${id} still ${res.body.status} (${res.body.progress.done}/${res.body.progress.total})`);
     await new Promise((r) => setTimeout(r, 100));
   }
 }

@@ -29,7 +29,12 @@ export function App() {
   const [router] = useState(createAppRouter);
   useEffect(() => installUnauthorizedHandler(queryClient), [queryClient]);
   return (
-    <MantineProvider theme={theme} cssVariablesResolver={cssVariablesResolver} colorSchemeManager={colorSchemeManager} defaultColorScheme="auto">
+    <MantineProvider
+      theme={theme}
+      cssVariablesResolver={cssVariablesResolver}
+      colorSchemeManager={colorSchemeManager}
+      defaultColorScheme="auto"
+    >
       <Notifications position="top-right" limit={4} />
       <QueryClientProvider client={queryClient}>
         <RouterProvider router={router} />

@@ -42,7 +42,11 @@ export function buildRoutes(): RouteObject[] {
           errorElement: <RouteError />,
           children: [
             ...pageRoutes.map(toRoute),
-            { path: '*', handle: { title: 'Not found' } satisfies RouteHandle, lazy: async () => ({ Component: (await import('./pages/NotFound.page.js')).default }) },
+            {
+              path: '*',
+              handle: { title: 'Not found' } satisfies RouteHandle,
+              lazy: async () => ({ Component: (await import('./pages/NotFound.page.js')).default }),
+            },
           ],
         },
       ],

@@ -35,8 +35,19 @@ export interface PageRoute {
 const CREATORS: readonly Role[] = ['admin', 'researcher'];
 
 export const pageRoutes: readonly PageRoute[] = [
-  { path: '/', title: 'Dashboard', load: () => import('./pages/Dashboard.page.js'), nav: { label: 'Dashboard', icon: IconLayoutDashboard } },
-  { path: '/sweeps/new', title: 'New sweep', roles: CREATORS, load: () => import('./pages/NewSweep.page.js'), nav: { label: 'New sweep', icon: IconPlus } },
+  {
+    path: '/',
+    title: 'Dashboard',
+    load: () => import('./pages/Dashboard.page.js'),
+    nav: { label: 'Dashboard', icon: IconLayoutDashboard },
+  },
+  {
+    path: '/sweeps/new',
+    title: 'New sweep',
+    roles: CREATORS,
+    load: () => import('./pages/NewSweep.page.js'),
+    nav: { label: 'New sweep', icon: IconPlus },
+  },
   {
     path: '/catalogue',
     title: 'Catalogue',
@@ -44,13 +55,40 @@ export const pageRoutes: readonly PageRoute[] = [
     nav: { label: 'Catalogue', icon: IconStack2, alsoActiveFor: ['/sweeps/'] },
   },
   { path: '/sweeps/:id', title: 'Sweep', load: () => import('./pages/Sweep.page.js') },
-  { path: '/datasets', title: 'Datasets', roles: CREATORS, load: () => import('./pages/Datasets.page.js'), nav: { label: 'Datasets', icon: IconDatabase, alsoActiveFor: ['/datasets/'] } },
+  {
+    path: '/datasets',
+    title: 'Datasets',
+    roles: CREATORS,
+    load: () => import('./pages/Datasets.page.js'),
+    nav: { label: 'Datasets', icon: IconDatabase, alsoActiveFor: ['/datasets/'] },
+  },
   { path: '/datasets/:id', title: 'Dataset', load: () => import('./pages/Dataset.page.js') },
-  { path: '/downloads', title: 'Downloads', load: () => import('./pages/Downloads.page.js'), nav: { label: 'Downloads', icon: IconDownload } },
-  { path: '/fits', title: 'Fits', load: () => import('./pages/Fits.page.js'), nav: { label: 'Fits', icon: IconMathFunction, alsoActiveFor: ['/fits/'] } },
+  {
+    path: '/downloads',
+    title: 'Downloads',
+    load: () => import('./pages/Downloads.page.js'),
+    nav: { label: 'Downloads', icon: IconDownload },
+  },
+  {
+    path: '/fits',
+    title: 'Fits',
+    load: () => import('./pages/Fits.page.js'),
+    nav: { label: 'Fits', icon: IconMathFunction, alsoActiveFor: ['/fits/'] },
+  },
   { path: '/fits/:id', title: 'Fit', load: () => import('./pages/Fit.page.js') },
-  { path: '/single-point', title: 'Single point', load: () => import('./pages/SinglePoint.page.js'), nav: { label: 'Single point', icon: IconTarget } },
-  { path: '/admin', title: 'Admin', roles: ['admin'], load: () => import('./pages/Admin.page.js'), nav: { label: 'Admin', icon: IconShieldLock } },
+  {
+    path: '/single-point',
+    title: 'Single point',
+    load: () => import('./pages/SinglePoint.page.js'),
+    nav: { label: 'Single point', icon: IconTarget },
+  },
+  {
+    path: '/admin',
+    title: 'Admin',
+    roles: ['admin'],
+    load: () => import('./pages/Admin.page.js'),
+    nav: { label: 'Admin', icon: IconShieldLock },
+  },
   { path: '/account/tokens', title: 'API tokens', load: () => import('./pages/Tokens.page.js') },
   { path: '/account/password', title: 'Password', load: () => import('./pages/Password.page.js') },
 ];

@@ -10,6 +10,10 @@ parentPort!.on('message', (msg: { id: number; data: ChunkJobData }) => {
     parentPort!.postMessage({ id: msg.id, ok: true, result: r }, transfer);
   } catch (e) {
     const err = e as Error & { details?: unknown };
-    parentPort!.postMessage({ id: msg.id, ok: false, error: { name: err.name, message: err.message, details: err.details } });
+    parentPort!.postMessage({
+      id: msg.id,
+      ok: false,
+      error: { name: err.name, message: err.message, details: err.details },
+    });
   }
 });

@@ -68,14 +68,24 @@ export class ChunkProcessor extends WorkerHost implements OnApplicationBootstrap
     const columns: Record<string, string | Float64Array> = {};
     for (const [k, v] of Object.entries(r.columns)) columns[k] = binary ? v : encodeFloat64(v);
     const payload: ChunkResultPayload = {
-      sweepId: d.sweepId, chunkIndex: d.chunkIndex, i0: d.i0, n: r.n, columns, flags: binary ? r.flags : encodeUint32(r.flags),
-      workerId: this.options.workerId, computeMs: r.computeMs, attempt: job.attemptsMade + 1,
+      sweepId: d.sweepId,
+      chunkIndex: d.chunkIndex,
+      i0: d.i0,
+      n: r.n,
+      columns,
+      flags: binary ? r.flags : encodeUint32(r.flags),
+      workerId: this.options.workerId,
+      computeMs: r.computeMs,
+      attempt: job.attemptsMade + 1,
     };
     while ((await this.results.getWaitingCount()) >= MAX_RESULT_BACKLOG) await new Promise((r) => setTimeout(r, 25));
     // One result job per attempt; the api persists idempotently, so a duplicate is harmless.
     await this.results.add('chunk-result', this.transport.send(payload), {
       jobId: `${chunkJobId(d.sweepId, d.chunkIndex)}-a${job.attemptsMade + 1}`,
-      attempts: 10, backoff: { type: 'exponential', delay: 500 }, removeOnComplete: true, removeOnFail: 1000,
+      attempts: 10,
+      backoff: { type: 'exponential', delay: 500 },
+      removeOnComplete: true,
+      removeOnFail: 1000,
     });
     return { n: r.n, computeMs: r.computeMs, workerId: this.options.workerId };
   }
@@ -84,12 +94,24 @@ export class ChunkProcessor extends WorkerHost implements OnApplicationBootstrap
   @OnWorkerEvent('failed')
   async onFailed(job: Job<ChunkJobData> | undefined, error: Error): Promise<void> {
     if (!job) return;
-    const final = error instanceof UnrecoverableError || error.name === 'UnrecoverableError' || job.attemptsMade >= (job.opts.attempts ?? 1);
+    const final =
+      error instanceof UnrecoverableError ||
+      error.name === 'UnrecoverableError' ||
+      job.attemptsMade >= (job.opts.attempts ?? 1);
     if (!final) return;
     const d = job.data;
     this.logger.warn(`chunk ${d.chunkIndex} of sweep ${d.sweepId} failed for good: ${error.message}`);
-    await this.results.add('chunk-failed', { sweepId: d.sweepId, chunkIndex: d.chunkIndex, reason: error.message, workerId: this.options.workerId }, {
-      jobId: `${chunkJobId(d.sweepId, d.chunkIndex)}-failed`, attempts: 10, backoff: { type: 'exponential', delay: 500 }, removeOnComplete: true,
-    }).catch((e: Error) => this.logger.error(`could not report chunk failure: ${e.message}`));
+    await this.results
+      .add(
+        'chunk-failed',
+        { sweepId: d.sweepId, chunkIndex: d.chunkIndex, reason: error.message, workerId: this.options.workerId },
+        {
+          jobId: `${chunkJobId(d.sweepId, d.chunkIndex)}-failed`,
+          attempts: 10,
+          backoff: { type: 'exponential', delay: 500 },
+          removeOnComplete: true,
+        },
+      )
+      .catch((e: Error) => this.logger.error(`could not report chunk failure: ${e.message}`));
   }
 }

@@ -5,7 +5,9 @@ import { WorkerModule } from './worker.module.js';
 
 async function main(): Promise<void> {
   const config = loadWorkerConfig();
-  const app = await NestFactory.createApplicationContext(WorkerModule.forRoot(config), { logger: ['log', 'warn', 'error'] });
+  const app = await NestFactory.createApplicationContext(WorkerModule.forRoot(config), {
+    logger: ['log', 'warn', 'error'],
+  });
   app.enableShutdownHooks();
   console.log(`Driftgrid worker ${config.workerId} started (concurrency ${config.concurrency})`);
 }

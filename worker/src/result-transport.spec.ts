@@ -4,9 +4,15 @@ import { decodeFloat64, decodeUint32, encodeFloat64, encodeUint32 } from './chun
 import { InlineResultTransport, InProcessResultTransport } from './result-transport.js';
 
 const payload = (chunkIndex: number): ChunkResultPayload => ({
-  sweepId: 7, chunkIndex, i0: chunkIndex * 3, n: 3,
-  columns: { Te_eV: new Float64Array([1, 2, 3]) }, flags: new Uint32Array([0, 1, 4]),
-  workerId: 'host:1', computeMs: 0.5, attempt: 1,
+  sweepId: 7,
+  chunkIndex,
+  i0: chunkIndex * 3,
+  n: 3,
+  columns: { Te_eV: new Float64Array([1, 2, 3]) },
+  flags: new Uint32Array([0, 1, 4]),
+  workerId: 'host:1',
+  computeMs: 0.5,
+  attempt: 1,
 });
 
 describe('result transports', () => {
@@ -24,7 +30,11 @@ describe('result transports', () => {
 
   it('inline: the payload itself rides in the job and survives JSON', () => {
     const t = new InlineResultTransport();
-    const p = { ...payload(0), columns: { Te_eV: encodeFloat64(new Float64Array([1.5, -2e300, Number.MIN_VALUE])) }, flags: encodeUint32(new Uint32Array([0, 0xffffffff, 3])) };
+    const p = {
+      ...payload(0),
+      columns: { Te_eV: encodeFloat64(new Float64Array([1.5, -2e300, Number.MIN_VALUE])) },
+      flags: encodeUint32(new Uint32Array([0, 0xffffffff, 3])),
+    };
     const got = t.receive(JSON.parse(JSON.stringify(t.send(p))))!;
     expect(Array.from(decodeFloat64(got.columns.Te_eV))).toEqual([1.5, -2e300, Number.MIN_VALUE]);
     expect(Array.from(decodeUint32(got.flags))).toEqual([0, 0xffffffff, 3]);

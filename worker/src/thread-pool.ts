@@ -16,7 +16,10 @@ function threadEntry(): string {
 }
 
 export class ChunkComputeError extends Error {
-  constructor(message: string, readonly details?: unknown) {
+  constructor(
+    message: string,
+    readonly details?: unknown,
+  ) {
     super(message);
     this.name = 'ChunkComputeError';
   }
@@ -39,14 +42,17 @@ export class ChunkThreadPool {
   private spawn(): void {
     const worker = new Worker(threadEntry());
     const slot = { worker, busy: 0 };
-    worker.on('message', (msg: { id: number; ok: boolean; result?: ComputedChunk; error?: { message: string; details?: unknown } }) => {
-      slot.busy--;
-      const p = this.pending.get(msg.id);
-      if (!p) return;
-      this.pending.delete(msg.id);
-      if (msg.ok) p.resolve(msg.result!);
-      else p.reject(new ChunkComputeError(msg.error!.message, msg.error!.details));
-    });
+    worker.on(
+      'message',
+      (msg: { id: number; ok: boolean; result?: ComputedChunk; error?: { message: string; details?: unknown } }) => {
+        slot.busy--;
+        const p = this.pending.get(msg.id);
+        if (!p) return;
+        this.pending.delete(msg.id);
+        if (msg.ok) p.resolve(msg.result!);
+        else p.reject(new ChunkComputeError(msg.error!.message, msg.error!.details));
+      },
+    );
     worker.on('error', (e) => {
       // A crashed thread fails the jobs it held (BullMQ retries them) and is replaced.
       for (const [id, p] of this.pending) {

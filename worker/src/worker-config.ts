@@ -20,7 +20,8 @@ export function loadWorkerConfig(env: NodeJS.ProcessEnv = process.env): WorkerCo
     throw new Error('WORKER_CONCURRENCY must be a whole number from 1 to 64');
   }
   const threads = env.WORKER_THREADS ? Number(env.WORKER_THREADS) : concurrency;
-  if (!Number.isInteger(threads) || threads < 0 || threads > 64) throw new Error('WORKER_THREADS must be a whole number from 0 to 64');
+  if (!Number.isInteger(threads) || threads < 0 || threads > 64)
+    throw new Error('WORKER_THREADS must be a whole number from 0 to 64');
   const queuePrefix = env.QUEUE_PREFIX?.trim() || DEFAULT_QUEUE_PREFIX;
   if (!/^[A-Za-z0-9_-]{1,32}$/.test(queuePrefix)) throw new Error('QUEUE_PREFIX must be 1–32 letters, digits, - or _');
   return { redisUrl, concurrency, threads, workerId: `${os.hostname()}:${process.pid}`, queuePrefix };

@@ -13,8 +13,15 @@ export class WorkerModule {
     return {
       module: WorkerModule,
       imports: [
-        BullModule.forRoot({ connection: new Redis(config.redisUrl, { maxRetriesPerRequest: null }), prefix: config.queuePrefix }),
-        ChunkProcessingModule.forRoot({ concurrency: config.concurrency, threads: config.threads, workerId: config.workerId }),
+        BullModule.forRoot({
+          connection: new Redis(config.redisUrl, { maxRetriesPerRequest: null }),
+          prefix: config.queuePrefix,
+        }),
+        ChunkProcessingModule.forRoot({
+          concurrency: config.concurrency,
+          threads: config.threads,
+          workerId: config.workerId,
+        }),
       ],
       providers: [{ provide: WORKER_CONFIG, useValue: config }],
       exports: [WORKER_CONFIG],

@@ -1,8 +1,14 @@
 import { Body, Controller, HttpCode, Post, UseGuards } from '@nestjs/common';
 import { ApiBearerAuth, ApiBody, ApiOperation, ApiTags } from '@nestjs/swagger';
 import {
-  acceptInviteSchema, changePasswordSchema, passwordResetConfirmSchema, passwordResetRequestSchema,
-  type AcceptInviteRequest, type ChangePasswordRequest, type PasswordResetConfirm, type PasswordResetRequest,
+  acceptInviteSchema,
+  changePasswordSchema,
+  passwordResetConfirmSchema,
+  passwordResetRequestSchema,
+  type AcceptInviteRequest,
+  type ChangePasswordRequest,
+  type PasswordResetConfirm,
+  type PasswordResetRequest,
 } from '@driftgrid/domain';
 import { Public, SignedIn } from '../auth/access.decorators.js';
 import { CurrentUser, type AuthUser } from '../auth/current-user.js';
@@ -16,7 +22,10 @@ import { PasswordsService } from './passwords.service.js';
 @ApiTags('auth')
 @Controller('auth')
 export class AccountsAuthController {
-  constructor(private readonly invitations: InvitationsService, private readonly passwords: PasswordsService) {}
+  constructor(
+    private readonly invitations: InvitationsService,
+    private readonly passwords: PasswordsService,
+  ) {}
 
   @Post('accept-invite')
   @Public()
@@ -54,7 +63,10 @@ export class AccountsAuthController {
   @ApiBearerAuth()
   @ApiOperation({ summary: 'Change your password (needs the current one)' })
   @ApiBody({ schema: openApiSchema(changePasswordSchema) })
-  change(@CurrentUser() user: AuthUser, @Body(new ZodValidationPipe(changePasswordSchema)) body: ChangePasswordRequest) {
+  change(
+    @CurrentUser() user: AuthUser,
+    @Body(new ZodValidationPipe(changePasswordSchema)) body: ChangePasswordRequest,
+  ) {
     return this.passwords.change(user, body);
   }
 }

@@ -39,8 +39,11 @@ export class AccountsRepository {
 
   /** Revokes the open invitations of an address (a new invitation replaces them). */
   revokeOpenInvitations(email: string, now: number): void {
-    this.db.update(invitations).set({ revokedAt: now })
-      .where(and(eq(invitations.email, email), isNull(invitations.acceptedAt), isNull(invitations.revokedAt))).run();
+    this.db
+      .update(invitations)
+      .set({ revokedAt: now })
+      .where(and(eq(invitations.email, email), isNull(invitations.acceptedAt), isNull(invitations.revokedAt)))
+      .run();
   }
 
   markInvitation(id: number, patch: Partial<Pick<InvitationRow, 'acceptedAt' | 'revokedAt'>>): void {
@@ -57,6 +60,10 @@ export class AccountsRepository {
 
   /** Marks every unused reset of a user used: a successful reset voids the other links. */
   useResets(userId: number, now: number): void {
-    this.db.update(passwordResets).set({ usedAt: now }).where(and(eq(passwordResets.userId, userId), isNull(passwordResets.usedAt))).run();
+    this.db
+      .update(passwordResets)
+      .set({ usedAt: now })
+      .where(and(eq(passwordResets.userId, userId), isNull(passwordResets.usedAt)))
+      .run();
   }
 }

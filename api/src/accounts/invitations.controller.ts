@@ -18,7 +18,10 @@ export class InvitationsController {
   @Post()
   @ApiOperation({ summary: 'Invite an e-mail address with a role (link valid 7 days, single use)' })
   @ApiBody({ schema: openApiSchema(invitationRequestSchema) })
-  invite(@CurrentUser() actor: AuthUser, @Body(new ZodValidationPipe(invitationRequestSchema)) body: InvitationRequest) {
+  invite(
+    @CurrentUser() actor: AuthUser,
+    @Body(new ZodValidationPipe(invitationRequestSchema)) body: InvitationRequest,
+  ) {
     return this.invitations.invite(actor, body);
   }
 

@@ -1,7 +1,15 @@
 import { Inject, Injectable, Logger } from '@nestjs/common';
 import {
-  ConflictError, NotFoundError, ValidationError,
-  type AcceptInviteRequest, type Invitation, type InvitationRequest, type InvitationStatus, type LoginResponse, type PageOf, type PageQuery,
+  ConflictError,
+  NotFoundError,
+  ValidationError,
+  type AcceptInviteRequest,
+  type Invitation,
+  type InvitationRequest,
+  type InvitationStatus,
+  type LoginResponse,
+  type PageOf,
+  type PageQuery,
 } from '@driftgrid/domain';
 import { AuditService } from '../admin/audit.service.js';
 import { AuthService } from '../auth/auth.service.js';
@@ -42,19 +50,37 @@ export class InvitationsService {
   ) {}
 
   private view(i: InvitationRow, by: Invitation['invitedBy'], now: number): Invitation {
-    return { id: i.id, email: i.email, role: i.role, status: invitationStatus(i, now), invitedBy: by, createdAt: i.createdAt, expiresAt: i.expiresAt, acceptedAt: i.acceptedAt };
+    return {
+      id: i.id,
+      email: i.email,
+      role: i.role,
+      status: invitationStatus(i, now),
+      invitedBy: by,
+      createdAt: i.createdAt,
+      expiresAt: i.expiresAt,
+      acceptedAt: i.acceptedAt,
+    };
   }
 
   /** A new invitation replaces the address's open ones; the mail carries the only copy of the token. */
   async invite(actor: AuthUser, req: InvitationRequest): Promise<Invitation> {
     if (this.users.findByEmail(req.email)) {
-      throw new ConflictError(`${req.email} already has an account`, [{ path: 'email', message: 'already has an account' }]);
+      throw new ConflictError(`${req.email} already has an account`, [
+        { path: 'email', message: 'already has an account' },
+      ]);
     }
     const now = this.clock.now();
     const { token, hash } = newOneTimeToken();
     const row = this.handle.sqlite.transaction(() => {
       this.repo.revokeOpenInvitations(req.email, now);
-      const r = this.repo.insertInvitation({ email: req.email, role: req.role, tokenHash: hash, invitedBy: actor.id, createdAt: now, expiresAt: now + INVITATION_DAYS * 86_400_000 });
+      const r = this.repo.insertInvitation({
+        email: req.email,
+        role: req.role,
+        tokenHash: hash,
+        invitedBy: actor.id,
+        createdAt: now,
+        expiresAt: now + INVITATION_DAYS * 86_400_000,
+      });
       this.audit.record(actor.id, 'invitation.create', `invitation:${r.id}`, { email: req.email, role: req.role });
       return r;
     })();
@@ -75,7 +101,9 @@ export class InvitationsService {
     const { items, total } = this.repo.listInvitations((q.page - 1) * q.pageSize, q.pageSize);
     return {
       items: items.map(({ inv, by }) => this.view(inv, by && by.id !== null ? by : null, now)),
-      total, page: q.page, pageSize: q.pageSize,
+      total,
+      page: q.page,
+      pageSize: q.pageSize,
     };
   }
 
@@ -84,7 +112,8 @@ export class InvitationsService {
     const inv = this.repo.invitationById(id);
     if (!inv) throw new NotFoundError(`No invitation with id ${id}`);
     const status = invitationStatus(inv, now);
-    if (status === 'accepted') throw new ConflictError('This invitation has already been accepted; deactivate the user instead');
+    if (status === 'accepted')
+      throw new ConflictError('This invitation has already been accepted; deactivate the user instead');
     if (status === 'pending') {
       this.repo.markInvitation(id, { revokedAt: now });
       this.audit.record(actor.id, 'invitation.revoke', `invitation:${id}`, { email: inv.email });
@@ -99,8 +128,10 @@ export class InvitationsService {
     if (!inv) throw field('This invitation link is not valid; check that you copied the whole link');
     const status = invitationStatus(inv, this.clock.now());
     if (status === 'accepted') throw field('This invitation link has already been used; sign in instead');
-    if (status === 'revoked') throw field('This invitation was withdrawn or replaced by a newer one; use the latest e-mail or ask an admin');
-    if (status === 'expired') throw field(`This invitation link has expired (links last ${INVITATION_DAYS} days); ask an admin for a new one`);
+    if (status === 'revoked')
+      throw field('This invitation was withdrawn or replaced by a newer one; use the latest e-mail or ask an admin');
+    if (status === 'expired')
+      throw field(`This invitation link has expired (links last ${INVITATION_DAYS} days); ask an admin for a new one`);
     return inv;
   }
 
@@ -111,11 +142,24 @@ export class InvitationsService {
     // Re-check after the (asynchronous) hashing, inside one transaction: a token is used once.
     const user = this.handle.sqlite.transaction(() => {
       const inv = this.usable(req.token);
-      if (this.users.findByEmail(inv.email)) throw new ConflictError(`${inv.email} already has an account; sign in instead`);
+      if (this.users.findByEmail(inv.email))
+        throw new ConflictError(`${inv.email} already has an account; sign in instead`);
       const now = this.clock.now();
-      const u = this.users.insert({ email: inv.email, name: req.name, role: inv.role, passwordHash, active: true, createdAt: now, updatedAt: now });
+      const u = this.users.insert({
+        email: inv.email,
+        name: req.name,
+        role: inv.role,
+        passwordHash,
+        active: true,
+        createdAt: now,
+        updatedAt: now,
+      });
       this.repo.markInvitation(inv.id, { acceptedAt: now });
-      this.audit.record(u.id, 'invitation.accept', `user:${u.id}`, { email: inv.email, role: inv.role, invitation: inv.id });
+      this.audit.record(u.id, 'invitation.accept', `user:${u.id}`, {
+        email: inv.email,
+        role: inv.role,
+        invitation: inv.id,
+      });
       return u;
     })();
     return this.auth.issue(user);

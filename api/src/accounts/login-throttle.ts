@@ -19,8 +19,18 @@ export const LoginThrottlerModule = ThrottlerModule.forRootAsync({
   useFactory: (config: AppConfig) => ({
     errorMessage: THROTTLED_MESSAGE,
     throttlers: [
-      { name: 'account', limit: config.loginThrottleLimit, ttl: config.loginThrottleTtlMs, getTracker: (req: Req) => `${ip(req)}|${email(req)}` },
-      { name: 'address', limit: config.loginThrottleLimit * 5, ttl: config.loginThrottleTtlMs, getTracker: (req: Req) => ip(req) },
+      {
+        name: 'account',
+        limit: config.loginThrottleLimit,
+        ttl: config.loginThrottleTtlMs,
+        getTracker: (req: Req) => `${ip(req)}|${email(req)}`,
+      },
+      {
+        name: 'address',
+        limit: config.loginThrottleLimit * 5,
+        ttl: config.loginThrottleTtlMs,
+        getTracker: (req: Req) => ip(req),
+      },
     ],
   }),
 });

@@ -1,7 +1,12 @@
 import { Inject, Injectable } from '@nestjs/common';
 import {
-  ForbiddenError, PASSWORD_RESET_ACCEPTED, ValidationError,
-  type ChangePasswordRequest, type PasswordResetConfirm, type PasswordResetRequest, type LoginResponse,
+  ForbiddenError,
+  PASSWORD_RESET_ACCEPTED,
+  ValidationError,
+  type ChangePasswordRequest,
+  type PasswordResetConfirm,
+  type PasswordResetRequest,
+  type LoginResponse,
 } from '@driftgrid/domain';
 import type { AuthUser } from '../auth/current-user.js';
 import { PasswordService } from '../auth/password.service.js';
@@ -44,7 +49,12 @@ export class PasswordsService {
     if (user && user.active) {
       const now = this.clock.now();
       const { token, hash } = newOneTimeToken();
-      this.repo.insertReset({ userId: user.id, tokenHash: hash, createdAt: now, expiresAt: now + RESET_MINUTES * 60_000 });
+      this.repo.insertReset({
+        userId: user.id,
+        tokenHash: hash,
+        createdAt: now,
+        expiresAt: now + RESET_MINUTES * 60_000,
+      });
       const url = `${this.config.publicUrl.replace(/\/+$/, '')}/reset-password?token=${encodeURIComponent(token)}`;
       const m = passwordResetMail({ name: user.name, url, expiresInMinutes: RESET_MINUTES });
       const p = this.mail.sendInBackground({ to: user.email, subject: m.subject, text: m.text, html: m.html });
@@ -59,8 +69,10 @@ export class PasswordsService {
       const reset = this.repo.resetByHash(sha256Hex(req.token));
       const field = (message: string) => new ValidationError(message, [{ path: 'token', message }]);
       if (!reset) throw field('This reset link is not valid; check that you copied the whole link');
-      if (reset.usedAt !== null) throw field('This reset link has already been used; ask for a new one if you still need it');
-      if (reset.expiresAt <= this.clock.now()) throw field(`This reset link has expired (links last ${RESET_MINUTES} minutes); ask for a new one`);
+      if (reset.usedAt !== null)
+        throw field('This reset link has already been used; ask for a new one if you still need it');
+      if (reset.expiresAt <= this.clock.now())
+        throw field(`This reset link has expired (links last ${RESET_MINUTES} minutes); ask for a new one`);
       const user = this.users.findById(reset.userId);
       if (!user || !user.active) throw field('This reset link is not valid; check that you copied the whole link');
       return user;
@@ -70,7 +82,13 @@ export class PasswordsService {
     this.handle.sqlite.transaction(() => {
       const user = check();
       const now = this.clock.now();
-      this.users.update(user.id, { passwordHash, failedLogins: 0, lockedUntil: null, updatedAt: now, sessionsValidAfter: wholeSecond(now) });
+      this.users.update(user.id, {
+        passwordHash,
+        failedLogins: 0,
+        lockedUntil: null,
+        updatedAt: now,
+        sessionsValidAfter: wholeSecond(now),
+      });
       this.repo.useResets(user.id, now);
     })();
     return { message: 'Your password has been changed; sign in with the new one' };
@@ -78,15 +96,21 @@ export class PasswordsService {
 
   /** Ends the user's other sessions and returns a fresh one for the caller. */
   async change(user: AuthUser, req: ChangePasswordRequest): Promise<{ message: string } & LoginResponse> {
-    if (user.via !== 'session') throw new ForbiddenError('Change your password when signed in with it, not with an API token');
+    if (user.via !== 'session')
+      throw new ForbiddenError('Change your password when signed in with it, not with an API token');
     const row = this.users.findById(user.id);
     if (!row || !(await this.passwords.verify(req.current, row.passwordHash))) {
-      throw new ValidationError('Invalid body: current: is not your current password', [{ path: 'current', message: 'is not your current password' }]);
+      throw new ValidationError('Invalid body: current: is not your current password', [
+        { path: 'current', message: 'is not your current password' },
+      ]);
     }
     const passwordHash = await this.passwords.hash(req.next);
     const now = this.clock.now();
     const updated = this.users.update(user.id, { passwordHash, updatedAt: now, sessionsValidAfter: wholeSecond(now) })!;
-    return { message: 'Your password has been changed; your other sessions have been signed out', ...this.auth.issue(updated) };
+    return {
+      message: 'Your password has been changed; your other sessions have been signed out',
+      ...this.auth.issue(updated),
+    };
   }
 }
 

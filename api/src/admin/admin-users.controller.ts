@@ -1,6 +1,11 @@
 import { Body, Controller, Get, Param, Patch, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiBody, ApiOperation, ApiTags } from '@nestjs/swagger';
-import { adminUserPatchSchema, adminUsersQuerySchema, type AdminUserPatch, type AdminUsersQuery } from '@driftgrid/domain';
+import {
+  adminUserPatchSchema,
+  adminUsersQuerySchema,
+  type AdminUserPatch,
+  type AdminUsersQuery,
+} from '@driftgrid/domain';
 import { Roles } from '../auth/access.decorators.js';
 import { CurrentUser, type AuthUser } from '../auth/current-user.js';
 import { openApiSchema } from '../common/openapi.js';
@@ -24,7 +29,11 @@ export class AdminUsersController {
   @Patch(':id')
   @ApiOperation({ summary: 'Change a user’s role, active flag or name (the last active admin stays)' })
   @ApiBody({ schema: openApiSchema(adminUserPatchSchema) })
-  update(@CurrentUser() actor: AuthUser, @Param('id', new IdParamPipe()) id: number, @Body(new ZodValidationPipe(adminUserPatchSchema)) body: AdminUserPatch) {
+  update(
+    @CurrentUser() actor: AuthUser,
+    @Param('id', new IdParamPipe()) id: number,
+    @Body(new ZodValidationPipe(adminUserPatchSchema)) body: AdminUserPatch,
+  ) {
     return this.service.update(actor.id, id, body);
   }
 }

@@ -1,5 +1,12 @@
 import { Inject, Injectable } from '@nestjs/common';
-import { ConflictError, NotFoundError, type AdminUser, type AdminUserPatch, type AdminUsersQuery, type PageOf } from '@driftgrid/domain';
+import {
+  ConflictError,
+  NotFoundError,
+  type AdminUser,
+  type AdminUserPatch,
+  type AdminUsersQuery,
+  type PageOf,
+} from '@driftgrid/domain';
 import { Clock } from '../common/clock.js';
 import { DB_HANDLE } from '../db/db.module.js';
 import type { OpenedDatabase } from '../db/database.js';
@@ -8,8 +15,14 @@ import { AuditService } from './audit.service.js';
 
 export function toAdminUser(u: UserRow, now: number): AdminUser {
   return {
-    id: u.id, email: u.email, name: u.name, role: u.role, active: u.active,
-    locked: !!u.lockedUntil && u.lockedUntil > now, createdAt: u.createdAt, updatedAt: u.updatedAt,
+    id: u.id,
+    email: u.email,
+    name: u.name,
+    role: u.role,
+    active: u.active,
+    locked: !!u.lockedUntil && u.lockedUntil > now,
+    createdAt: u.createdAt,
+    updatedAt: u.updatedAt,
   };
 }
 
@@ -24,7 +37,12 @@ export class AdminUsersService {
 
   list(q: AdminUsersQuery): PageOf<AdminUser> {
     const now = this.clock.now();
-    const { items, total } = this.users.list({ q: q.q || undefined, role: q.role, offset: (q.page - 1) * q.pageSize, limit: q.pageSize });
+    const { items, total } = this.users.list({
+      q: q.q || undefined,
+      role: q.role,
+      offset: (q.page - 1) * q.pageSize,
+      limit: q.pageSize,
+    });
     return { items: items.map((u) => toAdminUser(u, now)), total, page: q.page, pageSize: q.pageSize };
   }
 
@@ -37,12 +55,21 @@ export class AdminUsersService {
     const run = this.handle.sqlite.transaction(() => {
       const user = this.users.findById(id);
       if (!user) throw new NotFoundError(`No user with id ${id}`);
-      const losesAdmin = user.role === 'admin' && user.active && ((patch.role !== undefined && patch.role !== 'admin') || patch.active === false);
+      const losesAdmin =
+        user.role === 'admin' &&
+        user.active &&
+        ((patch.role !== undefined && patch.role !== 'admin') || patch.active === false);
       if (losesAdmin && this.users.countActiveAdmins() <= 1) {
         const what = patch.active === false ? 'deactivated' : 'demoted';
-        throw new ConflictError(`${user.email} is the last active admin and cannot be ${what}; make another user an admin first`, [
-          { path: patch.active === false ? 'active' : 'role', message: 'the last active admin must stay an active admin' },
-        ]);
+        throw new ConflictError(
+          `${user.email} is the last active admin and cannot be ${what}; make another user an admin first`,
+          [
+            {
+              path: patch.active === false ? 'active' : 'role',
+              message: 'the last active admin must stay an active admin',
+            },
+          ],
+        );
       }
       const changes: Partial<UserRow> = {};
       if (patch.role !== undefined && patch.role !== user.role) changes.role = patch.role;

@@ -9,11 +9,20 @@ import { AuditRepository } from './audit.repository.js';
  */
 @Injectable()
 export class AuditService {
-  constructor(private readonly repo: AuditRepository, private readonly clock: Clock) {}
+  constructor(
+    private readonly repo: AuditRepository,
+    private readonly clock: Clock,
+  ) {}
 
   /** Synchronous, so it can sit inside the same transaction as the change it records. */
   record(actorId: number | null, action: string, target?: string | null, details?: Record<string, unknown>): void {
-    this.repo.insert({ actorId, action, target: target ?? null, details: details ? JSON.stringify(details) : null, createdAt: this.clock.now() });
+    this.repo.insert({
+      actorId,
+      action,
+      target: target ?? null,
+      details: details ? JSON.stringify(details) : null,
+      createdAt: this.clock.now(),
+    });
   }
 
   list(q: PageQuery): PageOf<AuditEntry> {

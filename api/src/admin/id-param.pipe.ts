@@ -9,7 +9,9 @@ export class IdParamPipe implements PipeTransform<string, number> {
   transform(value: string): number {
     const n = Number(value);
     if (!/^\d{1,15}$/.test(value) || !Number.isSafeInteger(n) || n < 1) {
-      throw new ValidationError(`Invalid path: ${this.name}: must be a positive whole number`, [{ path: this.name, message: 'must be a positive whole number' }]);
+      throw new ValidationError(`Invalid path: ${this.name}: must be a positive whole number`, [
+        { path: this.name, message: 'must be a positive whole number' },
+      ]);
     }
     return n;
   }

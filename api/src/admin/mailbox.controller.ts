@@ -13,7 +13,10 @@ import { IdParamPipe } from './id-param.pipe.js';
 @Roles('admin')
 @Controller('admin/mailbox')
 export class MailboxController {
-  constructor(private readonly repo: MailRepository, private readonly mail: MailService) {}
+  constructor(
+    private readonly repo: MailRepository,
+    private readonly mail: MailService,
+  ) {}
 
   @Get()
   @ApiOperation({ summary: 'Messages in the built-in mailbox, newest first, paged' })

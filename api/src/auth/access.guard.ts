@@ -12,12 +12,18 @@ import { API_TOKEN_PREFIX, TokenAuthenticator } from './token-authenticator.js';
  */
 @Injectable()
 export class AccessGuard extends AuthGuard('jwt') {
-  constructor(private readonly reflector: Reflector, private readonly tokens: TokenAuthenticator) {
+  constructor(
+    private readonly reflector: Reflector,
+    private readonly tokens: TokenAuthenticator,
+  ) {
     super();
   }
 
   override async canActivate(context: ExecutionContext): Promise<boolean> {
-    const access = this.reflector.getAllAndOverride<Access | undefined>(ACCESS_KEY, [context.getHandler(), context.getClass()]);
+    const access = this.reflector.getAllAndOverride<Access | undefined>(ACCESS_KEY, [
+      context.getHandler(),
+      context.getClass(),
+    ]);
     if (access?.kind === 'public') return true;
     const req = context.switchToHttp().getRequest<Request & { user?: AuthUser }>();
     const header = req.header('authorization') ?? '';
@@ -35,14 +41,21 @@ export class AccessGuard extends AuthGuard('jwt') {
     if (!access.roles.includes(user.role)) {
       throw new ForbiddenException(`This action needs the role ${access.roles.join(' or ')}; you are ${user.role}`);
     }
-    const writes = this.reflector.getAllAndOverride<boolean | undefined>(WRITE_KEY, [context.getHandler(), context.getClass()]);
+    const writes = this.reflector.getAllAndOverride<boolean | undefined>(WRITE_KEY, [
+      context.getHandler(),
+      context.getClass(),
+    ]);
     const mutating = writes ?? !['GET', 'HEAD', 'OPTIONS'].includes(req.method);
-    if (mutating && user.scope === 'read') throw new ForbiddenException('This API token has read scope; the action needs read-write');
+    if (mutating && user.scope === 'read')
+      throw new ForbiddenException('This API token has read scope; the action needs read-write');
     return true;
   }
 
   override handleRequest<TUser = AuthUser>(err: unknown, user: TUser | false): TUser {
-    if (err || !user) throw err instanceof UnauthorizedException ? err : new UnauthorizedException('Your session has expired or is invalid; sign in again');
+    if (err || !user)
+      throw err instanceof UnauthorizedException
+        ? err
+        : new UnauthorizedException('Your session has expired or is invalid; sign in again');
     return user;
   }
 }

@@ -12,7 +12,10 @@ import { CurrentUser, type AuthUser } from './current-user.js';
 @ApiTags('auth')
 @Controller('auth')
 export class AuthController {
-  constructor(private readonly auth: AuthService, private readonly me: MeService) {}
+  constructor(
+    private readonly auth: AuthService,
+    private readonly me: MeService,
+  ) {}
 
   @Post('login')
   @Public()

@@ -20,12 +20,18 @@ import { TokenAuthenticator } from './token-authenticator.js';
     LoginThrottlerModule,
     JwtModule.registerAsync({
       inject: [APP_CONFIG],
-      useFactory: (config: AppConfig) => ({ secret: config.jwtSecret, signOptions: { expiresIn: config.jwtExpiresIn as never } }),
+      useFactory: (config: AppConfig) => ({
+        secret: config.jwtSecret,
+        signOptions: { expiresIn: config.jwtExpiresIn as never },
+      }),
     }),
   ],
   controllers: [AuthController],
   providers: [
-    AuthService, PasswordService, JwtStrategy, MeService,
+    AuthService,
+    PasswordService,
+    JwtStrategy,
+    MeService,
     // Both come from global modules (tokens, quotas) registered by PeopleModule.
     { provide: TokenAuthenticator, useExisting: ApiTokenAuthenticator },
     { provide: AccountFacts, useExisting: QuotaAccountFacts },

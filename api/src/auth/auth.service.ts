@@ -28,10 +28,14 @@ export class AuthService {
     const ok = await this.passwords.verify(req.password, user?.passwordHash);
     const now = this.clock.now();
     // One message for unknown address, wrong password, inactive and locked: nothing reveals which.
-    if (!user || !user.active || (user.lockedUntil && user.lockedUntil > now)) throw new UnauthorizedException(BAD_CREDENTIALS);
+    if (!user || !user.active || (user.lockedUntil && user.lockedUntil > now))
+      throw new UnauthorizedException(BAD_CREDENTIALS);
     if (!ok) {
       const failed = user.failedLogins + 1;
-      this.users.update(user.id, failed >= MAX_FAILURES ? { failedLogins: 0, lockedUntil: now + LOCK_MS } : { failedLogins: failed });
+      this.users.update(
+        user.id,
+        failed >= MAX_FAILURES ? { failedLogins: 0, lockedUntil: now + LOCK_MS } : { failedLogins: failed },
+      );
       throw new UnauthorizedException(BAD_CREDENTIALS);
     }
     if (user.failedLogins || user.lockedUntil) this.users.update(user.id, { failedLogins: 0, lockedUntil: null });

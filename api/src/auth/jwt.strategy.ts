@@ -14,8 +14,15 @@ interface JwtPayload {
 /** Sign-in sessions: a short-lived JWT; the user is re-read so deactivation and role changes apply at once. */
 @Injectable()
 export class JwtStrategy extends PassportStrategy(Strategy, 'jwt') {
-  constructor(@Inject(APP_CONFIG) config: AppConfig, private readonly users: UsersRepository) {
-    super({ jwtFromRequest: ExtractJwt.fromAuthHeaderAsBearerToken(), secretOrKey: config.jwtSecret, ignoreExpiration: false });
+  constructor(
+    @Inject(APP_CONFIG) config: AppConfig,
+    private readonly users: UsersRepository,
+  ) {
+    super({
+      jwtFromRequest: ExtractJwt.fromAuthHeaderAsBearerToken(),
+      secretOrKey: config.jwtSecret,
+      ignoreExpiration: false,
+    });
   }
 
   validate(payload: JwtPayload): AuthUser {

@@ -11,7 +11,12 @@ export class MeService {
   constructor(private readonly extra: AccountFacts) {}
 
   describe(user: AuthUser) {
-    return { user: { id: user.id, email: user.email, name: user.name, role: user.role }, via: user.via, scope: user.scope, ...this.extra.facts(user) };
+    return {
+      user: { id: user.id, email: user.email, name: user.name, role: user.role },
+      via: user.via,
+      scope: user.scope,
+      ...this.extra.facts(user),
+    };
   }
 }
 

@@ -1,8 +1,15 @@
 import { Body, Controller, Get, Param, ParseIntPipe, Put, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiBody, ApiOperation, ApiTags } from '@nestjs/swagger';
 import {
-  foldSliceParams, resultsQuerySchema, seriesQuerySchema, sweepListQuerySchema, sweepSharingSchema,
-  type ResultsQuery, type SeriesQuery, type SweepListQuery, type SweepSharing,
+  foldSliceParams,
+  resultsQuerySchema,
+  seriesQuerySchema,
+  sweepListQuerySchema,
+  sweepSharingSchema,
+  type ResultsQuery,
+  type SeriesQuery,
+  type SweepListQuery,
+  type SweepSharing,
 } from '@driftgrid/domain';
 import { Roles, SignedIn } from '../auth/access.decorators.js';
 import { CurrentUser, type AuthUser } from '../auth/current-user.js';
@@ -22,7 +29,10 @@ export class CatalogueController {
 
   @Get()
   @SignedIn()
-  @ApiOperation({ summary: 'Catalogue of the sweeps you may see: paged, sorted, filtered by text, model, status, owner, tag, dates, points, scope' })
+  @ApiOperation({
+    summary:
+      'Catalogue of the sweeps you may see: paged, sorted, filtered by text, model, status, owner, tag, dates, points, scope',
+  })
   list(@CurrentUser() user: AuthUser, @Query(new ZodValidationPipe(sweepListQuerySchema, 'query')) q: SweepListQuery) {
     return this.catalogue.list(user, q);
   }
@@ -30,22 +40,35 @@ export class CatalogueController {
   @Get(':id/results')
   @SignedIn()
   @ApiOperation({ summary: 'A page of result rows: sort=col:dir, filter={"col":{"gte":…}}, valid=true|false' })
-  results(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number, @Query(new ZodValidationPipe(resultsQuerySchema, 'query')) q: ResultsQuery) {
+  results(
+    @CurrentUser() user: AuthUser,
+    @Param('id', ParseIntPipe) id: number,
+    @Query(new ZodValidationPipe(resultsQuerySchema, 'query')) q: ResultsQuery,
+  ) {
     return this.catalogue.results(user, id, q);
   }
 
   @Get(':id/series')
   @SignedIn()
-  @ApiOperation({ summary: 'Down-sampled plot data: kind=line (x, y, groupBy) or heatmap (x, y, z); slice.<param>=k or agg=mean; units on every axis' })
+  @ApiOperation({
+    summary:
+      'Down-sampled plot data: kind=line (x, y, groupBy) or heatmap (x, y, z); slice.<param>=k or agg=mean; units on every axis',
+  })
   series(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number, @Query(seriesQuery) q: SeriesQuery) {
     return this.catalogue.series(user, id, q);
   }
 
   @Put(':id/sharing')
   @Roles('researcher', 'admin')
-  @ApiOperation({ summary: 'Share read-only with named users and/or the whole group (owner or admin; 409 when archived)' })
+  @ApiOperation({
+    summary: 'Share read-only with named users and/or the whole group (owner or admin; 409 when archived)',
+  })
   @ApiBody({ schema: openApiSchema(sweepSharingSchema) })
-  share(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number, @Body(new ZodValidationPipe(sweepSharingSchema)) body: SweepSharing) {
+  share(
+    @CurrentUser() user: AuthUser,
+    @Param('id', ParseIntPipe) id: number,
+    @Body(new ZodValidationPipe(sweepSharingSchema)) body: SweepSharing,
+  ) {
     return this.catalogue.share(user, id, body);
   }
 }

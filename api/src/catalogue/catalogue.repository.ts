@@ -118,7 +118,9 @@ export class CatalogueRepository {
     // Sweeps not finished yet sort after the finished ones either way.
     const order = `${key === 'finishedAt' ? 's.finished_at IS NULL, ' : ''}${SORT_SQL[key]} ${direction}, s.id ${direction}`;
     const whereSql = where.join(' AND ');
-    const total = (this.db.prepare(`SELECT COUNT(*) AS n FROM sweeps s WHERE ${whereSql}`).get(...params) as { n: number }).n;
+    const total = (
+      this.db.prepare(`SELECT COUNT(*) AS n FROM sweeps s WHERE ${whereSql}`).get(...params) as { n: number }
+    ).n;
     const rows = this.db
       .prepare(
         `SELECT s.id, s.name, json_extract(s.definition, '$.description') AS description, s.model, s.status, s.points,
@@ -146,7 +148,9 @@ export class CatalogueRepository {
   /** Which of these ids are active users (for validating a share list). */
   activeUserIds(ids: readonly number[]): Set<number> {
     if (!ids.length) return new Set();
-    const rows = this.db.prepare(`SELECT id FROM users WHERE active = 1 AND id IN (${ids.map(() => '?').join(', ')})`).all(...ids) as { id: number }[];
+    const rows = this.db
+      .prepare(`SELECT id FROM users WHERE active = 1 AND id IN (${ids.map(() => '?').join(', ')})`)
+      .all(...ids) as { id: number }[];
     return new Set(rows.map((r) => r.id));
   }
 
@@ -158,7 +162,8 @@ export class CatalogueRepository {
       where.push(`name LIKE ? ESCAPE '\\'`);
       params.push(likePattern(q));
     }
-    return this.db.prepare(`SELECT id, name, role FROM users WHERE ${where.join(' AND ')} ORDER BY name COLLATE NOCASE, id LIMIT ?`)
+    return this.db
+      .prepare(`SELECT id, name, role FROM users WHERE ${where.join(' AND ')} ORDER BY name COLLATE NOCASE, id LIMIT ?`)
       .all(...params, limit) as { id: number; name: string; role: string }[];
   }
 }

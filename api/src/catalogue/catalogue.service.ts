@@ -1,6 +1,12 @@
 import { Injectable } from '@nestjs/common';
 import {
-  ConflictError, ValidationError, type ResultsQuery, type SeriesQuery, type SweepListQuery, type SweepSharing, type SweepSummary,
+  ConflictError,
+  ValidationError,
+  type ResultsQuery,
+  type SeriesQuery,
+  type SweepListQuery,
+  type SweepSharing,
+  type SweepSummary,
 } from '@driftgrid/domain';
 import type { AuthUser } from '../auth/current-user.js';
 import { columnByName, parseFilter } from '../sweeps/results-query.js';
@@ -69,10 +75,13 @@ export class CatalogueService {
    */
   share(user: AuthUser, id: number, body: SweepSharing) {
     const s = this.access.manageable(user, id);
-    if (s.status === 'archived') throw new ConflictError(`Sweep ${id} is archived: everyone signed in can read it and its sharing cannot change`);
+    if (s.status === 'archived')
+      throw new ConflictError(`Sweep ${id} is archived: everyone signed in can read it and its sharing cannot change`);
     const ids = [...new Set(body.userIds.filter((u) => u !== s.ownerId))];
     const known = this.repo.activeUserIds(ids);
-    const details = body.userIds.flatMap((u, i) => (u === s.ownerId || known.has(u) ? [] : [{ path: `userIds.${i}`, message: `no active user with id ${u}` }]));
+    const details = body.userIds.flatMap((u, i) =>
+      u === s.ownerId || known.has(u) ? [] : [{ path: `userIds.${i}`, message: `no active user with id ${u}` }],
+    );
     if (details.length) throw new ValidationError(`Invalid body: ${details[0].path}: ${details[0].message}`, details);
     this.repo.setSharing(id, body.visibility, ids);
     return this.sweeps.get(user, id);

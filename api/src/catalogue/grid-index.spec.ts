@@ -22,6 +22,15 @@ describe('grid index arithmetic', () => {
     // Axis 0 free, axis 1 fixed at 2, axis 2 fixed at 1: idx = a·8 + 2·2 + 1.
     expect(sliceIndices(strides, [0, 2, 1], [{ axis: 0, digits: [0, 1, 2] }])).toEqual([5, 13, 21]);
     // Axes 0 and 2 free, axis 1 at 3.
-    expect(sliceIndices(strides, [0, 3, 0], [{ axis: 0, digits: [0, 2] }, { axis: 2, digits: [0, 1] }])).toEqual([6, 7, 22, 23]);
+    expect(
+      sliceIndices(
+        strides,
+        [0, 3, 0],
+        [
+          { axis: 0, digits: [0, 2] },
+          { axis: 2, digits: [0, 1] },
+        ],
+      ),
+    ).toEqual([6, 7, 22, 23]);
   });
 });

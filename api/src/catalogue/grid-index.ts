@@ -29,7 +29,11 @@ export function strideDigits(count: number, maxValues: number): number[] {
  * Indices of the grid points where the `free` axes take the listed digits and every other axis is
  * held at `fixed[k]`. Returned in the order of the nested loops (first free axis outermost).
  */
-export function sliceIndices(strides: readonly number[], fixed: readonly number[], free: { axis: number; digits: readonly number[] }[]): number[] {
+export function sliceIndices(
+  strides: readonly number[],
+  fixed: readonly number[],
+  free: { axis: number; digits: readonly number[] }[],
+): number[] {
   let base = 0;
   const freeAxes = new Set(free.map((f) => f.axis));
   for (let k = 0; k < strides.length; k++) if (!freeAxes.has(k)) base += fixed[k] * strides[k];

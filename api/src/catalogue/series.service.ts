@@ -1,7 +1,14 @@
 import { Injectable } from '@nestjs/common';
 import {
-  compileSweep, getModel, ValidationError, type HeatmapSeries, type LineSeries, type ResolvedAxis, type SeriesAxis,
-  type SeriesFlag, type SeriesQuery,
+  compileSweep,
+  getModel,
+  ValidationError,
+  type HeatmapSeries,
+  type LineSeries,
+  type ResolvedAxis,
+  type SeriesAxis,
+  type SeriesFlag,
+  type SeriesQuery,
 } from '@driftgrid/domain';
 import { layoutOf } from '../sweeps/results-reader.js';
 import { columnByName, compileFilter, parseFilter, type ResultFilter } from '../sweeps/results-query.js';
@@ -56,9 +63,22 @@ export class SeriesService {
       filter.valid = { ...filter.valid, eq: q.valid };
     }
     const model = getModel(s.model);
-    const flags = model.flags.map((f) => ({ code: f.code, bit: f.bit, meaning: f.meaning, invalidates: f.invalidates }));
+    const flags = model.flags.map((f) => ({
+      code: f.code,
+      bit: f.bit,
+      meaning: f.meaning,
+      invalidates: f.invalidates,
+    }));
     const invalidMask = model.flags.reduce((m, f) => (f.invalidates ? m | (1 << f.bit) : m), 0);
-    return { s, layout, base: s.id * ROW_SPAN, ...this.design(s), filter: compileFilter(s.id, layout, filter), flags, invalidMask };
+    return {
+      s,
+      layout,
+      base: s.id * ROW_SPAN,
+      ...this.design(s),
+      filter: compileFilter(s.id, layout, filter),
+      flags,
+      invalidMask,
+    };
   }
 
   /** The sweep's resolved axes (definitions are immutable, so compiled once per sweep). */
@@ -75,7 +95,10 @@ export class SeriesService {
 
   private column(ctx: Ctx, name: string, path: string): StoredColumn {
     const c = columnByName(ctx.layout, name, path);
-    if (c.kind === 'flags') throw new ValidationError(`${path}: the flag mask cannot be plotted`, [{ path, message: 'pick an input, output or derived column' }]);
+    if (c.kind === 'flags')
+      throw new ValidationError(`${path}: the flag mask cannot be plotted`, [
+        { path, message: 'pick an input, output or derived column' },
+      ]);
     return c;
   }
 
@@ -99,12 +122,19 @@ export class SeriesService {
     for (const [param, k] of Object.entries(q.slice)) {
       const a = this.axisIndex(ctx, param);
       const path = `slice.${param}`;
-      if (a < 0) throw new ValidationError(`${path}: ${param} is not a swept input`, [{ path, message: `swept inputs: ${ctx.axes.map((x) => x.param).join(', ')}` }]);
-      if (k >= ctx.axes[a].count) throw new ValidationError(`${path}: index ${k} is past the last value`, [{ path, message: `at most ${ctx.axes[a].count - 1}` }]);
+      if (a < 0)
+        throw new ValidationError(`${path}: ${param} is not a swept input`, [
+          { path, message: `swept inputs: ${ctx.axes.map((x) => x.param).join(', ')}` },
+        ]);
+      if (k >= ctx.axes[a].count)
+        throw new ValidationError(`${path}: index ${k} is past the last value`, [
+          { path, message: `at most ${ctx.axes[a].count - 1}` },
+        ]);
       fixed[a] = k;
     }
     ctx.axes.forEach((a, k) => {
-      if (!free.includes(k)) slice[a.param] = { index: fixed[k], value: a.values ? a.values[fixed[k]] : Number.NaN, unit: a.unit };
+      if (!free.includes(k))
+        slice[a.param] = { index: fixed[k], value: a.values ? a.values[fixed[k]] : Number.NaN, unit: a.unit };
     });
     return { fixed, slice };
   }
@@ -116,7 +146,14 @@ export class SeriesService {
     const exprs = [this.expr(ctx, xc), this.expr(ctx, yc), gc ? this.expr(ctx, gc) : 'NULL'];
     const xa = this.axisIndex(ctx, xc.name);
     const ga = gc ? this.axisIndex(ctx, gc.name) : -1;
-    const head = { kind: 'line' as const, x: this.describe(ctx, xc), y: this.describe(ctx, yc), groupBy: gc ? this.describe(ctx, gc) : null, flags: ctx.flags, invalidMask: ctx.invalidMask };
+    const head = {
+      kind: 'line' as const,
+      x: this.describe(ctx, xc),
+      y: this.describe(ctx, yc),
+      groupBy: gc ? this.describe(ctx, gc) : null,
+      flags: ctx.flags,
+      invalidMask: ctx.invalidMask,
+    };
 
     let rows: (number | null)[][];
     let method: LineSeries['method'];
@@ -129,7 +166,10 @@ export class SeriesService {
       const fx = this.fixedDigits(ctx, q, free);
       slice = fx.slice;
       const xDigits = strideDigits(ctx.axes[xa].count, Math.floor(q.maxPoints / groupCount));
-      const spec = [...(ga >= 0 ? [{ axis: ga, digits: strideDigits(groupCount, groupCount) }] : []), { axis: xa, digits: xDigits }];
+      const spec = [
+        ...(ga >= 0 ? [{ axis: ga, digits: strideDigits(groupCount, groupCount) }] : []),
+        { axis: xa, digits: xDigits },
+      ];
       const indices = sliceIndices(gridStrides(ctx.axes.map((a) => a.count)), fx.fixed, spec);
       rows = this.repo.atIndices(ctx.base, indices, exprs, ctx.filter);
       method = 'grid-slice';
@@ -166,10 +206,16 @@ export class SeriesService {
     const xc = this.column(ctx, q.x, 'x');
     const yc = this.column(ctx, q.y, 'y');
     const zc = this.column(ctx, q.z!, 'z');
-    if (xc.name === yc.name) throw new ValidationError('x and y must differ', [{ path: 'y', message: 'pick a second input' }]);
+    if (xc.name === yc.name)
+      throw new ValidationError('x and y must differ', [{ path: 'y', message: 'pick a second input' }]);
     const xa = this.axisIndex(ctx, xc.name);
     const ya = this.axisIndex(ctx, yc.name);
-    const head = { kind: 'heatmap' as const, z: this.describe(ctx, zc), flags: ctx.flags, invalidMask: ctx.invalidMask };
+    const head = {
+      kind: 'heatmap' as const,
+      z: this.describe(ctx, zc),
+      flags: ctx.flags,
+      invalidMask: ctx.invalidMask,
+    };
     const zExpr = this.expr(ctx, zc);
 
     if (ctx.grid && xa >= 0 && ya >= 0) {
@@ -187,20 +233,39 @@ export class SeriesService {
       let slice: HeatmapSeries['slice'] = {};
       const digit = (a: number) => `(((id - ${ctx.base}) / ${strides[a]}) % ${ctx.axes[a].count})`;
       if (q.agg === 'mean') {
-        const keep = { where: `${digit(xa)} IN (SELECT value FROM json_each(?)) AND ${digit(ya)} IN (SELECT value FROM json_each(?))`, params: [] as unknown[] };
-        const rows = this.repo.cellMeans({ where: digit(xa), params: [] }, { where: digit(ya), params: [] }, zExpr, ctx.invalidMask, ctx.filter,
-          { ...keep, params: [JSON.stringify(xd), JSON.stringify(yd)] });
-        for (const [xi, yi, z, f] of rows) cells.push([xPos.get(xi!)!, yPos.get(yi!)!, z, (f ?? 0) >= 0.5 ? 1 : 0, f ?? 0]);
+        const keep = {
+          where: `${digit(xa)} IN (SELECT value FROM json_each(?)) AND ${digit(ya)} IN (SELECT value FROM json_each(?))`,
+          params: [] as unknown[],
+        };
+        const rows = this.repo.cellMeans(
+          { where: digit(xa), params: [] },
+          { where: digit(ya), params: [] },
+          zExpr,
+          ctx.invalidMask,
+          ctx.filter,
+          { ...keep, params: [JSON.stringify(xd), JSON.stringify(yd)] },
+        );
+        for (const [xi, yi, z, f] of rows)
+          cells.push([xPos.get(xi!)!, yPos.get(yi!)!, z, (f ?? 0) >= 0.5 ? 1 : 0, f ?? 0]);
         return { ...head, x, y, cells: sortCells(cells), method: 'grid-mean', zRange: zRange(cells), slice };
       }
       const fx = this.fixedDigits(ctx, q, [xa, ya]);
       slice = fx.slice;
-      const indices = sliceIndices(strides, fx.fixed, [{ axis: xa, digits: xd }, { axis: ya, digits: yd }]);
+      const indices = sliceIndices(strides, fx.fixed, [
+        { axis: xa, digits: xd },
+        { axis: ya, digits: yd },
+      ]);
       const rows = this.repo.atIndices(ctx.base, indices, [zExpr], ctx.filter);
       for (const [idx, z, mask] of rows) {
         const i = idx!;
         const bad = ((mask ?? 0) & ctx.invalidMask) !== 0 ? 1 : 0;
-        cells.push([xPos.get(Math.floor(i / strides[xa]) % X.count)!, yPos.get(Math.floor(i / strides[ya]) % Y.count)!, z, bad, bad]);
+        cells.push([
+          xPos.get(Math.floor(i / strides[xa]) % X.count)!,
+          yPos.get(Math.floor(i / strides[ya]) % Y.count)!,
+          z,
+          bad,
+          bad,
+        ]);
       }
       return { ...head, x, y, cells: sortCells(cells), method: 'grid-slice', zRange: zRange(cells), slice };
     }
@@ -209,12 +274,25 @@ export class SeriesService {
     const bins = Math.max(2, Math.min(MAX_BINS, Math.floor(Math.sqrt(q.maxPoints))));
     const bx = this.binning(ctx, xc, bins, 'x');
     const by = this.binning(ctx, yc, bins, 'y');
-    const rows = this.repo.cellMeans(bx.expr, by.expr, zExpr, ctx.invalidMask, ctx.filter, bx.keep && by.keep ? { where: `${bx.keep} AND ${by.keep}`, params: [] } : undefined);
-    const cells: HeatmapSeries['cells'] = rows.filter((r) => r[0] !== null && r[1] !== null)
+    const rows = this.repo.cellMeans(
+      bx.expr,
+      by.expr,
+      zExpr,
+      ctx.invalidMask,
+      ctx.filter,
+      bx.keep && by.keep ? { where: `${bx.keep} AND ${by.keep}`, params: [] } : undefined,
+    );
+    const cells: HeatmapSeries['cells'] = rows
+      .filter((r) => r[0] !== null && r[1] !== null)
       .map(([xi, yi, z, f]) => [xi!, yi!, z, (f ?? 0) >= 0.5 ? 1 : 0, f ?? 0]);
     return {
-      ...head, x: { ...this.describe(ctx, xc), values: bx.centres }, y: { ...this.describe(ctx, yc), values: by.centres },
-      cells: sortCells(cells), method: 'binned-mean', zRange: zRange(cells), slice: {},
+      ...head,
+      x: { ...this.describe(ctx, xc), values: bx.centres },
+      y: { ...this.describe(ctx, yc), values: by.centres },
+      cells: sortCells(cells),
+      method: 'binned-mean',
+      zRange: zRange(cells),
+      slice: {},
     };
   }
 
@@ -224,11 +302,16 @@ export class SeriesService {
     const axis = ctx.axes.find((a) => a.param === c.name);
     const log = axis?.kind === 'log';
     const r = axis ? [axis.min, axis.max] : this.repo.range(e, ctx.filter, false);
-    if (!r) throw new ValidationError(`${path}: ${c.name} has no finite values to plot`, [{ path, message: 'no finite values' }]);
+    if (!r)
+      throw new ValidationError(`${path}: ${c.name} has no finite values to plot`, [
+        { path, message: 'no finite values' },
+      ]);
     const [lo, hi] = log ? [Math.log(r[0]), Math.log(r[1])] : r;
     const width = hi > lo ? (hi - lo) / bins : 1;
     const v = log ? `ln(${e})` : e;
-    const centres = Array.from({ length: bins }, (_, i) => (log ? Math.exp(lo + (i + 0.5) * width) : lo + (i + 0.5) * width));
+    const centres = Array.from({ length: bins }, (_, i) =>
+      log ? Math.exp(lo + (i + 0.5) * width) : lo + (i + 0.5) * width,
+    );
     return {
       expr: { where: `MIN(${bins - 1}, MAX(0, CAST((${v} - ?) / ? AS INTEGER)))`, params: [lo, width] },
       keep: log ? `${e} > 0` : `${e} IS NOT NULL`,

@@ -1,7 +1,13 @@
 import { ArgumentsHost, Catch, HttpException, HttpStatus, Logger, type ExceptionFilter } from '@nestjs/common';
 import type { Request, Response } from 'express';
 import {
-  ConflictError, DomainError, ForbiddenError, NotFoundError, QuotaError, TooLargeError, ValidationError,
+  ConflictError,
+  DomainError,
+  ForbiddenError,
+  NotFoundError,
+  QuotaError,
+  TooLargeError,
+  ValidationError,
   type ErrorDetail,
 } from '@driftgrid/domain';
 
@@ -23,9 +29,18 @@ const DOMAIN_STATUS: [new (...a: never[]) => DomainError, number][] = [
 ];
 
 const REASON: Record<number, string> = {
-  400: 'Bad Request', 401: 'Unauthorized', 403: 'Forbidden', 404: 'Not Found', 405: 'Method Not Allowed',
-  409: 'Conflict', 413: 'Payload Too Large', 415: 'Unsupported Media Type', 422: 'Unprocessable Entity',
-  429: 'Too Many Requests', 500: 'Internal Server Error', 503: 'Service Unavailable',
+  400: 'Bad Request',
+  401: 'Unauthorized',
+  403: 'Forbidden',
+  404: 'Not Found',
+  405: 'Method Not Allowed',
+  409: 'Conflict',
+  413: 'Payload Too Large',
+  415: 'Unsupported Media Type',
+  422: 'Unprocessable Entity',
+  429: 'Too Many Requests',
+  500: 'Internal Server Error',
+  503: 'Service Unavailable',
 };
 
 /** Express body-parser errors carry `type` and `status`; map them without leaking their text. */
@@ -33,13 +48,22 @@ function bodyParserError(e: unknown): ErrorBody | null {
   const err = e as { type?: string; status?: number; limit?: number };
   if (!err || typeof err.type !== 'string' || typeof err.status !== 'number') return null;
   if (err.type === 'entity.parse.failed') {
-    return { statusCode: 400, error: REASON[400], message: 'Malformed JSON in the request body', details: [{ path: 'body', message: 'not valid JSON' }] };
+    return {
+      statusCode: 400,
+      error: REASON[400],
+      message: 'Malformed JSON in the request body',
+      details: [{ path: 'body', message: 'not valid JSON' }],
+    };
   }
   if (err.type === 'entity.too.large') {
     return { statusCode: 413, error: REASON[413], message: `Request body exceeds the limit of ${err.limit} bytes` };
   }
   if (err.status >= 400 && err.status < 500) {
-    return { statusCode: err.status, error: REASON[err.status] ?? 'Bad Request', message: 'The request body could not be read' };
+    return {
+      statusCode: err.status,
+      error: REASON[err.status] ?? 'Bad Request',
+      message: 'The request body could not be read',
+    };
   }
   return null;
 }
@@ -65,7 +89,12 @@ export class HttpErrorFilter implements ExceptionFilter {
   toBody(exception: unknown, requestId: string | undefined, req?: Request): ErrorBody {
     if (exception instanceof DomainError) {
       const status = DOMAIN_STATUS.find(([cls]) => exception instanceof cls)?.[1] ?? 400;
-      return { statusCode: status, error: REASON[status], message: exception.message, ...(exception.details ? { details: exception.details } : {}) };
+      return {
+        statusCode: status,
+        error: REASON[status],
+        message: exception.message,
+        ...(exception.details ? { details: exception.details } : {}),
+      };
     }
     if (exception instanceof HttpException) {
       // Nest wraps body-parser failures; report them in our own words, not the parser's.
@@ -92,7 +121,14 @@ export class HttpErrorFilter implements ExceptionFilter {
 
   private internal(exception: unknown, requestId: string | undefined, req?: Request): ErrorBody {
     const err = exception instanceof Error ? exception : new Error(String(exception));
-    this.logger.error(JSON.stringify({ requestId, method: req?.method, path: req?.path, error: err.message, stack: err.stack }));
-    return { statusCode: 500, error: REASON[500], message: 'Internal error; quote the request id when reporting it', requestId };
+    this.logger.error(
+      JSON.stringify({ requestId, method: req?.method, path: req?.path, error: err.message, stack: err.stack }),
+    );
+    return {
+      statusCode: 500,
+      error: REASON[500],
+      message: 'Internal error; quote the request id when reporting it',
+      requestId,
+    };
   }
 }

@@ -22,8 +22,14 @@ export function requestContext(config: Pick<AppConfig, 'logLevel'>) {
       const user = (req as Request & { user?: { id: number } }).user;
       process.stdout.write(
         JSON.stringify({
-          t: new Date().toISOString(), level: res.statusCode >= 500 ? 'error' : 'info', msg: 'request',
-          requestId: id, method: req.method, path: req.path, status: res.statusCode, ms: Math.round(ms * 10) / 10,
+          t: new Date().toISOString(),
+          level: res.statusCode >= 500 ? 'error' : 'info',
+          msg: 'request',
+          requestId: id,
+          method: req.method,
+          path: req.path,
+          status: res.statusCode,
+          ms: Math.round(ms * 10) / 10,
           userId: user?.id,
         }) + '\n',
       );

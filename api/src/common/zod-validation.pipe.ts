@@ -5,7 +5,10 @@ import type { z } from 'zod';
 /** Validates a body or query against a zod contract from domain/; errors name each field. */
 @Injectable()
 export class ZodValidationPipe<T extends z.ZodType> implements PipeTransform<unknown, z.infer<T>> {
-  constructor(private readonly schema: T, private readonly where: 'body' | 'query' = 'body') {}
+  constructor(
+    private readonly schema: T,
+    private readonly where: 'body' | 'query' = 'body',
+  ) {}
 
   transform(value: unknown): z.infer<T> {
     const result = this.schema.safeParse(value ?? {});

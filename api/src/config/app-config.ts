@@ -58,10 +58,14 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
   const seedDemo = e.DEMO_SEED === 'true' || (e.DEMO_SEED === 'auto' && e.NODE_ENV !== 'production');
   if (e.NODE_ENV === 'production' && !insecureAllowed) {
     if (e.JWT_SECRET === DEV_JWT_SECRET) {
-      throw new ConfigError('Refusing to start in production with the default JWT_SECRET; set JWT_SECRET (or ALLOW_INSECURE_DEMO=true for a trial).');
+      throw new ConfigError(
+        'Refusing to start in production with the default JWT_SECRET; set JWT_SECRET (or ALLOW_INSECURE_DEMO=true for a trial).',
+      );
     }
     if (seedDemo) {
-      throw new ConfigError('Refusing to seed demo users in production; unset DEMO_SEED (or ALLOW_INSECURE_DEMO=true for a trial).');
+      throw new ConfigError(
+        'Refusing to seed demo users in production; unset DEMO_SEED (or ALLOW_INSECURE_DEMO=true for a trial).',
+      );
     }
   }
   const dataDir = path.resolve(e.DATA_DIR);

@@ -29,11 +29,18 @@ export const envSchema = z.object({
   ALLOW_INSECURE_DEMO: z.enum(['true', 'false']).default('false'),
   /** Compute threads inside the api; default 1 without REDIS_URL, 0 with it (standalone workers). */
   EMBEDDED_WORKERS: z.coerce.number().int().min(0).max(64).optional(),
-  QUEUE_PREFIX: z.string().regex(/^[A-Za-z0-9_-]{1,32}$/, '1–32 letters, digits, - or _').default('dg'),
+  QUEUE_PREFIX: z
+    .string()
+    .regex(/^[A-Za-z0-9_-]{1,32}$/, '1–32 letters, digits, - or _')
+    .default('dg'),
   CHUNK_SIZE: z.coerce.number().int().min(100).max(100_000).default(5000),
   UI_DIST: z.string().optional(),
   LOG_LEVEL: z.enum(['debug', 'info', 'warn', 'error', 'silent']).default('info'),
-  UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(20 * 1024 * 1024),
+  UPLOAD_MAX_BYTES: z.coerce
+    .number()
+    .int()
+    .positive()
+    .default(20 * 1024 * 1024),
   UPLOAD_MAX_ROWS: z.coerce.number().int().positive().default(200_000),
   /** Sign-in and password-reset attempts per IP and e-mail address per window (default 10; 1000 under NODE_ENV=test). */
   LOGIN_THROTTLE_LIMIT: z.coerce.number().int().min(1).optional(),

@@ -22,5 +22,6 @@ export function assertDataDirUsable(config: Pick<AppConfig, 'dataDir' | 'dbFile'
   } catch {
     fail('it is not writable');
   }
-  if (fs.existsSync(config.dbFile) && !fs.statSync(config.dbFile).isFile()) fail(`${config.dbFile} exists but is not a file`);
+  if (fs.existsSync(config.dbFile) && !fs.statSync(config.dbFile).isFile())
+    fail(`${config.dbFile} exists but is not a file`);
 }

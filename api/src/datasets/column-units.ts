@@ -66,7 +66,9 @@ export function columnConversion(column: string, unitText: string | undefined): 
   const isTemperature = parsed.equalBase(kelvin);
   const match = isTemperature ? canonicalUnits[0] : canonicalUnits.find((c) => parsed.equalBase(c.parsed));
   const canonicalUnit = match?.unit ?? siForm(parsed);
-  const quantity = isTemperature ? 'temperature' : match?.quantity ?? (parsed.equalBase(math.unit('1 m/m') as Unit) ? 'dimensionless' : null);
+  const quantity = isTemperature
+    ? 'temperature'
+    : (match?.quantity ?? (parsed.equalBase(math.unit('1 m/m') as Unit) ? 'dimensionless' : null));
   if (match?.unit === 'eV' && !isTemperature && !isElectronvoltBased(parsed)) {
     // mathjs defines eV with an older e (1.602176565e-19 J); go through joules and CODATA 2018's exact e.
     const scale = tidy((math.unit(`1 ${text}`) as Unit).toNumber('J') / ELEMENTARY_CHARGE);
@@ -81,7 +83,11 @@ export function columnConversion(column: string, unitText: string | undefined): 
 
 /** eV with any SI prefix (keV, MeV): converts to eV exactly, whatever e mathjs assumes. */
 function isElectronvoltBased(u: Unit): boolean {
-  return u.units.length === 1 && u.units[0].power === 1 && ['eV', 'electronvolt', 'electronvolts'].includes(u.units[0].unit.name);
+  return (
+    u.units.length === 1 &&
+    u.units[0].power === 1 &&
+    ['eV', 'electronvolt', 'electronvolts'].includes(u.units[0].unit.name)
+  );
 }
 
 const tidy = (x: number) => (Number.isFinite(x) && x !== 0 ? Number(x.toPrecision(15)) : x);

@@ -1,7 +1,15 @@
 import { parse, type CsvError } from 'csv-parse/sync';
 import {
-  CSV_MISSING, CSV_NUMBER, DATASET_COLUMN_NAME_MAX, DATASET_ERROR_CAP, DATASET_MAX_COLUMNS, TooLargeError, ValidationError,
-  type DatasetColumn, type DatasetUnits, type ErrorDetail,
+  CSV_MISSING,
+  CSV_NUMBER,
+  DATASET_COLUMN_NAME_MAX,
+  DATASET_ERROR_CAP,
+  DATASET_MAX_COLUMNS,
+  TooLargeError,
+  ValidationError,
+  type DatasetColumn,
+  type DatasetUnits,
+  type ErrorDetail,
 } from '@driftgrid/domain';
 import { columnConversion, toCanonical, type ColumnConversion } from './column-units.js';
 
@@ -35,10 +43,12 @@ const isNumber = (s: string) => CSV_NUMBER.test(s);
  */
 export function parseDatasetCsv(input: Buffer, opts: { maxRows: number; units?: DatasetUnits }): ParsedDataset {
   const records = readRecords(input, opts.maxRows);
-  if (records.length === 0) throw invalid('The file is empty; expected a header row and data rows', [{ path: 'file', message: 'no rows' }]);
+  if (records.length === 0)
+    throw invalid('The file is empty; expected a header row and data rows', [{ path: 'file', message: 'no rows' }]);
   const header = checkHeader(records[0]);
   const data = records.slice(1);
-  if (data.length === 0) throw invalid('The file has a header row but no data rows', [{ path: 'file', line: 2, message: 'no data rows' }]);
+  if (data.length === 0)
+    throw invalid('The file has a header row but no data rows', [{ path: 'file', line: 2, message: 'no data rows' }]);
   if (data.length > opts.maxRows) {
     throw new TooLargeError(`The file has more than ${opts.maxRows} data rows, the upload limit (UPLOAD_MAX_ROWS)`, [
       { path: 'file', message: `at most ${opts.maxRows} data rows` },
@@ -48,7 +58,9 @@ export function parseDatasetCsv(input: Buffer, opts: { maxRows: number; units?: 
   const units = opts.units ?? {};
   for (const name of Object.keys(units)) {
     if (!header.includes(name)) {
-      throw invalid(`units names a column the file does not have: "${name}"`, [{ path: `units.${name}`, column: name, message: `no such column; the header has ${header.join(', ')}` }]);
+      throw invalid(`units names a column the file does not have: "${name}"`, [
+        { path: `units.${name}`, column: name, message: `no such column; the header has ${header.join(', ')}` },
+      ]);
     }
   }
   const unitDetails: ErrorDetail[] = [];
@@ -61,7 +73,11 @@ export function parseDatasetCsv(input: Buffer, opts: { maxRows: number; units?: 
       return null;
     }
   });
-  if (unitDetails.length) throw new ValidationError(`Unknown unit for column "${unitDetails[0].column}": ${unitDetails[0].message}`, unitDetails);
+  if (unitDetails.length)
+    throw new ValidationError(
+      `Unknown unit for column "${unitDetails[0].column}": ${unitDetails[0].message}`,
+      unitDetails,
+    );
 
   const problems: RowProblem[] = [];
   const width = header.length;
@@ -76,9 +92,17 @@ export function parseDatasetCsv(input: Buffer, opts: { maxRows: number; units?: 
     for (const r of data) {
       const cell = (r.record[j] ?? '').trim();
       if (!CSV_MISSING.has(cell) && !isNumber(cell)) {
-        problems.push({ line: r.info.lines, column: name, message: `"${cell.slice(0, 40)}" is not a number; the column is numeric${conversions[j] ? ` (unit ${conversions[j]!.unit})` : ''}: fix the cell or leave it empty` });
+        problems.push({
+          line: r.info.lines,
+          column: name,
+          message: `"${cell.slice(0, 40)}" is not a number; the column is numeric${conversions[j] ? ` (unit ${conversions[j]!.unit})` : ''}: fix the cell or leave it empty`,
+        });
       } else if (isNumber(cell) && !Number.isFinite(Number(cell))) {
-        problems.push({ line: r.info.lines, column: name, message: `"${cell.slice(0, 40)}" is outside the range of a double` });
+        problems.push({
+          line: r.info.lines,
+          column: name,
+          message: `"${cell.slice(0, 40)}" is outside the range of a double`,
+        });
       }
     }
   });
@@ -87,7 +111,13 @@ export function parseDatasetCsv(input: Buffer, opts: { maxRows: number; units?: 
   const columns: DatasetColumn[] = header.map((name, j) => {
     const c = conversions[j];
     if (kinds[j] === 'text') return { name, kind: 'text', unit: '', canonicalUnit: '', quantity: null };
-    return { name, kind: 'number', unit: c?.unit ?? '', canonicalUnit: c?.canonicalUnit ?? '1', quantity: c?.quantity ?? null };
+    return {
+      name,
+      kind: 'number',
+      unit: c?.unit ?? '',
+      canonicalUnit: c?.canonicalUnit ?? '1',
+      quantity: c?.quantity ?? null,
+    };
   });
   const rows = data.map((r) =>
     r.record.map((raw, j): Cell => {
@@ -104,13 +134,24 @@ export function parseDatasetCsv(input: Buffer, opts: { maxRows: number; units?: 
 function readRecords(input: Buffer, maxRows: number): RawRecord[] {
   try {
     // `to` stops reading one record past the limit: enough to know the file is too long.
-    return parse(input, { bom: true, relax_column_count: true, skip_empty_lines: true, info: true, to: maxRows + 2 }) as unknown as RawRecord[];
+    return parse(input, {
+      bom: true,
+      relax_column_count: true,
+      skip_empty_lines: true,
+      info: true,
+      to: maxRows + 2,
+    }) as unknown as RawRecord[];
   } catch (err) {
     const e = err as CsvError & { lines?: number };
     if (typeof e.code === 'string' && e.code.startsWith('CSV_')) {
       const line = typeof e.lines === 'number' ? e.lines : undefined;
-      const message = e.code === 'CSV_QUOTE_NOT_CLOSED' ? 'a quoted field is never closed' : e.message.replace(/^Invalid \w+:?\s*/, '').slice(0, 200);
-      throw invalid(`The file is not valid CSV${line ? ` at line ${line}` : ''}: ${message}`, [{ path: 'file', ...(line ? { line } : {}), message }]);
+      const message =
+        e.code === 'CSV_QUOTE_NOT_CLOSED'
+          ? 'a quoted field is never closed'
+          : e.message.replace(/^Invalid \w+:?\s*/, '').slice(0, 200);
+      throw invalid(`The file is not valid CSV${line ? ` at line ${line}` : ''}: ${message}`, [
+        { path: 'file', ...(line ? { line } : {}), message },
+      ]);
     }
     throw err;
   }
@@ -120,18 +161,29 @@ function readRecords(input: Buffer, maxRows: number): RawRecord[] {
 function checkHeader(first: RawRecord): string[] {
   const names = first.record.map((s) => s.trim());
   if (names.length > DATASET_MAX_COLUMNS) {
-    throw invalid(`The file has ${names.length} columns; at most ${DATASET_MAX_COLUMNS} are allowed`, [{ path: 'file', line: 1, message: `at most ${DATASET_MAX_COLUMNS} columns` }]);
+    throw invalid(`The file has ${names.length} columns; at most ${DATASET_MAX_COLUMNS} are allowed`, [
+      { path: 'file', line: 1, message: `at most ${DATASET_MAX_COLUMNS} columns` },
+    ]);
   }
   if (names.every((n) => isNumber(n) || n === '')) {
-    throw invalid('The first row holds numbers, not column names: add a header row (for example "phi,n")', [{ path: 'file', line: 1, message: 'missing header row' }]);
+    throw invalid('The first row holds numbers, not column names: add a header row (for example "phi,n")', [
+      { path: 'file', line: 1, message: 'missing header row' },
+    ]);
   }
   const problems: RowProblem[] = [];
   const seen = new Set<string>();
   names.forEach((n, j) => {
     const col = `#${j + 1}`;
-    if (n === '') problems.push({ line: first.info.lines, column: col, message: `column ${j + 1} has no name in the header` });
-    else if (n.length > DATASET_COLUMN_NAME_MAX) problems.push({ line: first.info.lines, column: col, message: `the name is longer than ${DATASET_COLUMN_NAME_MAX} characters` });
-    else if (seen.has(n)) problems.push({ line: first.info.lines, column: n, message: `the name "${n}" appears twice in the header` });
+    if (n === '')
+      problems.push({ line: first.info.lines, column: col, message: `column ${j + 1} has no name in the header` });
+    else if (n.length > DATASET_COLUMN_NAME_MAX)
+      problems.push({
+        line: first.info.lines,
+        column: col,
+        message: `the name is longer than ${DATASET_COLUMN_NAME_MAX} characters`,
+      });
+    else if (seen.has(n))
+      problems.push({ line: first.info.lines, column: n, message: `the name "${n}" appears twice in the header` });
     seen.add(n);
   });
   if (problems.length) throw rowErrors(problems);
@@ -164,8 +216,16 @@ function rowErrors(problems: RowProblem[]): ValidationError {
   const shown = problems.slice(0, DATASET_ERROR_CAP);
   const more = problems.length > shown.length ? ` (showing the first ${DATASET_ERROR_CAP} of ${problems.length})` : '';
   const p = shown[0];
-  const details: ErrorDetail[] = shown.map((x) => ({ path: 'file', line: x.line, ...(x.column ? { column: x.column } : {}), message: x.message }));
-  return new ValidationError(`The file has ${problems.length} problem${problems.length === 1 ? '' : 's'}${more}; first at line ${p.line}${p.column ? `, column ${p.column}` : ''}: ${p.message}`, details);
+  const details: ErrorDetail[] = shown.map((x) => ({
+    path: 'file',
+    line: x.line,
+    ...(x.column ? { column: x.column } : {}),
+    message: x.message,
+  }));
+  return new ValidationError(
+    `The file has ${problems.length} problem${problems.length === 1 ? '' : 's'}${more}; first at line ${p.line}${p.column ? `, column ${p.column}` : ''}: ${p.message}`,
+    details,
+  );
 }
 
 function invalid(message: string, details: ErrorDetail[]): ValidationError {

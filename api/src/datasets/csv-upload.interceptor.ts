@@ -56,13 +56,19 @@ export class CsvUploadInterceptor implements NestInterceptor {
     if (err instanceof multer.MulterError) {
       if (err.code === 'LIMIT_FILE_SIZE') return this.tooLarge();
       if (err.code === 'LIMIT_UNEXPECTED_FILE') {
-        return new ValidationError(`Unexpected file field "${err.field}"; send the CSV in the field "file"`, [{ path: err.field ?? 'file', message: 'only the field "file" may hold a file' }]);
+        return new ValidationError(`Unexpected file field "${err.field}"; send the CSV in the field "file"`, [
+          { path: err.field ?? 'file', message: 'only the field "file" may hold a file' },
+        ]);
       }
-      return new ValidationError(`The upload could not be read: ${err.message}`, [{ path: err.field ?? 'file', message: err.message }]);
+      return new ValidationError(`The upload could not be read: ${err.message}`, [
+        { path: err.field ?? 'file', message: err.message },
+      ]);
     }
     const e = err as { message?: string };
     if (e?.message && /multipart|boundary|Unexpected end of form/i.test(e.message)) {
-      return new ValidationError('The request is not a well-formed multipart upload', [{ path: 'file', message: 'send multipart/form-data with the CSV in the field "file"' }]);
+      return new ValidationError('The request is not a well-formed multipart upload', [
+        { path: 'file', message: 'send multipart/form-data with the CSV in the field "file"' },
+      ]);
     }
     return err instanceof Error ? err : new Error(String(err));
   }

@@ -1,8 +1,28 @@
-import { Body, Controller, Delete, Get, HttpCode, Param, Post, Put, Query, UploadedFile, UseInterceptors } from '@nestjs/common';
+import {
+  Body,
+  Controller,
+  Delete,
+  Get,
+  HttpCode,
+  Param,
+  Post,
+  Put,
+  Query,
+  UploadedFile,
+  UseInterceptors,
+} from '@nestjs/common';
 import { ApiBearerAuth, ApiBody, ApiConsumes, ApiOperation, ApiTags } from '@nestjs/swagger';
 import {
-  datasetListQuerySchema, datasetRowsQuerySchema, datasetSeriesQuerySchema, datasetSharingSchema, datasetUploadFieldsSchema,
-  type DatasetListQuery, type DatasetRowsQuery, type DatasetSeriesQuery, type DatasetSharing, type DatasetUploadFields,
+  datasetListQuerySchema,
+  datasetRowsQuerySchema,
+  datasetSeriesQuerySchema,
+  datasetSharingSchema,
+  datasetUploadFieldsSchema,
+  type DatasetListQuery,
+  type DatasetRowsQuery,
+  type DatasetSeriesQuery,
+  type DatasetSharing,
+  type DatasetUploadFields,
 } from '@driftgrid/domain';
 import { IdParamPipe } from '../admin/id-param.pipe.js';
 import { Roles, SignedIn } from '../auth/access.decorators.js';
@@ -22,7 +42,10 @@ export class DatasetsController {
   @Roles('researcher', 'admin')
   @UseInterceptors(CsvUploadInterceptor)
   @ApiConsumes('multipart/form-data')
-  @ApiOperation({ summary: 'Upload a CSV with a header row: 201 { id, name, rows, columns }; 400 with line/column details; 413 over the limits' })
+  @ApiOperation({
+    summary:
+      'Upload a CSV with a header row: 201 { id, name, rows, columns }; 400 with line/column details; 413 over the limits',
+  })
   @ApiBody({
     schema: {
       type: 'object',
@@ -30,19 +53,29 @@ export class DatasetsController {
       properties: {
         file: { type: 'string', format: 'binary' },
         name: { type: 'string' },
-        units: { type: 'string', description: 'JSON object { column: unit }, mathjs unit strings, e.g. {"phi":"V","n":"cm^-3"}' },
+        units: {
+          type: 'string',
+          description: 'JSON object { column: unit }, mathjs unit strings, e.g. {"phi":"V","n":"cm^-3"}',
+        },
         visibility: { type: 'string', enum: ['private', 'group'] },
       },
     },
   })
-  upload(@CurrentUser() user: AuthUser, @UploadedFile() file: UploadedCsv | undefined, @Body(new ZodValidationPipe(datasetUploadFieldsSchema)) fields: DatasetUploadFields) {
+  upload(
+    @CurrentUser() user: AuthUser,
+    @UploadedFile() file: UploadedCsv | undefined,
+    @Body(new ZodValidationPipe(datasetUploadFieldsSchema)) fields: DatasetUploadFields,
+  ) {
     return this.datasets.upload(user, file, fields);
   }
 
   @Get()
   @SignedIn()
   @ApiOperation({ summary: 'Datasets the caller may read (own, group, shared; admins all), newest first' })
-  list(@CurrentUser() user: AuthUser, @Query(new ZodValidationPipe(datasetListQuerySchema, 'query')) q: DatasetListQuery) {
+  list(
+    @CurrentUser() user: AuthUser,
+    @Query(new ZodValidationPipe(datasetListQuerySchema, 'query')) q: DatasetListQuery,
+  ) {
     return this.datasets.list(user, q);
   }
 
@@ -56,14 +89,22 @@ export class DatasetsController {
   @Get(':id/rows')
   @SignedIn()
   @ApiOperation({ summary: 'A page of rows (cells in column order, numbers in canonical units)' })
-  rows(@CurrentUser() user: AuthUser, @Param('id', new IdParamPipe()) id: number, @Query(new ZodValidationPipe(datasetRowsQuerySchema, 'query')) q: DatasetRowsQuery) {
+  rows(
+    @CurrentUser() user: AuthUser,
+    @Param('id', new IdParamPipe()) id: number,
+    @Query(new ZodValidationPipe(datasetRowsQuerySchema, 'query')) q: DatasetRowsQuery,
+  ) {
     return this.datasets.rows(user, id, q);
   }
 
   @Get(':id/series')
   @SignedIn()
   @ApiOperation({ summary: 'Points of two numeric columns in canonical units, for overlays on sweep plots' })
-  series(@CurrentUser() user: AuthUser, @Param('id', new IdParamPipe()) id: number, @Query(new ZodValidationPipe(datasetSeriesQuerySchema, 'query')) q: DatasetSeriesQuery) {
+  series(
+    @CurrentUser() user: AuthUser,
+    @Param('id', new IdParamPipe()) id: number,
+    @Query(new ZodValidationPipe(datasetSeriesQuerySchema, 'query')) q: DatasetSeriesQuery,
+  ) {
     return this.datasets.series(user, id, q);
   }
 
@@ -71,7 +112,11 @@ export class DatasetsController {
   @Roles('researcher', 'admin')
   @ApiOperation({ summary: 'Set visibility (private | group) and the users it is shared with (owner or admin)' })
   @ApiBody({ schema: openApiSchema(datasetSharingSchema) })
-  share(@CurrentUser() user: AuthUser, @Param('id', new IdParamPipe()) id: number, @Body(new ZodValidationPipe(datasetSharingSchema)) body: DatasetSharing) {
+  share(
+    @CurrentUser() user: AuthUser,
+    @Param('id', new IdParamPipe()) id: number,
+    @Body(new ZodValidationPipe(datasetSharingSchema)) body: DatasetSharing,
+  ) {
     return this.datasets.setSharing(user, id, body);
   }
 

@@ -42,16 +42,28 @@ export class DatasetsRepository {
   }
 
   findById(id: number): DatasetRow | undefined {
-    return this.db.select().from(datasets).where(and(eq(datasets.id, id), isNull(datasets.deletedAt))).get();
+    return this.db
+      .select()
+      .from(datasets)
+      .where(and(eq(datasets.id, id), isNull(datasets.deletedAt)))
+      .get();
   }
 
   isSharedWith(id: number, userId: number): boolean {
-    return !!this.db.select({ u: datasetShares.userId }).from(datasetShares)
-      .where(and(eq(datasetShares.datasetId, id), eq(datasetShares.userId, userId))).get();
+    return !!this.db
+      .select({ u: datasetShares.userId })
+      .from(datasetShares)
+      .where(and(eq(datasetShares.datasetId, id), eq(datasetShares.userId, userId)))
+      .get();
   }
 
   sharedWith(id: number): number[] {
-    return this.db.select({ u: datasetShares.userId }).from(datasetShares).where(eq(datasetShares.datasetId, id)).all().map((r) => r.u);
+    return this.db
+      .select({ u: datasetShares.userId })
+      .from(datasetShares)
+      .where(eq(datasetShares.datasetId, id))
+      .all()
+      .map((r) => r.u);
   }
 
   ownerName(ownerId: number): string {
@@ -60,7 +72,14 @@ export class DatasetsRepository {
 
   existingUserIds(ids: number[]): Set<number> {
     if (!ids.length) return new Set();
-    return new Set(this.db.select({ id: users.id }).from(users).where(inArray(users.id, ids)).all().map((r) => r.id));
+    return new Set(
+      this.db
+        .select({ id: users.id })
+        .from(users)
+        .where(inArray(users.id, ids))
+        .all()
+        .map((r) => r.id),
+    );
   }
 
   /** The datasets a user may read (owner, admin: all, group visibility, shared), newest first. */
@@ -68,7 +87,9 @@ export class DatasetsRepository {
     const where: string[] = ['d.deleted_at IS NULL'];
     const params: (string | number)[] = [];
     if (viewer.role !== 'admin') {
-      where.push(`(d.owner_id = ? OR d.visibility = 'group' OR EXISTS (SELECT 1 FROM dataset_shares s WHERE s.dataset_id = d.id AND s.user_id = ?))`);
+      where.push(
+        `(d.owner_id = ? OR d.visibility = 'group' OR EXISTS (SELECT 1 FROM dataset_shares s WHERE s.dataset_id = d.id AND s.user_id = ?))`,
+      );
       params.push(viewer.id, viewer.id);
     }
     if (q.text) {
@@ -77,9 +98,13 @@ export class DatasetsRepository {
       params.push(like, like);
     }
     const clause = where.join(' AND ');
-    const total = (this.sqlite.prepare(`SELECT COUNT(*) AS n FROM datasets d WHERE ${clause}`).get(...params) as { n: number }).n;
-    const ids = this.sqlite.prepare(`SELECT d.id FROM datasets d WHERE ${clause} ORDER BY d.created_at DESC, d.id DESC LIMIT ? OFFSET ?`)
-      .pluck().all(...params, q.pageSize, (q.page - 1) * q.pageSize) as number[];
+    const total = (
+      this.sqlite.prepare(`SELECT COUNT(*) AS n FROM datasets d WHERE ${clause}`).get(...params) as { n: number }
+    ).n;
+    const ids = this.sqlite
+      .prepare(`SELECT d.id FROM datasets d WHERE ${clause} ORDER BY d.created_at DESC, d.id DESC LIMIT ? OFFSET ?`)
+      .pluck()
+      .all(...params, q.pageSize, (q.page - 1) * q.pageSize) as number[];
     const items = ids.length ? this.db.select().from(datasets).where(inArray(datasets.id, ids)).all() : [];
     const order = new Map(ids.map((id, i) => [id, i]));
     items.sort((a, b) => order.get(a.id)! - order.get(b.id)!);
@@ -88,8 +113,10 @@ export class DatasetsRepository {
 
   rowsPage(id: number, page: number, pageSize: number): { row: number; cells: Cell[] }[] {
     const { lo, hi } = datasetRowRange(id);
-    const rows = this.sqlite.prepare('SELECT id, cells FROM dataset_rows WHERE id BETWEEN ? AND ? ORDER BY id LIMIT ? OFFSET ?')
-      .raw(true).all(lo, hi, pageSize, (page - 1) * pageSize) as [number, string][];
+    const rows = this.sqlite
+      .prepare('SELECT id, cells FROM dataset_rows WHERE id BETWEEN ? AND ? ORDER BY id LIMIT ? OFFSET ?')
+      .raw(true)
+      .all(lo, hi, pageSize, (page - 1) * pageSize) as [number, string][];
     return rows.map(([rid, cells]) => ({ row: rid - lo, cells: JSON.parse(cells) as Cell[] }));
   }
 
@@ -99,7 +126,9 @@ export class DatasetsRepository {
    */
   *iterateRows(id: number): Generator<Cell[]> {
     const { lo, hi } = datasetRowRange(id);
-    const stmt = this.sqlite.prepare('SELECT id, cells FROM dataset_rows WHERE id > ? AND id <= ? ORDER BY id LIMIT ?').raw(true);
+    const stmt = this.sqlite
+      .prepare('SELECT id, cells FROM dataset_rows WHERE id > ? AND id <= ? ORDER BY id LIMIT ?')
+      .raw(true);
     let after = lo - 1;
     for (;;) {
       const batch = stmt.all(after, hi, BATCH) as [number, string][];
@@ -111,11 +140,16 @@ export class DatasetsRepository {
 
   setSharing(id: number, patch: { visibility?: 'private' | 'group'; userIds?: number[] }): void {
     this.sqlite.transaction(() => {
-      if (patch.visibility) this.db.update(datasets).set({ visibility: patch.visibility }).where(eq(datasets.id, id)).run();
+      if (patch.visibility)
+        this.db.update(datasets).set({ visibility: patch.visibility }).where(eq(datasets.id, id)).run();
       if (patch.userIds) {
         this.db.delete(datasetShares).where(eq(datasetShares.datasetId, id)).run();
         const unique = [...new Set(patch.userIds)];
-        if (unique.length) this.db.insert(datasetShares).values(unique.map((userId) => ({ datasetId: id, userId }))).run();
+        if (unique.length)
+          this.db
+            .insert(datasetShares)
+            .values(unique.map((userId) => ({ datasetId: id, userId })))
+            .run();
       }
     })();
   }

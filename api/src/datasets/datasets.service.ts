@@ -1,9 +1,19 @@
 import { createHash } from 'node:crypto';
 import { Inject, Injectable } from '@nestjs/common';
 import {
-  ForbiddenError, NotFoundError, ValidationError,
-  type DatasetColumn, type DatasetListQuery, type DatasetRowsPage, type DatasetRowsQuery, type DatasetSeries,
-  type DatasetSeriesQuery, type DatasetSharing, type DatasetUploadFields, type DatasetUploadResult, type DatasetView,
+  ForbiddenError,
+  NotFoundError,
+  ValidationError,
+  type DatasetColumn,
+  type DatasetListQuery,
+  type DatasetRowsPage,
+  type DatasetRowsQuery,
+  type DatasetSeries,
+  type DatasetSeriesQuery,
+  type DatasetSharing,
+  type DatasetUploadFields,
+  type DatasetUploadResult,
+  type DatasetView,
 } from '@driftgrid/domain';
 import type { AuthUser } from '../auth/current-user.js';
 import { Clock } from '../common/clock.js';
@@ -20,7 +30,11 @@ export interface UploadedCsv {
 /** A display name from the client's file name: base name only, no extension, printable characters. */
 function nameFromFile(fileName: string | undefined): string {
   const base = (fileName ?? '').split(/[\\/]/).pop() ?? '';
-  const clean = base.replace(/\.[^.]*$/, '').replace(/[\u0000-\u001f\u007f]/g, '').trim().slice(0, 200);
+  const clean = base
+    .replace(/\.[^.]*$/, '')
+    .replace(/[\u0000-\u001f\u007f]/g, '')
+    .trim()
+    .slice(0, 200);
   return clean || 'Uploaded dataset';
 }
 
@@ -37,7 +51,10 @@ export class DatasetsService {
   ) {}
 
   upload(user: AuthUser, file: UploadedCsv | undefined, fields: DatasetUploadFields): DatasetUploadResult {
-    if (!file) throw new ValidationError('No file uploaded: send the CSV in the multipart field "file"', [{ path: 'file', message: 'required' }]);
+    if (!file)
+      throw new ValidationError('No file uploaded: send the CSV in the multipart field "file"', [
+        { path: 'file', message: 'required' },
+      ]);
     const parsed = parseDatasetCsv(file.buffer, { maxRows: this.config.uploadMaxRows, units: fields.units });
     const fileName = file.originalname ? (file.originalname.split(/[\\/]/).pop() ?? '').slice(0, 255) : null;
     const d = this.repo.insert(
@@ -70,7 +87,8 @@ export class DatasetsService {
 
   manageable(user: AuthUser, id: number): DatasetRow {
     const d = this.readable(user, id);
-    if (user.role !== 'admin' && d.ownerId !== user.id) throw new ForbiddenError('Only the owner or an admin may change this dataset');
+    if (user.role !== 'admin' && d.ownerId !== user.id)
+      throw new ForbiddenError('Only the owner or an admin may change this dataset');
     return d;
   }
 
@@ -100,7 +118,13 @@ export class DatasetsService {
 
   rows(user: AuthUser, id: number, q: DatasetRowsQuery): DatasetRowsPage {
     const d = this.readable(user, id);
-    return { items: this.repo.rowsPage(id, q.page, q.pageSize), total: d.rows, page: q.page, pageSize: q.pageSize, columns: columnsOf(d) };
+    return {
+      items: this.repo.rowsPage(id, q.page, q.pageSize),
+      total: d.rows,
+      page: q.page,
+      pageSize: q.pageSize,
+      columns: columnsOf(d),
+    };
   }
 
   remove(user: AuthUser, id: number): void {
@@ -112,7 +136,9 @@ export class DatasetsService {
     this.manageable(user, id);
     if (body.userIds) {
       const known = this.repo.existingUserIds(body.userIds);
-      const details = body.userIds.flatMap((u, i) => (known.has(u) ? [] : [{ path: `userIds.${i}`, message: `no user with id ${u}` }]));
+      const details = body.userIds.flatMap((u, i) =>
+        known.has(u) ? [] : [{ path: `userIds.${i}`, message: `no user with id ${u}` }],
+      );
       if (details.length) throw new ValidationError(`Invalid body: ${details[0].path}: ${details[0].message}`, details);
     }
     this.repo.setSharing(id, body);
@@ -128,8 +154,18 @@ export class DatasetsService {
     const cols = columnsOf(d);
     const idx = names.map((name, i) => {
       const j = cols.findIndex((c) => c.name === name);
-      if (j < 0) throw new ValidationError(`Unknown column "${name.slice(0, 64)}"`, [{ path: `columns.${i}`, column: name, message: `unknown column; the dataset has ${cols.map((c) => c.name).join(', ')}` }]);
-      if (cols[j].kind !== 'number') throw new ValidationError(`Column "${name}" holds text, not numbers`, [{ path: `columns.${i}`, column: name, message: 'a text column cannot be used as a number' }]);
+      if (j < 0)
+        throw new ValidationError(`Unknown column "${name.slice(0, 64)}"`, [
+          {
+            path: `columns.${i}`,
+            column: name,
+            message: `unknown column; the dataset has ${cols.map((c) => c.name).join(', ')}`,
+          },
+        ]);
+      if (cols[j].kind !== 'number')
+        throw new ValidationError(`Column "${name}" holds text, not numbers`, [
+          { path: `columns.${i}`, column: name, message: 'a text column cannot be used as a number' },
+        ]);
       return j;
     });
     const data: Record<string, Float64Array> = {};

@@ -8,7 +8,11 @@ export const DB_HANDLE = Symbol('DB_HANDLE');
 @Global()
 @Module({
   providers: [
-    { provide: DB_HANDLE, inject: [APP_CONFIG], useFactory: (config: AppConfig): OpenedDatabase => openDatabase(config.dbFile) },
+    {
+      provide: DB_HANDLE,
+      inject: [APP_CONFIG],
+      useFactory: (config: AppConfig): OpenedDatabase => openDatabase(config.dbFile),
+    },
     { provide: DB, inject: [DB_HANDLE], useFactory: (h: OpenedDatabase): Db => h.db },
   ],
   exports: [DB, DB_HANDLE],

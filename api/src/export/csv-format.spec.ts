@@ -4,14 +4,40 @@ import { csvField, formatBatch, formatRow, slugify, textCell } from './csv-forma
 describe('formatBatch', () => {
   it('writes exactly what the per-value reference formatter writes', () => {
     // Edge values of IEEE 754 doubles: subnormal, max, exponent switch-over points of Number::toString.
-    const edge = [0, -0, 1, -1, 0.1, 1 / 3, 5e-324, 1.7976931348623157e308, 1e21, 1e-7, 123456789012345680000, 9007199254740993, null];
+    const edge = [
+      0,
+      -0,
+      1,
+      -1,
+      0.1,
+      1 / 3,
+      5e-324,
+      1.7976931348623157e308,
+      1e21,
+      1e-7,
+      123456789012345680000,
+      9007199254740993,
+      null,
+    ];
     const rows: (number | null)[][] = [];
     let seed = 7;
-    const rnd = () => ((seed = (seed * 16807) % 2147483647) / 2147483647);
-    for (let i = 0; i < 500; i++) rows.push([i, Math.exp(rnd() * 80 - 40) * (rnd() < 0.5 ? -1 : 1), rnd() < 0.1 ? null : rnd(), rnd() < 0.5 ? 1 : 0, edge[i % edge.length]]);
+    const rnd = () => (seed = (seed * 16807) % 2147483647) / 2147483647;
+    for (let i = 0; i < 500; i++)
+      rows.push([
+        i,
+        Math.exp(rnd() * 80 - 40) * (rnd() < 0.5 ? -1 : 1),
+        rnd() < 0.1 ? null : rnd(),
+        rnd() < 0.5 ? 1 : 0,
+        edge[i % edge.length],
+      ]);
     const formats = ['number', 'number', 'number', 'boolean', 'number'] as const;
     const expected = rows.map((r) => formatRow(r, formats)).join('');
-    expect(formatBatch(rows.map((r) => [...r]), [3])).toBe(expected);
+    expect(
+      formatBatch(
+        rows.map((r) => [...r]),
+        [3],
+      ),
+    ).toBe(expected);
   });
 
   it('reads back to the same doubles', () => {
@@ -21,7 +47,15 @@ describe('formatBatch', () => {
   });
 
   it('writes NULL as an empty cell and booleans as words', () => {
-    expect(formatBatch([[1, null, 1], [2, 3, 0]], [2])).toBe('1,,true\n2,3,false\n');
+    expect(
+      formatBatch(
+        [
+          [1, null, 1],
+          [2, 3, 0],
+        ],
+        [2],
+      ),
+    ).toBe('1,,true\n2,3,false\n');
     expect(formatBatch([], [])).toBe('');
   });
 });

@@ -43,7 +43,14 @@ export class DatasetExportBuilder {
     const fits = this.exportRepo.fitsOf('dataset', d.id);
     const manifest = (csv: StreamDigest) => ({
       format: { name: 'driftgrid-dataset-export', version: 1 },
-      dataset: { id: d.id, name: d.name, fileName: d.fileName, visibility: d.visibility, rows: d.rows, uploadSha256: d.sha256 },
+      dataset: {
+        id: d.id,
+        name: d.name,
+        fileName: d.fileName,
+        visibility: d.visibility,
+        rows: d.rows,
+        uploadSha256: d.sha256,
+      },
       owner: { id: d.ownerId, name: owner },
       exportedWith: { appVersion: this.config.appVersion },
       times: { createdAt: new Date(d.createdAt).toISOString(), exportedAt: new Date(exportedAt).toISOString() },
@@ -51,17 +58,24 @@ export class DatasetExportBuilder {
       columns,
       fits,
     });
-    const columnsCsv = csvLine(['name', 'kind', 'unit', 'uploaded_unit', 'quantity'])
-      + columns.map((c) => csvLine([c.name, c.kind, c.canonicalUnit, c.unit, c.quantity ?? ''])).join('');
+    const columnsCsv =
+      csvLine(['name', 'kind', 'unit', 'uploaded_unit', 'quantity']) +
+      columns.map((c) => csvLine([c.name, c.kind, c.canonicalUnit, c.unit, c.quantity ?? ''])).join('');
     const readme = datasetReadme({
-      name: d.name, id: d.id, rows: d.rows, fileName: d.fileName,
+      name: d.name,
+      id: d.id,
+      rows: d.rows,
+      fileName: d.fileName,
       columns: columns.map((c) => ({ name: c.name, unit: c.canonicalUnit, kind: c.kind, meaning: describe(c) })),
     });
     return buildZip({
       date: new Date(d.createdAt),
       csvName: 'data.csv',
       csv: this.pieces(d, columns, kinds),
-      texts: [{ name: 'columns.csv', content: columnsCsv }, { name: 'README.txt', content: readme }],
+      texts: [
+        { name: 'columns.csv', content: columnsCsv },
+        { name: 'README.txt', content: readme },
+      ],
       manifest,
     });
   }
@@ -86,5 +100,7 @@ export class DatasetExportBuilder {
 function describe(c: DatasetColumn): string {
   if (c.kind === 'text') return 'Text, as uploaded.';
   const q = c.quantity ? `${c.quantity[0].toUpperCase()}${c.quantity.slice(1)}` : 'Number';
-  return c.unit && c.unit !== c.canonicalUnit ? `${q}; uploaded in ${c.unit}, converted to ${c.canonicalUnit}.` : `${q}.`;
+  return c.unit && c.unit !== c.canonicalUnit
+    ? `${q}; uploaded in ${c.unit}, converted to ${c.canonicalUnit}.`
+    : `${q}.`;
 }

@@ -86,7 +86,13 @@ export function sweepReadme(p: {
   ].join('\n');
 }
 
-export function datasetReadme(p: { name: string; id: number; rows: number; fileName: string | null; columns: readonly ReadmeColumn[] }): string {
+export function datasetReadme(p: {
+  name: string;
+  id: number;
+  rows: number;
+  fileName: string | null;
+  columns: readonly ReadmeColumn[];
+}): string {
   return [
     `Driftgrid dataset export: ${p.name} (dataset ${p.id})`,
     '',

@@ -11,20 +11,34 @@ import { SweepArchiver } from './sweep-archive.service.js';
 @ApiBearerAuth()
 @Controller('sweeps')
 export class SweepExportController {
-  constructor(private readonly downloads: Downloads, private readonly archiver: SweepArchiver) {}
+  constructor(
+    private readonly downloads: Downloads,
+    private readonly archiver: SweepArchiver,
+  ) {}
 
   @Get(':id/export')
   @SignedIn()
   @ApiProduces('application/zip')
-  @ApiOperation({ summary: 'Zipped CSV (results.csv, columns.csv, manifest.json, README.txt), streamed; archived sweeps get the frozen file with ETag and X-Archive-SHA256' })
-  async export(@CurrentUser() user: AuthUser, @Param('id', new IdParamPipe()) id: number, @Req() req: Request, @Res() res: Response): Promise<void> {
+  @ApiOperation({
+    summary:
+      'Zipped CSV (results.csv, columns.csv, manifest.json, README.txt), streamed; archived sweeps get the frozen file with ETag and X-Archive-SHA256',
+  })
+  async export(
+    @CurrentUser() user: AuthUser,
+    @Param('id', new IdParamPipe()) id: number,
+    @Req() req: Request,
+    @Res() res: Response,
+  ): Promise<void> {
     await this.downloads.sweep(user, id, req, res);
   }
 
   @Post(':id/archive')
   @HttpCode(200)
   @Roles('researcher', 'admin')
-  @ApiOperation({ summary: 'Freeze a completed sweep (owner or admin): builds the zip once, records its SHA-256; 409 unless completed' })
+  @ApiOperation({
+    summary:
+      'Freeze a completed sweep (owner or admin): builds the zip once, records its SHA-256; 409 unless completed',
+  })
   archive(@CurrentUser() user: AuthUser, @Param('id', new IdParamPipe()) id: number) {
     return this.archiver.archive(user, id);
   }
@@ -39,8 +53,14 @@ export class DatasetExportController {
   @Get(':id/export')
   @SignedIn()
   @ApiProduces('application/zip')
-  @ApiOperation({ summary: 'Zipped CSV of a dataset (data.csv in canonical units, columns.csv, manifest.json, README.txt)' })
-  async export(@CurrentUser() user: AuthUser, @Param('id', new IdParamPipe()) id: number, @Res() res: Response): Promise<void> {
+  @ApiOperation({
+    summary: 'Zipped CSV of a dataset (data.csv in canonical units, columns.csv, manifest.json, README.txt)',
+  })
+  async export(
+    @CurrentUser() user: AuthUser,
+    @Param('id', new IdParamPipe()) id: number,
+    @Res() res: Response,
+  ): Promise<void> {
     await this.downloads.dataset(user, id, res);
   }
 }

@@ -24,8 +24,17 @@ export interface FitRecord {
 }
 
 interface FitDbRow {
-  id: number; owner_id: number; model: string; status: string; request: string; result: string | null; error: string | null;
-  app_version: string; source_model_version: string | null; created_at: number; finishedAt: number | null;
+  id: number;
+  owner_id: number;
+  model: string;
+  status: string;
+  request: string;
+  result: string | null;
+  error: string | null;
+  app_version: string;
+  source_model_version: string | null;
+  created_at: number;
+  finishedAt: number | null;
 }
 
 const parseJson = (text: string | null): unknown => {
@@ -67,13 +76,23 @@ export class ExportRepository {
   /** Fits whose source is this sweep or dataset, oldest first, with request and result JSON. */
   fitsOf(kind: 'sweep' | 'dataset', id: number): FitRecord[] {
     const rows = this.handle.sqlite
-      .prepare(`SELECT id, owner_id, model, status, request, result, error, app_version, source_model_version, created_at, finished_at AS finishedAt
-                FROM fits WHERE source_kind = ? AND source_id = ? ORDER BY created_at, id`)
+      .prepare(
+        `SELECT id, owner_id, model, status, request, result, error, app_version, source_model_version, created_at, finished_at AS finishedAt
+                FROM fits WHERE source_kind = ? AND source_id = ? ORDER BY created_at, id`,
+      )
       .all(kind, id) as FitDbRow[];
     return rows.map((f) => ({
-      id: f.id, ownerId: f.owner_id, model: f.model, status: f.status, request: parseJson(f.request), result: parseJson(f.result), error: f.error,
-      appVersion: f.app_version, sourceModelVersion: f.source_model_version,
-      createdAt: new Date(f.created_at).toISOString(), finishedAt: f.finishedAt ? new Date(f.finishedAt).toISOString() : null,
+      id: f.id,
+      ownerId: f.owner_id,
+      model: f.model,
+      status: f.status,
+      request: parseJson(f.request),
+      result: parseJson(f.result),
+      error: f.error,
+      appVersion: f.app_version,
+      sourceModelVersion: f.source_model_version,
+      createdAt: new Date(f.created_at).toISOString(),
+      finishedAt: f.finishedAt ? new Date(f.finishedAt).toISOString() : null,
     }));
   }
 

@@ -41,7 +41,9 @@ export class SweepArchiver {
   async archive(user: AuthUser, id: number) {
     const s = this.access.manageable(user, id);
     if (s.status !== 'completed') {
-      throw new ConflictError(`Sweep ${id} is ${s.status}; only completed sweeps can be archived`, [{ path: 'status', message: `is ${s.status}, must be completed` }]);
+      throw new ConflictError(`Sweep ${id} is ${s.status}; only completed sweeps can be archived`, [
+        { path: 'status', message: `is ${s.status}, must be completed` },
+      ]);
     }
     if (this.busy.has(id)) throw new ConflictError(`Sweep ${id} is being archived already`);
     this.busy.add(id);
@@ -49,7 +51,11 @@ export class SweepArchiver {
       const now = this.clock.now();
       const file = await this.writeArchive(id, now);
       const ok = this.repo.transition(id, ['completed'], {
-        status: 'archived', archivedAt: now, archiveSha256: file.sha256, archiveBytes: file.bytes, archiveFile: file.name,
+        status: 'archived',
+        archivedAt: now,
+        archiveSha256: file.sha256,
+        archiveBytes: file.bytes,
+        archiveFile: file.name,
       });
       if (!ok) {
         await fs.promises.rm(file.fullPath, { force: true });
@@ -63,7 +69,10 @@ export class SweepArchiver {
     }
   }
 
-  private async writeArchive(id: number, now: number): Promise<{ name: string; fullPath: string; sha256: string; bytes: number }> {
+  private async writeArchive(
+    id: number,
+    now: number,
+  ): Promise<{ name: string; fullPath: string; sha256: string; bytes: number }> {
     const s = this.repo.findById(id)!;
     await fs.promises.mkdir(this.config.archiveDir, { recursive: true });
     const tmp = path.join(this.config.archiveDir, `.sweep-${id}-${randomBytes(6).toString('hex')}.part`);

@@ -54,14 +54,26 @@ export class SweepExportBuilder {
     const manifest = (csv: StreamDigest) => ({
       format: MANIFEST_FORMAT,
       sweep: {
-        id: s.id, name: s.name, status: archivedAt ? 'archived' : s.status, visibility: s.visibility, tags: this.sweeps.tags(s.id),
-        points: s.points, invalidPoints: s.invalidPoints, flagCounts: JSON.parse(s.flagCounts) as unknown,
+        id: s.id,
+        name: s.name,
+        status: archivedAt ? 'archived' : s.status,
+        visibility: s.visibility,
+        tags: this.sweeps.tags(s.id),
+        points: s.points,
+        invalidPoints: s.invalidPoints,
+        flagCounts: JSON.parse(s.flagCounts) as unknown,
       },
       owner: { id: s.ownerId, name: owner },
       model: modelInfo,
       appVersion: s.appVersion,
       exportedWith: { appVersion: this.config.appVersion },
-      times: { createdAt: iso(s.createdAt), startedAt: iso(s.startedAt), finishedAt: iso(s.finishedAt), archivedAt: iso(archivedAt), exportedAt: iso(opts.exportedAt) },
+      times: {
+        createdAt: iso(s.createdAt),
+        startedAt: iso(s.startedAt),
+        finishedAt: iso(s.finishedAt),
+        archivedAt: iso(archivedAt),
+        exportedAt: iso(opts.exportedAt),
+      },
       provenance: { computeMs: Math.round(s.computeMs), workers: this.sweeps.workerSummary(s.id) },
       definition: JSON.parse(s.definition) as unknown,
       results: { file: 'results.csv', rows: csv.rows, columns: columns.length, bytes: csv.bytes, sha256: csv.sha256 },
@@ -71,16 +83,26 @@ export class SweepExportBuilder {
     });
 
     const readme = sweepReadme({
-      name: s.name, id: s.id, model: modelInfo, appVersion: s.appVersion, rows: s.pointsDone,
-      columns, flags: model?.flags ?? [], archived: archivedAt !== null,
+      name: s.name,
+      id: s.id,
+      model: modelInfo,
+      appVersion: s.appVersion,
+      rows: s.pointsDone,
+      columns,
+      flags: model?.flags ?? [],
+      archived: archivedAt !== null,
     });
-    const columnsCsv = csvLine(['name', 'unit', 'meaning']) + columns.map((c) => csvLine([c.name, c.unit, c.meaning])).join('');
+    const columnsCsv =
+      csvLine(['name', 'unit', 'meaning']) + columns.map((c) => csvLine([c.name, c.unit, c.meaning])).join('');
 
     return buildZip({
       date: new Date(s.finishedAt ?? s.createdAt),
       csvName: 'results.csv',
       csv: this.csvPieces(s, layout, booleans),
-      texts: [{ name: 'columns.csv', content: columnsCsv }, { name: 'README.txt', content: readme }],
+      texts: [
+        { name: 'columns.csv', content: columnsCsv },
+        { name: 'README.txt', content: readme },
+      ],
       manifest,
     });
   }

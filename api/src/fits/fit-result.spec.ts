@@ -10,18 +10,21 @@ function data(cols: Record<string, number[]>, units: Record<string, string> = {}
   return {
     source: { kind: 'dataset', id: 1, name: 'test', modelVersion: null },
     columns: Object.keys(cols).map((name) => ({ name, unit: units[name] ?? '', kind: 'measured' })),
-    n, dropped: 0, data: d,
+    n,
+    dropped: 0,
+    data: d,
   };
 }
 
-const req = (over: Partial<FitRequest>): FitRequest => ({ source: { kind: 'dataset', id: '1' }, model: 'power-law', y: 'y', x: ['a'], ...over }) as FitRequest;
+const req = (over: Partial<FitRequest>): FitRequest =>
+  ({ source: { kind: 'dataset', id: '1' }, model: 'power-law', y: 'y', x: ['a'], ...over }) as FitRequest;
 
 describe('stored fit result', () => {
   it('fits |y| for an all-negative power law and restores the sign on C, fitted values, residuals and covariance', () => {
     const a = Array.from({ length: 30 }, (_, i) => 1 + i);
     const b = Array.from({ length: 30 }, (_, i) => 2 + ((i * 7) % 11));
     // y = −2.5·a^0.5·b^−1 with a small deterministic wiggle, so the covariance is not zero.
-    const y = a.map((v, i) => -2.5 * Math.sqrt(v) / b[i]! * (1 + 1e-3 * Math.sin(i)));
+    const y = a.map((v, i) => ((-2.5 * Math.sqrt(v)) / b[i]!) * (1 + 1e-3 * Math.sin(i)));
     const r = req({ x: ['a', 'b'] });
     const d = data({ y, a, b });
     const { input, flipped } = engineInput(r, d);
@@ -66,7 +69,11 @@ describe('stored fit result', () => {
     const r = req({ model: 'polytropic', y: 'n', x: 'phi' });
     const d = data({ n: y, phi }, { phi: 'V', n: 'm^-3' });
     const s = buildStoredResult(r, d, fitModel(engineInput(r, d).input), false);
-    expect(s.parameters.map((p) => [p.name, p.unit])).toEqual([['gamma', '1'], ['Te_eV', 'eV'], ['n0', 'm^-3']]);
+    expect(s.parameters.map((p) => [p.name, p.unit])).toEqual([
+      ['gamma', '1'],
+      ['Te_eV', 'eV'],
+      ['n0', 'm^-3'],
+    ]);
     expect(s.parameters[2]!.value! / 1e18).toBeCloseTo(1, 1);
   });
 

@@ -6,7 +6,7 @@ import { tQuantile } from './t-quantile.js';
 export const PLOT_MAX_POINTS = 2000;
 export const CONFIDENCE_LEVEL = 0.95;
 export const CONFIDENCE_METHOD =
-  'value ± t·stdError, t the Student-t quantile for (1 + 0.95)/2 at the fit\'s degrees of freedom (regularized incomplete beta, inverted by bisection)';
+  "value ± t·stdError, t the Student-t quantile for (1 + 0.95)/2 at the fit's degrees of freedom (regularized incomplete beta, inverted by bisection)";
 
 export type { FitParameterView, FitPlotData };
 
@@ -60,9 +60,14 @@ export function engineInput(req: FitRequest, data: FitData): { input: FitInput; 
   const params = flipped && req.params?.C !== undefined ? { ...req.params, C: -req.params.C } : req.params;
   return {
     input: {
-      model: req.model, x, xNames, y,
+      model: req.model,
+      x,
+      xNames,
+      y,
       sigma: req.weights ? data.data[req.weights] : undefined,
-      expr: req.expr, params, maxIterations: req.maxIterations,
+      expr: req.expr,
+      params,
+      maxIterations: req.maxIterations,
     },
     flipped,
   };
@@ -117,11 +122,30 @@ export function buildStoredResult(req: FitRequest, data: FitData, r: FitResult, 
   return {
     parameters,
     confidence: { level: CONFIDENCE_LEVEL, method: CONFIDENCE_METHOD, t: finite(t), dof: r.dof },
-    rss: finite(r.rss), r2: finite(r.r2), rmse: finite(r.rmse), residualSd: finite(r.residualSd),
+    rss: finite(r.rss),
+    r2: finite(r.r2),
+    rmse: finite(r.rmse),
+    residualSd: finite(r.residualSd),
     ...(r.chi2red !== undefined ? { chi2red: finite(r.chi2red) } : {}),
-    dof: r.dof, n: r.n, dropped: data.dropped, iterations: r.iterations, converged: r.converged, message: r.message,
-    signRestored: flipped, covariance,
-    units: Object.fromEntries([req.y, ...xNames, ...(req.weights ? [req.weights] : [])].map((c) => [c, units.get(c) ?? ''])),
-    plot: { xNames, x, y: sample(data.data[req.y]!, stride, m), fitted: sample(fitted, stride, m), residuals: sample(residuals, stride, m), total: r.n, shown: m },
+    dof: r.dof,
+    n: r.n,
+    dropped: data.dropped,
+    iterations: r.iterations,
+    converged: r.converged,
+    message: r.message,
+    signRestored: flipped,
+    covariance,
+    units: Object.fromEntries(
+      [req.y, ...xNames, ...(req.weights ? [req.weights] : [])].map((c) => [c, units.get(c) ?? '']),
+    ),
+    plot: {
+      xNames,
+      x,
+      y: sample(data.data[req.y]!, stride, m),
+      fitted: sample(fitted, stride, m),
+      residuals: sample(residuals, stride, m),
+      total: r.n,
+      shown: m,
+    },
   };
 }

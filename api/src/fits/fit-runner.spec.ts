@@ -19,7 +19,9 @@ describe('FitRunner', () => {
 
   it('passes validation errors through as ValidationError (they become failed fits, not 500s)', async () => {
     const runner = new FitRunner();
-    const err = await runner.run({ model: 'power-law', x: { a: [1, 2, 3] }, xNames: ['a'], y: [1, -1, 2] }).catch((e: unknown) => e);
+    const err = await runner
+      .run({ model: 'power-law', x: { a: [1, 2, 3] }, xNames: ['a'], y: [1, -1, 2] })
+      .catch((e: unknown) => e);
     expect(err).toBeInstanceOf(ValidationError);
     expect((err as ValidationError).details?.[0]?.path).toBe('y');
     await runner.close();
@@ -53,7 +55,12 @@ describe('FitRunner thread handling', () => {
   }, 30_000);
 
   it('fails the fits a thread held when it dies mid-fit (no silent inline rerun)', async () => {
-    const runner = new FitRunner().useThreadEntry(file('dies.mjs', `parentPort.postMessage({ ready: ${FIT_THREAD_PROTOCOL} });\nparentPort.on('message', () => process.exit(3));`));
+    const runner = new FitRunner().useThreadEntry(
+      file(
+        'dies.mjs',
+        `parentPort.postMessage({ ready: ${FIT_THREAD_PROTOCOL} });\nparentPort.on('message', () => process.exit(3));`,
+      ),
+    );
     await expect(runner.run(input)).rejects.toThrow(/stopped before it answered/);
     await runner.close();
   }, 30_000);

@@ -26,12 +26,18 @@ function threadEntry(): string | null {
 }
 
 function rebuild(error: { name: string; message: string; details?: unknown }): Error {
-  if (error.name === 'ValidationError') return new ValidationError(error.message, error.details as ErrorDetail[] | undefined);
+  if (error.name === 'ValidationError')
+    return new ValidationError(error.message, error.details as ErrorDetail[] | undefined);
   return new Error(error.message);
 }
 
 type Pending = { resolve: (r: FitResult) => void; reject: (e: Error) => void; input: FitInput };
-type Reply = { id: number; ok: boolean; result?: FitResult; error?: { name: string; message: string; details?: unknown } };
+type Reply = {
+  id: number;
+  ok: boolean;
+  result?: FitResult;
+  error?: { name: string; message: string; details?: unknown };
+};
 
 /** One worker thread and the fits it holds (sent, or waiting for its greeting). */
 interface ThreadSlot {

@@ -3,7 +3,11 @@ import { datasetMask, dropMissing, requestedColumns } from './fit-sources.js';
 
 describe('fit data extraction helpers', () => {
   it('drops rows with NaN or ±∞ in any used column and counts them', () => {
-    const data = { y: Float64Array.of(1, NaN, 3, 4, 5), x: Float64Array.of(1, 2, Infinity, 4, 5), unused: Float64Array.of(NaN, NaN, NaN, NaN, NaN) };
+    const data = {
+      y: Float64Array.of(1, NaN, 3, 4, 5),
+      x: Float64Array.of(1, 2, Infinity, 4, 5),
+      unused: Float64Array.of(NaN, NaN, NaN, NaN, NaN),
+    };
     const r = dropMissing(5, data, ['y', 'x']);
     expect(r.n).toBe(3);
     expect(r.dropped).toBe(2);
@@ -22,8 +26,14 @@ describe('fit data extraction helpers', () => {
 
   it('names each requested column by its request path', () => {
     expect(requestedColumns({ y: 'n', x: ['a', 'b'], weights: 's' })).toEqual([
-      { path: 'y', name: 'n' }, { path: 'x.0', name: 'a' }, { path: 'x.1', name: 'b' }, { path: 'weights', name: 's' },
+      { path: 'y', name: 'n' },
+      { path: 'x.0', name: 'a' },
+      { path: 'x.1', name: 'b' },
+      { path: 'weights', name: 's' },
     ]);
-    expect(requestedColumns({ y: 'n', x: 'phi' })).toEqual([{ path: 'y', name: 'n' }, { path: 'x', name: 'phi' }]);
+    expect(requestedColumns({ y: 'n', x: 'phi' })).toEqual([
+      { path: 'y', name: 'n' },
+      { path: 'x', name: 'phi' },
+    ]);
   });
 });

@@ -42,17 +42,29 @@ function checkNames(wanted: { path: string; name: string }[], columns: SourceCol
   const known = new Set(columns.map((c) => c.name));
   const details: ErrorDetail[] = wanted
     .filter((w) => !known.has(w.name))
-    .map((w) => ({ path: w.path, column: w.name, message: `unknown or non-numeric column "${w.name.slice(0, 64)}"; the ${what} has ${columns.map((c) => c.name).join(', ')}` }));
+    .map((w) => ({
+      path: w.path,
+      column: w.name,
+      message: `unknown or non-numeric column "${w.name.slice(0, 64)}"; the ${what} has ${columns.map((c) => c.name).join(', ')}`,
+    }));
   if (details.length) throw new ValidationError(`${details[0].path}: ${details[0].message}`, details);
 }
 
 /** Keeps rows where every named column is finite; returns compacted copies and the dropped count. */
-export function dropMissing(n: number, data: Record<string, Float64Array>, names: string[]): { n: number; dropped: number; data: Record<string, Float64Array> } {
+export function dropMissing(
+  n: number,
+  data: Record<string, Float64Array>,
+  names: string[],
+): { n: number; dropped: number; data: Record<string, Float64Array> } {
   const keep = new Uint8Array(n);
   let m = 0;
   for (let i = 0; i < n; i++) {
     let ok = 1;
-    for (const name of names) if (!Number.isFinite(data[name]![i]!)) { ok = 0; break; }
+    for (const name of names)
+      if (!Number.isFinite(data[name]![i]!)) {
+        ok = 0;
+        break;
+      }
     keep[i] = ok;
     m += ok;
   }
@@ -68,19 +80,31 @@ export function dropMissing(n: number, data: Record<string, Float64Array>, names
 }
 
 /** The dataset filter: the same JSON as for sweeps, on numeric columns, applied in memory. */
-export function datasetMask(n: number, data: Record<string, Float64Array>, filter: Record<string, Condition>): Uint8Array {
+export function datasetMask(
+  n: number,
+  data: Record<string, Float64Array>,
+  filter: Record<string, Condition>,
+): Uint8Array {
   const mask = new Uint8Array(n).fill(1);
   for (const [name, c] of Object.entries(filter)) {
     if (typeof c.eq === 'string') {
-      throw new ValidationError(`filter.${name}.eq: a dataset filter compares numbers`, [{ path: `filter.${name}.eq`, message: 'must be a number or a boolean' }]);
+      throw new ValidationError(`filter.${name}.eq: a dataset filter compares numbers`, [
+        { path: `filter.${name}.eq`, message: 'must be a number or a boolean' },
+      ]);
     }
     const col = data[name]!;
     const eq = typeof c.eq === 'boolean' ? (c.eq ? 1 : 0) : c.eq;
     for (let i = 0; i < n; i++) {
       const v = col[i]!;
       if (!mask[i]) continue;
-      if ((c.gte !== undefined && !(v >= c.gte)) || (c.gt !== undefined && !(v > c.gt)) ||
-          (c.lte !== undefined && !(v <= c.lte)) || (c.lt !== undefined && !(v < c.lt)) || (eq !== undefined && v !== eq)) mask[i] = 0;
+      if (
+        (c.gte !== undefined && !(v >= c.gte)) ||
+        (c.gt !== undefined && !(v > c.gt)) ||
+        (c.lte !== undefined && !(v <= c.lte)) ||
+        (c.lt !== undefined && !(v < c.lt)) ||
+        (eq !== undefined && v !== eq)
+      )
+        mask[i] = 0;
     }
   }
   return mask;
@@ -103,7 +127,9 @@ export class FitSources {
       if (!FITTABLE_SWEEP.has(s.status)) {
         throw new ConflictError(`Sweep ${id} is ${s.status}; fits run on completed or archived sweeps`);
       }
-      const columns = layoutOf(s).filter((c) => c.kind !== 'flags').map((c) => ({ name: c.name, unit: c.unit, kind: c.kind }));
+      const columns = layoutOf(s)
+        .filter((c) => c.kind !== 'flags')
+        .map((c) => ({ name: c.name, unit: c.unit, kind: c.kind }));
       checkNames(wanted, columns, 'sweep');
       // The reader validates the filter against the sweep's columns (400 naming filter.<column>).
       const raw = this.results.columns(s, names, req.filter);
@@ -111,10 +137,16 @@ export class FitSources {
       return { source: { kind, id, name: s.name, modelVersion: s.modelVersion }, columns, ...kept };
     }
     const d = this.datasets.readable(user, id);
-    const columns = columnsOf(d).filter((c) => c.kind === 'number').map((c) => ({ name: c.name, unit: c.canonicalUnit, kind: 'measured' }));
+    const columns = columnsOf(d)
+      .filter((c) => c.kind === 'number')
+      .map((c) => ({ name: c.name, unit: c.canonicalUnit, kind: 'measured' }));
     checkNames(wanted, columns, 'dataset');
     const filter = (req.filter ?? {}) as Record<string, Condition>;
-    checkNames(Object.keys(filter).map((name) => ({ path: `filter.${name}`, name })), columns, 'dataset');
+    checkNames(
+      Object.keys(filter).map((name) => ({ path: `filter.${name}`, name })),
+      columns,
+      'dataset',
+    );
     const all = [...new Set([...names, ...Object.keys(filter)])];
     const raw = this.datasets.columns(user, id, all);
     let { n, data } = raw;

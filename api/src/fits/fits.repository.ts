@@ -50,15 +50,27 @@ export class FitsRepository {
 
   /** Every fit of one source, oldest first (for exports; no visibility check here). */
   ofSource(kind: 'sweep' | 'dataset', id: number): FitRow[] {
-    return this.db.select().from(fits).where(and(eq(fits.sourceKind, kind), eq(fits.sourceId, id))).orderBy(fits.id).all();
+    return this.db
+      .select()
+      .from(fits)
+      .where(and(eq(fits.sourceKind, kind), eq(fits.sourceId, id)))
+      .orderBy(fits.id)
+      .all();
   }
 
   /** Fits left queued or running by a process that stopped. */
   unfinished(): FitRow[] {
-    return this.db.select().from(fits).where(inArray(fits.status, ['queued', 'running'])).all();
+    return this.db
+      .select()
+      .from(fits)
+      .where(inArray(fits.status, ['queued', 'running']))
+      .all();
   }
 
-  list(viewer: Viewer, q: { page: number; pageSize: number; sourceKind?: string; sourceId?: number }): { items: FitRow[]; total: number } {
+  list(
+    viewer: Viewer,
+    q: { page: number; pageSize: number; sourceKind?: string; sourceId?: number },
+  ): { items: FitRow[]; total: number } {
     const where: string[] = [viewer.role === 'admin' ? LIVE_SOURCE : READABLE_SOURCE];
     const params: Record<string, string | number> = { uid: viewer.id };
     if (q.sourceKind) {
@@ -73,10 +85,21 @@ export class FitsRepository {
     const sqlite = this.db.$client;
     const total = (sqlite.prepare(`SELECT COUNT(*) AS n FROM fits f WHERE ${clause}`).get(params) as { n: number }).n;
     const ids = sqlite
-      .prepare(`SELECT f.id AS id FROM fits f WHERE ${clause} ORDER BY f.created_at DESC, f.id DESC LIMIT @limit OFFSET @offset`)
+      .prepare(
+        `SELECT f.id AS id FROM fits f WHERE ${clause} ORDER BY f.created_at DESC, f.id DESC LIMIT @limit OFFSET @offset`,
+      )
       .all({ ...params, limit: q.pageSize, offset: (q.page - 1) * q.pageSize }) as { id: number }[];
     if (!ids.length) return { items: [], total };
-    const rows = this.db.select().from(fits).where(inArray(fits.id, ids.map((r) => r.id))).all();
+    const rows = this.db
+      .select()
+      .from(fits)
+      .where(
+        inArray(
+          fits.id,
+          ids.map((r) => r.id),
+        ),
+      )
+      .all();
     const byId = new Map(rows.map((r) => [r.id, r]));
     return { items: ids.map((r) => byId.get(r.id)!).filter(Boolean), total };
   }

@@ -1,5 +1,12 @@
 import { Inject, Injectable, Logger, type OnApplicationBootstrap, type OnModuleDestroy } from '@nestjs/common';
-import { NotFoundError, ValidationError, fitModel, type DomainError, type FitRequest, type FitResult } from '@driftgrid/domain';
+import {
+  NotFoundError,
+  ValidationError,
+  fitModel,
+  type DomainError,
+  type FitRequest,
+  type FitResult,
+} from '@driftgrid/domain';
 import type { AuthUser } from '../auth/current-user.js';
 import { Clock } from '../common/clock.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
@@ -23,7 +30,9 @@ const INTERRUPTED = 'The server stopped before this fit finished; run it again.'
 function parseSourceId(raw: string): number {
   const id = Number(raw);
   if (!/^\d+$/.test(raw) || !Number.isSafeInteger(id) || id < 1) {
-    throw new ValidationError(`source.id: must be a positive integer, got "${raw.slice(0, 32)}"`, [{ path: 'source.id', message: 'must be a positive integer' }]);
+    throw new ValidationError(`source.id: must be a positive integer, got "${raw.slice(0, 32)}"`, [
+      { path: 'source.id', message: 'must be a positive integer' },
+    ]);
   }
   return id;
 }
@@ -69,19 +78,31 @@ export class FitsService implements OnApplicationBootstrap, OnModuleDestroy {
     const { input, flipped } = engineInput(req, data);
     const storedRequest = { ...req, source: { kind, id: sourceId } };
     const base = {
-      ownerId: user.id, sourceKind: kind, sourceId, model: req.model, request: JSON.stringify(storedRequest),
-      appVersion: this.config.appVersion, sourceModelVersion: data.source.modelVersion, createdAt: this.clock.now(),
+      ownerId: user.id,
+      sourceKind: kind,
+      sourceId,
+      model: req.model,
+      request: JSON.stringify(storedRequest),
+      appVersion: this.config.appVersion,
+      sourceModelVersion: data.source.modelVersion,
+      createdAt: this.clock.now(),
     };
     if (data.n >= QUEUED_FIT_POINTS) {
       const row = this.repo.insert({ ...base, status: 'queued', progress: PROGRESS.queued });
       this.track(this.runQueued(row.id, req, data, input, flipped));
-      return { status: 202, body: { id: row.id, status: 'queued', progress: PROGRESS.queued, n: data.n, dropped: data.dropped } };
+      return {
+        status: 202,
+        body: { id: row.id, status: 'queued', progress: PROGRESS.queued, n: data.n, dropped: data.dropped },
+      };
     }
     // Validation errors of the engine (too few points, singular, bad expression) are 400s and store nothing.
     const result = fitModel(input);
     const stored = buildStoredResult(req, data, result, flipped);
     const row = this.repo.insert({
-      ...base, ...this.outcome(result, stored), progress: PROGRESS.done, finishedAt: this.clock.now(),
+      ...base,
+      ...this.outcome(result, stored),
+      progress: PROGRESS.done,
+      finishedAt: this.clock.now(),
     });
     return { status: 201, body: this.present(row, true) };
   }
@@ -97,7 +118,13 @@ export class FitsService implements OnApplicationBootstrap, OnModuleDestroy {
     void p.finally(() => this.pending.delete(p));
   }
 
-  private async runQueued(id: number, req: FitRequest, data: FitData, input: ReturnType<typeof engineInput>['input'], flipped: boolean): Promise<void> {
+  private async runQueued(
+    id: number,
+    req: FitRequest,
+    data: FitData,
+    input: ReturnType<typeof engineInput>['input'],
+    flipped: boolean,
+  ): Promise<void> {
     try {
       await new Promise<void>((r) => setImmediate(r));
       this.repo.update(id, { status: 'running', progress: PROGRESS.running });
@@ -107,10 +134,21 @@ export class FitsService implements OnApplicationBootstrap, OnModuleDestroy {
       this.repo.update(id, { ...this.outcome(result, stored), progress: PROGRESS.done, finishedAt: this.clock.now() });
     } catch (e) {
       const err = e as DomainError;
-      const message = err instanceof ValidationError ? err.message : this.closing ? INTERRUPTED : 'The fit stopped with an internal error';
-      if (!(err instanceof ValidationError) && !this.closing) this.logger.error(`fit ${id}: ${err?.stack ?? String(err)}`);
+      const message =
+        err instanceof ValidationError
+          ? err.message
+          : this.closing
+            ? INTERRUPTED
+            : 'The fit stopped with an internal error';
+      if (!(err instanceof ValidationError) && !this.closing)
+        this.logger.error(`fit ${id}: ${err?.stack ?? String(err)}`);
       try {
-        this.repo.update(id, { status: 'failed', error: message, progress: PROGRESS.done, finishedAt: this.clock.now() });
+        this.repo.update(id, {
+          status: 'failed',
+          error: message,
+          progress: PROGRESS.done,
+          finishedAt: this.clock.now(),
+        });
       } catch {
         // the database closed under us at shutdown; bootstrap marks the fit interrupted next time
       }
@@ -134,7 +172,10 @@ export class FitsService implements OnApplicationBootstrap, OnModuleDestroy {
    * checked that the user may read the source).
    */
   forSource(kind: SourceKind, id: number) {
-    return this.repo.ofSource(kind, id).filter((r) => r.status === 'completed' || r.status === 'failed').map((r) => this.present(r, true));
+    return this.repo
+      .ofSource(kind, id)
+      .filter((r) => r.status === 'completed' || r.status === 'failed')
+      .map((r) => this.present(r, true));
   }
 
   private sourceReadable(user: AuthUser, row: FitRow): boolean {

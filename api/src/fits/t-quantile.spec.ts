@@ -5,7 +5,14 @@ describe('Student-t quantile', () => {
   // Critical values t(0.975, ν) from the table of the NIST/SEMATECH e-Handbook of Statistical
   // Methods §1.3.6.7.2 (printed to 3 decimals; values recalled from memory of that table).
   it('matches the e-Handbook table at 3 decimals', () => {
-    const table: [number, number][] = [[1, 12.706], [2, 4.303], [5, 2.571], [10, 2.228], [30, 2.042], [100, 1.984]];
+    const table: [number, number][] = [
+      [1, 12.706],
+      [2, 4.303],
+      [5, 2.571],
+      [10, 2.228],
+      [30, 2.042],
+      [100, 1.984],
+    ];
     for (const [dof, t] of table) expect(tQuantile(0.975, dof)).toBeCloseTo(t, 3);
   });
   it('agrees with closed forms for ν = 1 and ν = 2 to 1e-12', () => {

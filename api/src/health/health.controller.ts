@@ -27,7 +27,9 @@ export class HealthController {
     } catch {
       db = 'down';
     }
-    const queue = this.queue ? await this.queue.probe().catch(() => ({ status: 'down' as const, mode: 'unknown' })) : { status: 'ok' as const, mode: 'none' };
+    const queue = this.queue
+      ? await this.queue.probe().catch(() => ({ status: 'down' as const, mode: 'unknown' }))
+      : { status: 'ok' as const, mode: 'none' };
     return { status: db === 'ok' && queue.status === 'ok' ? 'ok' : 'degraded', db, queue };
   }
 }

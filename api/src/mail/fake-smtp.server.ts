@@ -23,7 +23,10 @@ export class FakeSmtpServer {
   private server: SMTPServer | null = null;
   private port = 0;
 
-  constructor(private readonly repo: MailRepository, private readonly clock: Clock) {}
+  constructor(
+    private readonly repo: MailRepository,
+    private readonly clock: Clock,
+  ) {}
 
   async start(): Promise<number> {
     const server = new SMTPServer({

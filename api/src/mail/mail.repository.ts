@@ -18,7 +18,13 @@ export class MailRepository {
 
   list(offset: number, limit: number): { items: MailSummary[]; total: number } {
     const items = this.db
-      .select({ id: mailMessages.id, from: mailMessages.from, to: mailMessages.to, subject: mailMessages.subject, receivedAt: mailMessages.receivedAt })
+      .select({
+        id: mailMessages.id,
+        from: mailMessages.from,
+        to: mailMessages.to,
+        subject: mailMessages.subject,
+        receivedAt: mailMessages.receivedAt,
+      })
       .from(mailMessages)
       .orderBy(desc(mailMessages.id))
       .limit(limit)

@@ -3,7 +3,10 @@ import { Mailer, type OutgoingMail, type SentMail } from './mailer.js';
 
 /** Sends over SMTP with nodemailer, to a real relay (SMTP_URL) or to the in-process fake. */
 export class NodemailerMailer extends Mailer {
-  constructor(private readonly transport: Transporter, private readonly from: string) {
+  constructor(
+    private readonly transport: Transporter,
+    private readonly from: string,
+  ) {
     super();
   }
 
@@ -21,7 +24,13 @@ export class NodemailerMailer extends Mailer {
   }
 
   async send(mail: OutgoingMail): Promise<SentMail> {
-    const info = await this.transport.sendMail({ from: this.from, to: mail.to, subject: mail.subject, text: mail.text, html: mail.html });
+    const info = await this.transport.sendMail({
+      from: this.from,
+      to: mail.to,
+      subject: mail.subject,
+      text: mail.text,
+      html: mail.html,
+    });
     return { messageId: info.messageId ?? null };
   }
 

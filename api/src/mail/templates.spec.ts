@@ -3,7 +3,12 @@ import { escapeHtml, invitationMail, passwordResetMail, renderNotice } from './t
 
 describe('mail templates', () => {
   it('render text and HTML with the product name and no external images', () => {
-    const m = invitationMail({ inviter: 'Ada <Admin>', role: 'researcher', url: 'http://localhost:3000/accept-invite?token=abc&x=1', expiresInDays: 7 });
+    const m = invitationMail({
+      inviter: 'Ada <Admin>',
+      role: 'researcher',
+      url: 'http://localhost:3000/accept-invite?token=abc&x=1',
+      expiresInDays: 7,
+    });
     expect(m.subject).toContain('Driftgrid');
     expect(m.text).toContain('http://localhost:3000/accept-invite?token=abc&x=1');
     expect(m.text).toContain('7 days');

@@ -36,7 +36,9 @@ export function renderNotice(n: Notice): RenderedMail {
     ? `<p style="margin:20px 0"><a href="${escapeHtml(n.action.url)}" style="background:#1f5f8b;color:#ffffff;padding:10px 18px;border-radius:4px;text-decoration:none;display:inline-block">${escapeHtml(n.action.label)}</a></p>` +
       `<p style="margin:0 0 12px 0;font-size:13px;color:#555555">Or paste this address into your browser:<br><span style="word-break:break-all">${escapeHtml(n.action.url)}</span></p>`
     : '';
-  const foot = n.footnote ? `<p style="margin:16px 0 0 0;font-size:13px;color:#555555">${escapeHtml(n.footnote)}</p>` : '';
+  const foot = n.footnote
+    ? `<p style="margin:16px 0 0 0;font-size:13px;color:#555555">${escapeHtml(n.footnote)}</p>`
+    : '';
   const html = `<!doctype html><html><body style="margin:0;padding:24px;background:#f4f6f8;font-family:Arial,Helvetica,sans-serif;color:#1b1f23">
 <div style="max-width:560px;margin:0 auto;background:#ffffff;border:1px solid #d8dee4;border-radius:6px;padding:24px">
 <div style="font-size:18px;font-weight:bold;letter-spacing:0.5px;color:#1f5f8b;margin-bottom:16px">${PRODUCT}</div>
@@ -48,7 +50,12 @@ ${foot}
   return { text, html };
 }
 
-export function invitationMail(opts: { inviter: string; role: string; url: string; expiresInDays: number }): RenderedMail & { subject: string } {
+export function invitationMail(opts: {
+  inviter: string;
+  role: string;
+  url: string;
+  expiresInDays: number;
+}): RenderedMail & { subject: string } {
   return {
     subject: `You are invited to ${PRODUCT}`,
     ...renderNotice({
@@ -63,12 +70,19 @@ export function invitationMail(opts: { inviter: string; role: string; url: strin
   };
 }
 
-export function passwordResetMail(opts: { name: string; url: string; expiresInMinutes: number }): RenderedMail & { subject: string } {
+export function passwordResetMail(opts: {
+  name: string;
+  url: string;
+  expiresInMinutes: number;
+}): RenderedMail & { subject: string } {
   return {
     subject: `Reset your ${PRODUCT} password`,
     ...renderNotice({
       heading: 'Reset your password',
-      paragraphs: [`Hello ${opts.name},`, `someone (hopefully you) asked to reset the password of your ${PRODUCT} account.`],
+      paragraphs: [
+        `Hello ${opts.name},`,
+        `someone (hopefully you) asked to reset the password of your ${PRODUCT} account.`,
+      ],
       action: { label: 'Choose a new password', url: opts.url },
       footnote: `The link works once and expires in ${opts.expiresInMinutes} minutes. If you did not ask for this, ignore this message: your password stays as it is.`,
     }),

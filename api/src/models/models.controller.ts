@@ -27,7 +27,10 @@ export class ModelsController {
 
   @Post(':id/evaluate')
   @HttpCode(200)
-  @ApiOperation({ summary: 'Evaluate one point: inputs as numbers (canonical units) or unit strings; missing inputs take the defaults' })
+  @ApiOperation({
+    summary:
+      'Evaluate one point: inputs as numbers (canonical units) or unit strings; missing inputs take the defaults',
+  })
   @ApiBody({ schema: openApiSchema(evaluateRequestSchema) })
   // A pure computation that stores nothing, so read-scoped API tokens may call it too.
   @SetMetadata(WRITE_KEY, false)

@@ -1,7 +1,12 @@
 import { Injectable } from '@nestjs/common';
 import {
-  getModel, listModelSummaries, modelSummary, resolveInputs, resolveThresholds,
-  type ModelSummary, type Profile,
+  getModel,
+  listModelSummaries,
+  modelSummary,
+  resolveInputs,
+  resolveThresholds,
+  type ModelSummary,
+  type Profile,
 } from '@driftgrid/domain';
 import type { EvaluateRequest } from './dto/evaluate.dto.js';
 
@@ -45,7 +50,8 @@ export class ModelsService {
       const prof = model.profile(inputs);
       const safe: Profile = {};
       // Arrays keep their length; non-finite entries (none expected inside the grid) become null.
-      for (const [k, arr] of Object.entries(prof)) safe[k] = arr.map((x) => (Number.isFinite(x) ? x : (null as unknown as number)));
+      for (const [k, arr] of Object.entries(prof))
+        safe[k] = arr.map((x) => (Number.isFinite(x) ? x : (null as unknown as number)));
       res.profile = safe;
     }
     return res;

@@ -17,13 +17,17 @@ async function main(): Promise<void> {
     const from = arg('from');
     if (!from) throw new Error('restore needs --from <backup folder>');
     const m = restore(path.resolve(from), dataDir);
-    console.log(`Restored ${m.database.file} (${m.database.bytes} bytes) and ${m.archives.length} archives into ${dataDir}`);
+    console.log(
+      `Restored ${m.database.file} (${m.database.bytes} bytes) and ${m.archives.length} archives into ${dataDir}`,
+    );
     return;
   }
   const stamp = new Date().toISOString().replace(/[:.]/g, '-');
   const out = path.resolve(arg('out') ?? path.join('backups', `driftgrid-${stamp}`));
   const m = await backup(dataDir, out);
-  console.log(`Backup written to ${out}: database ${m.database.bytes} bytes (integrity ${m.database.integrity}), ${m.archives.length} archives`);
+  console.log(
+    `Backup written to ${out}: database ${m.database.bytes} bytes (integrity ${m.database.integrity}), ${m.archives.length} archives`,
+  );
 }
 
 main().catch((e) => {

@@ -14,7 +14,7 @@ function sha256File(file: string): string {
   const fd = fs.openSync(file, 'r');
   const buf = Buffer.allocUnsafe(1 << 20);
   try {
-    for (let n; (n = fs.readSync(fd, buf, 0, buf.length, null)) > 0; ) h.update(buf.subarray(0, n));
+    for (let n; (n = fs.readSync(fd, buf, 0, buf.length, null)) > 0;) h.update(buf.subarray(0, n));
   } finally {
     fs.closeSync(fd);
   }
@@ -47,7 +47,10 @@ export async function backup(dataDir: string, outDir: string): Promise<BackupMan
   const archiveDir = path.join(dataDir, 'archives');
   if (fs.existsSync(archiveDir)) {
     fs.mkdirSync(path.join(outDir, 'archives'));
-    for (const f of fs.readdirSync(archiveDir).filter((x) => x.endsWith('.zip')).sort()) {
+    for (const f of fs
+      .readdirSync(archiveDir)
+      .filter((x) => x.endsWith('.zip'))
+      .sort()) {
       const to = path.join(outDir, 'archives', f);
       fs.copyFileSync(path.join(archiveDir, f), to);
       archives.push({ file: `archives/${f}`, bytes: fs.statSync(to).size, sha256: sha256File(to) });
@@ -65,7 +68,8 @@ export async function backup(dataDir: string, outDir: string): Promise<BackupMan
 /** Restores a backup into a fresh DATA_DIR after checking every SHA-256 and the database's integrity. */
 export function restore(backupDir: string, dataDir: string): BackupManifest {
   const manifest = JSON.parse(fs.readFileSync(path.join(backupDir, 'backup-manifest.json'), 'utf8')) as BackupManifest;
-  if (fs.existsSync(path.join(dataDir, 'driftgrid.db'))) throw new Error(`${dataDir} already holds a database; restore into a fresh DATA_DIR`);
+  if (fs.existsSync(path.join(dataDir, 'driftgrid.db')))
+    throw new Error(`${dataDir} already holds a database; restore into a fresh DATA_DIR`);
   for (const f of [manifest.database, ...manifest.archives]) {
     const got = sha256File(path.join(backupDir, f.file));
     if (got !== f.sha256) throw new Error(`${f.file} does not match its SHA-256 in the manifest`);

@@ -18,5 +18,8 @@ export function createQueueConnection(config: Pick<AppConfig, 'redisUrl'>): Queu
     return { mode: 'redis', connection: new Redis(config.redisUrl, { maxRetriesPerRequest: null }) };
   }
   // A data set of its own per app instance: two apps in one process (tests) must not share a queue.
-  return { mode: 'embedded', connection: createEmbeddedRedis({ name: `driftgrid-${randomUUID()}` }) as unknown as Redis };
+  return {
+    mode: 'embedded',
+    connection: createEmbeddedRedis({ name: `driftgrid-${randomUUID()}` }) as unknown as Redis,
+  };
 }

@@ -2,7 +2,14 @@ import { BullModule, InjectQueue } from '@nestjs/bullmq';
 import { Global, Inject, Injectable, Module, type DynamicModule, type OnApplicationShutdown } from '@nestjs/common';
 import type { Queue } from 'bullmq';
 import os from 'node:os';
-import { CHUNK_QUEUE, ChunkProcessingModule, InlineResultTransport, InProcessResultTransport, RESULT_QUEUE, ResultTransport } from '@driftgrid/worker';
+import {
+  CHUNK_QUEUE,
+  ChunkProcessingModule,
+  InlineResultTransport,
+  InProcessResultTransport,
+  RESULT_QUEUE,
+  ResultTransport,
+} from '@driftgrid/worker';
 import type { AppConfig } from '../config/app-config.js';
 import { QueueProbe } from '../health/health.controller.js';
 import { createQueueConnection, type QueueConnection } from './queue-connection.js';
@@ -11,7 +18,10 @@ export const QUEUE_CONNECTION = Symbol('QUEUE_CONNECTION');
 
 @Injectable()
 export class BullQueueProbe extends QueueProbe {
-  constructor(@Inject(QUEUE_CONNECTION) private readonly conn: QueueConnection, @InjectQueue(CHUNK_QUEUE) private readonly chunks: Queue) {
+  constructor(
+    @Inject(QUEUE_CONNECTION) private readonly conn: QueueConnection,
+    @InjectQueue(CHUNK_QUEUE) private readonly chunks: Queue,
+  ) {
     super();
   }
 
@@ -42,7 +52,14 @@ export class QueueModule {
       BullModule.registerQueue({ name: CHUNK_QUEUE }, { name: RESULT_QUEUE }),
     ];
     if (embeddedWorkers > 0) {
-      imports.push(ChunkProcessingModule.forRoot({ concurrency: embeddedWorkers + 1, threads: embeddedWorkers, workerId: `${os.hostname()}:${process.pid}`, transport }));
+      imports.push(
+        ChunkProcessingModule.forRoot({
+          concurrency: embeddedWorkers + 1,
+          threads: embeddedWorkers,
+          workerId: `${os.hostname()}:${process.pid}`,
+          transport,
+        }),
+      );
     }
     return {
       module: QueueModule,

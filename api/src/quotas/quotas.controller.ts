@@ -1,6 +1,14 @@
 import { Body, Controller, Get, Param, Put } from '@nestjs/common';
 import { ApiBearerAuth, ApiBody, ApiOperation, ApiTags } from '@nestjs/swagger';
-import { ROLE_NAMES, roleQuotaPatchSchema, userQuotaPatchSchema, ValidationError, type RoleName, type RoleQuotaPatch, type UserQuotaPatch } from '@driftgrid/domain';
+import {
+  ROLE_NAMES,
+  roleQuotaPatchSchema,
+  userQuotaPatchSchema,
+  ValidationError,
+  type RoleName,
+  type RoleQuotaPatch,
+  type UserQuotaPatch,
+} from '@driftgrid/domain';
 import { IdParamPipe } from '../admin/id-param.pipe.js';
 import { Roles } from '../auth/access.decorators.js';
 import { CurrentUser, type AuthUser } from '../auth/current-user.js';
@@ -10,7 +18,9 @@ import { QuotasService } from './quotas.service.js';
 
 function parseRole(role: string): RoleName {
   if ((ROLE_NAMES as readonly string[]).includes(role)) return role as RoleName;
-  throw new ValidationError(`Invalid path: role: must be one of ${ROLE_NAMES.join(', ')}`, [{ path: 'role', message: `must be one of ${ROLE_NAMES.join(', ')}` }]);
+  throw new ValidationError(`Invalid path: role: must be one of ${ROLE_NAMES.join(', ')}`, [
+    { path: 'role', message: `must be one of ${ROLE_NAMES.join(', ')}` },
+  ]);
 }
 
 @ApiTags('admin')
@@ -29,14 +39,22 @@ export class QuotasController {
   @Put('roles/:role')
   @ApiOperation({ summary: 'Change some limits of a role default' })
   @ApiBody({ schema: openApiSchema(roleQuotaPatchSchema) })
-  putRole(@CurrentUser() actor: AuthUser, @Param('role') role: string, @Body(new ZodValidationPipe(roleQuotaPatchSchema)) body: RoleQuotaPatch) {
+  putRole(
+    @CurrentUser() actor: AuthUser,
+    @Param('role') role: string,
+    @Body(new ZodValidationPipe(roleQuotaPatchSchema)) body: RoleQuotaPatch,
+  ) {
     return this.quotas.setRoleDefault(actor.id, parseRole(role), body);
   }
 
   @Put('users/:id')
   @ApiOperation({ summary: 'Override some limits for one user; null clears a field (back to the role default)' })
   @ApiBody({ schema: openApiSchema(userQuotaPatchSchema) })
-  putUser(@CurrentUser() actor: AuthUser, @Param('id', new IdParamPipe()) id: number, @Body(new ZodValidationPipe(userQuotaPatchSchema)) body: UserQuotaPatch) {
+  putUser(
+    @CurrentUser() actor: AuthUser,
+    @Param('id', new IdParamPipe()) id: number,
+    @Body(new ZodValidationPipe(userQuotaPatchSchema)) body: UserQuotaPatch,
+  ) {
     return this.quotas.setUserOverride(actor.id, id, body);
   }
 }

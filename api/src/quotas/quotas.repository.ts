@@ -6,7 +6,8 @@ import type { OpenedDatabase } from '../db/database.js';
 
 export type OverrideFields = { [K in keyof Quota]: number | null };
 
-const COLS = 'max_points_per_sweep AS maxPointsPerSweep, max_running_sweeps AS maxRunningSweeps, max_points_per_30_days AS maxPointsPer30Days, max_stored_points AS maxStoredPoints';
+const COLS =
+  'max_points_per_sweep AS maxPointsPerSweep, max_running_sweeps AS maxRunningSweeps, max_points_per_30_days AS maxPointsPer30Days, max_stored_points AS maxStoredPoints';
 
 /**
  * All quota SQL, as prepared better-sqlite3 statements: synchronous, so the sweeps module can run

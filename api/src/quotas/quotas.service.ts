@@ -1,7 +1,17 @@
 import { Injectable, type OnModuleInit } from '@nestjs/common';
 import {
-  NotFoundError, QUOTA_KEYS, QuotaError, ROLE_NAMES, ValidationError,
-  type Quota, type QuotaUsage, type QuotaVerdict, type QuotasDocument, type RoleName, type RoleQuotaPatch, type UserQuotaPatch,
+  NotFoundError,
+  QUOTA_KEYS,
+  QuotaError,
+  ROLE_NAMES,
+  ValidationError,
+  type Quota,
+  type QuotaUsage,
+  type QuotaVerdict,
+  type QuotasDocument,
+  type RoleName,
+  type RoleQuotaPatch,
+  type UserQuotaPatch,
 } from '@driftgrid/domain';
 import { AuditService } from '../admin/audit.service.js';
 import { Clock } from '../common/clock.js';
@@ -36,7 +46,8 @@ export class QuotasService implements OnModuleInit {
   onModuleInit(): void {
     const now = this.clock.now();
     this.repo.transaction(() => {
-      for (const role of ROLE_NAMES) if (!this.repo.role(role)) this.repo.upsertRole(role, DEFAULT_ROLE_QUOTAS[role], now);
+      for (const role of ROLE_NAMES)
+        if (!this.repo.role(role)) this.repo.upsertRole(role, DEFAULT_ROLE_QUOTAS[role], now);
     });
   }
 
@@ -60,7 +71,9 @@ export class QuotasService implements OnModuleInit {
 
   verdict(userId: number, role: RoleName, points: number): QuotaVerdict {
     if (!Number.isSafeInteger(points) || points < 0) {
-      throw new ValidationError('points must be a whole number of 0 or more', [{ path: 'points', message: 'must be a whole number of 0 or more' }]);
+      throw new ValidationError('points must be a whole number of 0 or more', [
+        { path: 'points', message: 'must be a whole number of 0 or more' },
+      ]);
     }
     const violations = findViolations(this.effectiveQuota(userId, role), this.usage(userId), points);
     return { allowed: violations.length === 0, violations };
@@ -95,7 +108,12 @@ export class QuotasService implements OnModuleInit {
     this.repo.transaction(() => {
       const user = this.users.findById(userId);
       if (!user) throw new NotFoundError(`No user with id ${userId}`);
-      const before: OverrideFields = this.repo.user(userId) ?? { maxPointsPerSweep: null, maxRunningSweeps: null, maxPointsPer30Days: null, maxStoredPoints: null };
+      const before: OverrideFields = this.repo.user(userId) ?? {
+        maxPointsPerSweep: null,
+        maxRunningSweeps: null,
+        maxPointsPer30Days: null,
+        maxStoredPoints: null,
+      };
       const after: OverrideFields = { ...before };
       for (const k of QUOTA_KEYS) if (k in patch) after[k] = patch[k] ?? null;
       this.repo.saveUser(userId, after, this.clock.now());

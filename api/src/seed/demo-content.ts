@@ -16,7 +16,9 @@ const PROBE_FILE = path.join(EXAMPLES_DIR, 'datasets', 'argon-probe-profile.csv'
 
 function demoResearcher(app: INestApplication): AuthUser | null {
   const row = app.get(UsersRepository).findByEmail(DEMO_USERS.find((u) => u.role === 'researcher')!.email);
-  return row ? { id: row.id, email: row.email, name: row.name, role: row.role, via: 'session', scope: 'read-write' } : null;
+  return row
+    ? { id: row.id, email: row.email, name: row.name, role: row.role, via: 'session', scope: 'read-write' }
+    : null;
 }
 
 export async function seedDemoContent(app: INestApplication): Promise<void> {
@@ -26,13 +28,19 @@ export async function seedDemoContent(app: INestApplication): Promise<void> {
   if (!owner || !fs.existsSync(PROBE_FILE)) return;
   try {
     const buffer = fs.readFileSync(PROBE_FILE);
-    const ds = app.get(DatasetsService).upload(owner, { buffer, originalname: 'argon-probe-profile.csv', size: buffer.length }, {
-      name: 'Argon column probe profile (demo)',
-      units: { r: 'cm', phi: 'V', n: 'cm^-3' },
-      visibility: 'group',
-    });
+    const ds = app.get(DatasetsService).upload(
+      owner,
+      { buffer, originalname: 'argon-probe-profile.csv', size: buffer.length },
+      {
+        name: 'Argon column probe profile (demo)',
+        units: { r: 'cm', phi: 'V', n: 'cm^-3' },
+        visibility: 'group',
+      },
+    );
     // The Boltzmann form n = A·exp(φ/s): the fitted s is the electron temperature in eV.
-    app.get(FitsService).create(owner, { source: { kind: 'dataset', id: ds.id }, model: 'exponential', y: 'n', x: 'phi' } as never);
+    app
+      .get(FitsService)
+      .create(owner, { source: { kind: 'dataset', id: ds.id }, model: 'exponential', y: 'n', x: 'phi' } as never);
     logger.log(`Seeded the demo dataset ${ds.id} and a Boltzmann fit on it`);
   } catch (e) {
     logger.warn(`Demo dataset or fit not seeded: ${(e as Error).message}`);

@@ -40,7 +40,14 @@ export async function seedDemoSweeps(app: INestApplication, dir = EXAMPLES_DIR):
     logger.warn(`No demo researcher (${email}); no example sweeps seeded`);
     return [];
   }
-  const owner: AuthUser = { id: row.id, email: row.email, name: row.name, role: row.role, via: 'session', scope: 'read-write' };
+  const owner: AuthUser = {
+    id: row.id,
+    email: row.email,
+    name: row.name,
+    role: row.role,
+    via: 'session',
+    scope: 'read-write',
+  };
   const ids: number[] = [];
   for (const { file, definition } of readExampleDefinitions(dir)) {
     try {

@@ -39,7 +39,9 @@ export class SeedService {
     for (const u of DEMO_USERS) {
       const row = this.users.findByEmail(u.email);
       if (row?.active && (await this.passwords.verify(DEMO_PASSWORD, row.passwordHash))) {
-        throw new Error(`Refusing to start in production: the demo user ${u.email} still has the demo password; change or deactivate it (or set ALLOW_INSECURE_DEMO=true for a trial).`);
+        throw new Error(
+          `Refusing to start in production: the demo user ${u.email} still has the demo password; change or deactivate it (or set ALLOW_INSECURE_DEMO=true for a trial).`,
+        );
       }
     }
   }
@@ -50,7 +52,13 @@ export class SeedService {
     const now = this.clock.now();
     const ids: Record<string, number> = {};
     DEMO_USERS.forEach((u, i) => {
-      ids[u.role] = this.users.insert({ ...u, passwordHash: hashes[i], active: true, createdAt: now, updatedAt: now }).id;
+      ids[u.role] = this.users.insert({
+        ...u,
+        passwordHash: hashes[i],
+        active: true,
+        createdAt: now,
+        updatedAt: now,
+      }).id;
     });
     this.logger.log(`Seeded ${DEMO_USERS.length} demo users`);
     return ids;

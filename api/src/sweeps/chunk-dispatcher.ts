@@ -31,14 +31,25 @@ export class ChunkDispatcher implements OnApplicationBootstrap {
   async enqueue(sweep: SweepRow, chunkIndexes?: number[]): Promise<number> {
     const definition = JSON.parse(sweep.definition) as unknown;
     const hash = definitionHash(sweep.definition);
-    const chunks = this.sweeps.chunks(sweep.id, ['queued', 'running']).filter((c) => !chunkIndexes || chunkIndexes.includes(c.chunkIndex));
+    const chunks = this.sweeps
+      .chunks(sweep.id, ['queued', 'running'])
+      .filter((c) => !chunkIndexes || chunkIndexes.includes(c.chunkIndex));
     for (let k = 0; k < chunks.length; k += BULK) {
-      await this.queue.addBulk(chunks.slice(k, k + BULK).map((c) => ({
-        name: 'chunk',
-        data: { sweepId: sweep.id, chunkIndex: c.chunkIndex, i0: c.i0, i1: c.i1, definition, definitionHash: hash } satisfies ChunkJobData,
-        // Same id for the same chunk: re-enqueueing a chunk still on a real Redis is a no-op.
-        opts: { ...JOB_OPTIONS, jobId: chunkJobId(sweep.id, c.chunkIndex) },
-      })));
+      await this.queue.addBulk(
+        chunks.slice(k, k + BULK).map((c) => ({
+          name: 'chunk',
+          data: {
+            sweepId: sweep.id,
+            chunkIndex: c.chunkIndex,
+            i0: c.i0,
+            i1: c.i1,
+            definition,
+            definitionHash: hash,
+          } satisfies ChunkJobData,
+          // Same id for the same chunk: re-enqueueing a chunk still on a real Redis is a no-op.
+          opts: { ...JOB_OPTIONS, jobId: chunkJobId(sweep.id, c.chunkIndex) },
+        })),
+      );
     }
     return chunks.length;
   }

@@ -16,7 +16,13 @@ export class MailSweepNotifier extends SweepNotifier {
     super();
   }
 
-  async sweepFinished(e: { sweepId: number; ownerId: number; name: string; status: 'completed' | 'failed'; error?: string | null }): Promise<void> {
+  async sweepFinished(e: {
+    sweepId: number;
+    ownerId: number;
+    name: string;
+    status: 'completed' | 'failed';
+    error?: string | null;
+  }): Promise<void> {
     const owner = this.users.findById(e.ownerId);
     if (!owner) return;
     const done = e.status === 'completed';
@@ -24,9 +30,17 @@ export class MailSweepNotifier extends SweepNotifier {
       heading: done ? `Your sweep "${e.name}" completed` : `Your sweep "${e.name}" failed`,
       paragraphs: done
         ? ['Every point is stored. The sweep page has the results, plots, validity flags and export.']
-        : [`It stopped with: ${e.error ?? 'an unknown error'}.`, 'The sweep page keeps the points stored so far and the failure reason.'],
+        : [
+            `It stopped with: ${e.error ?? 'an unknown error'}.`,
+            'The sweep page keeps the points stored so far and the failure reason.',
+          ],
       action: { label: 'Open the sweep', url: `${this.config.publicUrl}/sweeps/${e.sweepId}` },
     });
-    await this.mail.sendInBackground({ to: owner.email, subject: done ? `Sweep completed: ${e.name}` : `Sweep failed: ${e.name}`, text, html });
+    await this.mail.sendInBackground({
+      to: owner.email,
+      subject: done ? `Sweep completed: ${e.name}` : `Sweep failed: ${e.name}`,
+      text,
+      html,
+    });
   }
 }

@@ -8,5 +8,11 @@ export abstract class QuotaGate {
 
 /** Tells a sweep's owner that it finished (e-mail once the mail module is wired). */
 export abstract class SweepNotifier {
-  abstract sweepFinished(event: { sweepId: number; ownerId: number; name: string; status: 'completed' | 'failed'; error?: string | null }): Promise<void>;
+  abstract sweepFinished(event: {
+    sweepId: number;
+    ownerId: number;
+    name: string;
+    status: 'completed' | 'failed';
+    error?: string | null;
+  }): Promise<void>;
 }

@@ -18,8 +18,12 @@ export class QueueAdminService {
   async status() {
     const [counts, paused] = await Promise.all([this.dispatcher.counts(), this.dispatcher.isPaused()]);
     const active = this.sweeps.unfinished().map((s) => ({
-      id: s.id, name: s.name, status: s.status, owner: this.users.findById(s.ownerId)?.name ?? 'unknown',
-      progress: { done: s.pointsDone, total: s.points }, createdAt: new Date(s.createdAt).toISOString(),
+      id: s.id,
+      name: s.name,
+      status: s.status,
+      owner: this.users.findById(s.ownerId)?.name ?? 'unknown',
+      progress: { done: s.pointsDone, total: s.points },
+      createdAt: new Date(s.createdAt).toISOString(),
     }));
     return { mode: this.conn.mode, paused, counts, sweeps: active };
   }

@@ -42,16 +42,22 @@ export function parseFilter(raw: unknown, layout: readonly StoredColumn[], path 
   if (raw === undefined || raw === null || raw === '') return {};
   let value = raw;
   if (typeof raw === 'string') {
-    if (raw.length > 10_000) throw new ValidationError('filter is too long', [{ path, message: 'at most 10,000 characters' }]);
+    if (raw.length > 10_000)
+      throw new ValidationError('filter is too long', [{ path, message: 'at most 10,000 characters' }]);
     try {
       value = JSON.parse(raw);
     } catch {
-      throw new ValidationError('filter is not valid JSON', [{ path, message: 'expected JSON like {"Te_eV":{"gte":10}}' }]);
+      throw new ValidationError('filter is not valid JSON', [
+        { path, message: 'expected JSON like {"Te_eV":{"gte":10}}' },
+      ]);
     }
   }
   const parsed = resultFilterSchema.safeParse(value);
   if (!parsed.success) {
-    const details: ErrorDetail[] = parsed.error.issues.map((i) => ({ path: [path, ...i.path.map(String)].join('.'), message: i.message }));
+    const details: ErrorDetail[] = parsed.error.issues.map((i) => ({
+      path: [path, ...i.path.map(String)].join('.'),
+      message: i.message,
+    }));
     throw new ValidationError(`Invalid filter: ${details[0].path}: ${details[0].message}`, details);
   }
   for (const name of Object.keys(parsed.data)) columnByName(layout, name, `${path}.${name}`);
@@ -82,9 +88,15 @@ export function compileFilter(sweepId: number, layout: readonly StoredColumn[], 
 /** `col:asc` / `col:desc` against the whitelist; default is index order (the rowid scan). */
 export function compileSort(layout: readonly StoredColumn[], raw: unknown): string {
   if (raw === undefined || raw === '' || raw === null) return 'id ASC';
-  if (typeof raw !== 'string' || raw.length > 80) throw new ValidationError('sort must be "column:asc" or "column:desc"', [{ path: 'sort', message: 'expected column:asc or column:desc' }]);
+  if (typeof raw !== 'string' || raw.length > 80)
+    throw new ValidationError('sort must be "column:asc" or "column:desc"', [
+      { path: 'sort', message: 'expected column:asc or column:desc' },
+    ]);
   const m = /^([A-Za-z_][A-Za-z0-9_]*)(?::(asc|desc))?$/i.exec(raw);
-  if (!m) throw new ValidationError('sort must be "column:asc" or "column:desc"', [{ path: 'sort', message: 'expected column:asc or column:desc' }]);
+  if (!m)
+    throw new ValidationError('sort must be "column:asc" or "column:desc"', [
+      { path: 'sort', message: 'expected column:asc or column:desc' },
+    ]);
   const col = columnByName(layout, m[1], 'sort');
   const dir = (m[2] ?? 'asc').toLowerCase() === 'desc' ? 'DESC' : 'ASC';
   if (col.kind === 'index') return `id ${dir}`;

@@ -26,7 +26,8 @@ export class SweepAccess {
   /** Owner or admin; readers who are neither get 403, others 404. */
   manageable(user: AuthUser, id: number): SweepRow {
     const s = this.readable(user, id);
-    if (user.role !== 'admin' && s.ownerId !== user.id) throw new ForbiddenError('Only the owner or an admin may change this sweep');
+    if (user.role !== 'admin' && s.ownerId !== user.id)
+      throw new ForbiddenError('Only the owner or an admin may change this sweep');
     return s;
   }
 }

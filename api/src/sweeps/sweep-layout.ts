@@ -26,7 +26,8 @@ export function layoutColumns(columns: readonly SweepColumn[], sweepId?: number)
     if (c.kind === 'flags') return { ...c, slot: 'flags' };
     return { ...c, slot: `c${next++}` };
   });
-  if (next > RESULT_SLOTS) throw new RangeError(`A sweep may store at most ${RESULT_SLOTS} numeric columns; this one has ${next}`);
+  if (next > RESULT_SLOTS)
+    throw new RangeError(`A sweep may store at most ${RESULT_SLOTS} numeric columns; this one has ${next}`);
   return out;
 }
 

@@ -40,7 +40,9 @@ export class SweepPersistence {
     let st = this.statements.get(key);
     if (!st) {
       const one = `(${new Array(slots.length + 2).fill('?').join(',')})`;
-      st = this.handle.sqlite.prepare(`INSERT OR REPLACE INTO results (id, flags, ${slots.join(', ')}) VALUES ${new Array(rows).fill(one).join(',')}`);
+      st = this.handle.sqlite.prepare(
+        `INSERT OR REPLACE INTO results (id, flags, ${slots.join(', ')}) VALUES ${new Array(rows).fill(one).join(',')}`,
+      );
       this.statements.set(key, st);
     }
     return st;
@@ -51,10 +53,12 @@ export class SweepPersistence {
     const outcome = this.sweeps.transaction(() => {
       const sweep = this.sweeps.findById(p.sweepId);
       if (!sweep || (sweep.status !== 'queued' && sweep.status !== 'running')) return 'dropped' as const;
-      const chunk = this.handle.sqlite.prepare('SELECT state, i0, i1 FROM sweep_chunks WHERE sweep_id = ? AND chunk_index = ?').get(p.sweepId, p.chunkIndex) as
-        { state: string; i0: number; i1: number } | undefined;
+      const chunk = this.handle.sqlite
+        .prepare('SELECT state, i0, i1 FROM sweep_chunks WHERE sweep_id = ? AND chunk_index = ?')
+        .get(p.sweepId, p.chunkIndex) as { state: string; i0: number; i1: number } | undefined;
       if (!chunk || chunk.state === 'cancelled') return 'dropped' as const;
-      if (chunk.i0 !== p.i0 || chunk.i1 - chunk.i0 !== p.n) throw new Error(`chunk ${p.chunkIndex} of sweep ${p.sweepId} does not match its plan`);
+      if (chunk.i0 !== p.i0 || chunk.i1 - chunk.i0 !== p.n)
+        throw new Error(`chunk ${p.chunkIndex} of sweep ${p.sweepId} does not match its plan`);
       if (chunk.state === 'done') return 'duplicate' as const;
 
       const layout = JSON.parse(sweep.columns) as StoredColumn[];
@@ -96,7 +100,10 @@ export class SweepPersistence {
       }
       for (const f of model.flags) if (perBit[f.bit]) counts[f.code] = (counts[f.code] ?? 0) + perBit[f.bit];
 
-      this.handle.sqlite.prepare("UPDATE sweep_chunks SET state = 'done', worker_id = ?, compute_ms = ?, attempts = ?, error = NULL, updated_at = ? WHERE sweep_id = ? AND chunk_index = ?")
+      this.handle.sqlite
+        .prepare(
+          "UPDATE sweep_chunks SET state = 'done', worker_id = ?, compute_ms = ?, attempts = ?, error = NULL, updated_at = ? WHERE sweep_id = ? AND chunk_index = ?",
+        )
         .run(p.workerId, p.computeMs, p.attempt, now, p.sweepId, p.chunkIndex);
       const done = sweep.pointsDone + p.n;
       const complete = done >= sweep.points;
@@ -113,7 +120,9 @@ export class SweepPersistence {
     });
     if (outcome === 'completed') {
       const s = this.sweeps.findById(p.sweepId)!;
-      void this.notifier.sweepFinished({ sweepId: s.id, ownerId: s.ownerId, name: s.name, status: 'completed' }).catch((e) => this.logger.warn(`notify failed: ${(e as Error).message}`));
+      void this.notifier
+        .sweepFinished({ sweepId: s.id, ownerId: s.ownerId, name: s.name, status: 'completed' })
+        .catch((e) => this.logger.warn(`notify failed: ${(e as Error).message}`));
       return 'stored';
     }
     return outcome;
@@ -123,18 +132,34 @@ export class SweepPersistence {
   fail(f: ChunkFailure): void {
     const now = this.clock.now();
     const failed = this.sweeps.transaction(() => {
-      this.handle.sqlite.prepare("UPDATE sweep_chunks SET state = 'failed', error = ?, worker_id = ?, updated_at = ? WHERE sweep_id = ? AND chunk_index = ? AND state != 'done'")
+      this.handle.sqlite
+        .prepare(
+          "UPDATE sweep_chunks SET state = 'failed', error = ?, worker_id = ?, updated_at = ? WHERE sweep_id = ? AND chunk_index = ? AND state != 'done'",
+        )
         .run(f.reason.slice(0, 2000), f.workerId, now, f.sweepId, f.chunkIndex);
-      return this.sweeps.transition(f.sweepId, ['queued', 'running'], { status: 'failed', error: `chunk ${f.chunkIndex}: ${f.reason}`.slice(0, 2000), finishedAt: now });
+      return this.sweeps.transition(f.sweepId, ['queued', 'running'], {
+        status: 'failed',
+        error: `chunk ${f.chunkIndex}: ${f.reason}`.slice(0, 2000),
+        finishedAt: now,
+      });
     });
     if (failed) {
       const s = this.sweeps.findById(f.sweepId)!;
-      void this.notifier.sweepFinished({ sweepId: s.id, ownerId: s.ownerId, name: s.name, status: 'failed', error: s.error }).catch(() => undefined);
+      void this.notifier
+        .sweepFinished({ sweepId: s.id, ownerId: s.ownerId, name: s.name, status: 'failed', error: s.error })
+        .catch(() => undefined);
     }
   }
 }
 
-function fillRow(params: unknown[], at: number, id: number, flags: Uint32Array, arrays: Float64Array[], i: number): void {
+function fillRow(
+  params: unknown[],
+  at: number,
+  id: number,
+  flags: Uint32Array,
+  arrays: Float64Array[],
+  i: number,
+): void {
   params[at] = id;
   params[at + 1] = flags[i];
   for (let c = 0; c < arrays.length; c++) {

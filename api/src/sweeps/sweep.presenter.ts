@@ -8,7 +8,15 @@ export interface SweepOwner {
 }
 
 /** The SPEC §6 sweep shape. */
-export function presentSweep(s: SweepRow, extra: { tags: string[]; owner: SweepOwner; workers: { id: string; chunks: number; points: number }[]; sharedWith?: number[] }) {
+export function presentSweep(
+  s: SweepRow,
+  extra: {
+    tags: string[];
+    owner: SweepOwner;
+    workers: { id: string; chunks: number; points: number }[];
+    sharedWith?: number[];
+  },
+) {
   const columns = (JSON.parse(s.columns) as StoredColumn[]).map(({ slot: _slot, ...c }) => c);
   return {
     id: s.id,
@@ -36,7 +44,13 @@ export function presentSweep(s: SweepRow, extra: { tags: string[]; owner: SweepO
       workers: extra.workers,
     },
     ...(s.archiveSha256
-      ? { archive: { sha256: s.archiveSha256, bytes: s.archiveBytes, archivedAt: s.archivedAt ? new Date(s.archivedAt).toISOString() : null } }
+      ? {
+          archive: {
+            sha256: s.archiveSha256,
+            bytes: s.archiveBytes,
+            archivedAt: s.archivedAt ? new Date(s.archivedAt).toISOString() : null,
+          },
+        }
       : {}),
   };
 }

@@ -19,7 +19,14 @@ import { SweepsService } from './sweeps.service.js';
   imports: [BullModule.registerQueue({ name: CHUNK_QUEUE }, { name: RESULT_QUEUE })],
   controllers: [SweepsController, QueueAdminController],
   providers: [
-    SweepsRepository, SweepsService, SweepAccess, SweepPersistence, ChunkDispatcher, ResultsProcessor, ResultsReader, QueueAdminService,
+    SweepsRepository,
+    SweepsService,
+    SweepAccess,
+    SweepPersistence,
+    ChunkDispatcher,
+    ResultsProcessor,
+    ResultsReader,
+    QueueAdminService,
     { provide: SweepNotifier, useClass: MailSweepNotifier },
     // QuotasService has exactly the QuotaGate shape (synchronous verdict and assert).
     { provide: QuotaGate, useExisting: QuotasService },

@@ -21,8 +21,14 @@ export class SweepsRepository {
   insert(row: NewSweep, tags: string[], chunks: { index: number; i0: number; i1: number }[], now: number): SweepRow {
     return this.transaction(() => {
       const s = this.db.insert(sweeps).values(row).returning().get();
-      if (tags.length) this.db.insert(sweepTags).values([...new Set(tags)].map((tag) => ({ sweepId: s.id, tag }))).run();
-      const ins = this.db.$client.prepare('INSERT INTO sweep_chunks (sweep_id, chunk_index, i0, i1, state, attempts, updated_at) VALUES (?, ?, ?, ?, ?, 0, ?)');
+      if (tags.length)
+        this.db
+          .insert(sweepTags)
+          .values([...new Set(tags)].map((tag) => ({ sweepId: s.id, tag })))
+          .run();
+      const ins = this.db.$client.prepare(
+        'INSERT INTO sweep_chunks (sweep_id, chunk_index, i0, i1, state, attempts, updated_at) VALUES (?, ?, ?, ?, ?, 0, ?)',
+      );
       for (const c of chunks) ins.run(s.id, c.index, c.i0, c.i1, 'queued', now);
       return s;
     });
@@ -33,15 +39,29 @@ export class SweepsRepository {
   }
 
   tags(id: number): string[] {
-    return this.db.select({ tag: sweepTags.tag }).from(sweepTags).where(eq(sweepTags.sweepId, id)).all().map((r) => r.tag);
+    return this.db
+      .select({ tag: sweepTags.tag })
+      .from(sweepTags)
+      .where(eq(sweepTags.sweepId, id))
+      .all()
+      .map((r) => r.tag);
   }
 
   sharedWith(id: number): number[] {
-    return this.db.select({ u: sweepShares.userId }).from(sweepShares).where(eq(sweepShares.sweepId, id)).all().map((r) => r.u);
+    return this.db
+      .select({ u: sweepShares.userId })
+      .from(sweepShares)
+      .where(eq(sweepShares.sweepId, id))
+      .all()
+      .map((r) => r.u);
   }
 
   isSharedWith(id: number, userId: number): boolean {
-    return !!this.db.select({ u: sweepShares.userId }).from(sweepShares).where(and(eq(sweepShares.sweepId, id), eq(sweepShares.userId, userId))).get();
+    return !!this.db
+      .select({ u: sweepShares.userId })
+      .from(sweepShares)
+      .where(and(eq(sweepShares.sweepId, id), eq(sweepShares.userId, userId)))
+      .get();
   }
 
   update(id: number, patch: Partial<NewSweep>): void {
@@ -50,23 +70,36 @@ export class SweepsRepository {
 
   /** Changes status only when the sweep is currently in one of `from` (compare-and-set). */
   transition(id: number, from: readonly SweepStatus[], patch: Partial<NewSweep> & { status: SweepStatus }): boolean {
-    const r = this.db.update(sweeps).set(patch).where(and(eq(sweeps.id, id), inArray(sweeps.status, [...from]))).run();
+    const r = this.db
+      .update(sweeps)
+      .set(patch)
+      .where(and(eq(sweeps.id, id), inArray(sweeps.status, [...from])))
+      .run();
     return r.changes > 0;
   }
 
   chunks(id: number, states?: readonly string[]): ChunkRow[] {
-    const cond = states ? and(eq(sweepChunks.sweepId, id), inArray(sweepChunks.state, states as never)) : eq(sweepChunks.sweepId, id);
+    const cond = states
+      ? and(eq(sweepChunks.sweepId, id), inArray(sweepChunks.state, states as never))
+      : eq(sweepChunks.sweepId, id);
     return this.db.select().from(sweepChunks).where(cond).orderBy(sweepChunks.chunkIndex).all();
   }
 
   setChunkStates(id: number, from: readonly string[], to: string, now: number): number {
-    return this.db.update(sweepChunks).set({ state: to as never, updatedAt: now })
-      .where(and(eq(sweepChunks.sweepId, id), inArray(sweepChunks.state, from as never))).run().changes;
+    return this.db
+      .update(sweepChunks)
+      .set({ state: to as never, updatedAt: now })
+      .where(and(eq(sweepChunks.sweepId, id), inArray(sweepChunks.state, from as never)))
+      .run().changes;
   }
 
   /** Sweeps with work outstanding (re-enqueued at start). */
   unfinished(): SweepRow[] {
-    return this.db.select().from(sweeps).where(inArray(sweeps.status, ['queued', 'running'])).all();
+    return this.db
+      .select()
+      .from(sweeps)
+      .where(inArray(sweeps.status, ['queued', 'running']))
+      .all();
   }
 
   workerSummary(id: number): { id: string; chunks: number; points: number }[] {

@@ -1,6 +1,11 @@
 import { Inject, Injectable } from '@nestjs/common';
 import {
-  ConflictError, checkSweep, planChunks, ValidationError, type CompiledSweep, type ErrorDetail,
+  ConflictError,
+  checkSweep,
+  planChunks,
+  ValidationError,
+  type CompiledSweep,
+  type ErrorDetail,
 } from '@driftgrid/domain';
 import type { AuthUser } from '../auth/current-user.js';
 import { Clock } from '../common/clock.js';
@@ -34,9 +39,19 @@ export class SweepsService {
   /** Everything the builder shows before submitting: counts, estimate, quota verdict, every error. */
   preview(user: AuthUser, raw: unknown) {
     const checked = checkSweep(raw);
-    if (!checked.ok) return { ok: false, errors: checked.errors, points: null, chunks: null, estimate: null, quota: null, sample: null };
+    if (!checked.ok)
+      return {
+        ok: false,
+        errors: checked.errors,
+        points: null,
+        chunks: null,
+        estimate: null,
+        quota: null,
+        sample: null,
+      };
     const unknown = unknownKeys(raw, checked.compiled.definition);
-    if (unknown.length) return { ok: false, errors: unknown, points: null, chunks: null, estimate: null, quota: null, sample: null };
+    if (unknown.length)
+      return { ok: false, errors: unknown, points: null, chunks: null, estimate: null, quota: null, sample: null };
     const c = checked.compiled;
     const quota = this.quotas.verdict(user.id, user.role, c.totalPoints);
     const kernelRate = this.measureKernel(c);
@@ -47,7 +62,11 @@ export class SweepsService {
       errors: [] as ErrorDetail[],
       points: c.totalPoints,
       chunks: Math.ceil(c.totalPoints / this.config.chunkSize),
-      estimate: { seconds, kernelPointsPerSecond: Math.round(kernelRate), persistRowsPerSecond: Math.round(this.persistRate) },
+      estimate: {
+        seconds,
+        kernelPointsPerSecond: Math.round(kernelRate),
+        persistRowsPerSecond: Math.round(this.persistRate),
+      },
       quota,
       columns: c.columns,
       sample,
@@ -68,14 +87,24 @@ export class SweepsService {
    * Submits a sweep. `enforceQuota: false` is for the demo seed only: it submits several example
    * sweeps at once on behalf of the demo researcher, which a user's own submissions may not.
    */
-  async create(user: AuthUser, raw: unknown, opts: { enforceQuota?: boolean } = {}): Promise<{ id: number; status: string; points: number }> {
+  async create(
+    user: AuthUser,
+    raw: unknown,
+    opts: { enforceQuota?: boolean } = {},
+  ): Promise<{ id: number; status: string; points: number }> {
     const checked = checkSweep(raw);
-    if (!checked.ok) throw new ValidationError(`Invalid sweep definition: ${checked.errors[0].path}: ${checked.errors[0].message}`, checked.errors);
+    if (!checked.ok)
+      throw new ValidationError(
+        `Invalid sweep definition: ${checked.errors[0].path}: ${checked.errors[0].message}`,
+        checked.errors,
+      );
     // The raw body is stored as the definition, so nothing unchecked may ride along in it.
     const unknown = unknownKeys(raw, checked.compiled.definition);
-    if (unknown.length) throw new ValidationError(`Invalid sweep definition: ${unknown[0].path}: ${unknown[0].message}`, unknown);
+    if (unknown.length)
+      throw new ValidationError(`Invalid sweep definition: ${unknown[0].path}: ${unknown[0].message}`, unknown);
     const c = checked.compiled;
-    if (c.totalPoints < 1) throw new ValidationError('The sweep has no points', [{ path: 'axes', message: 'at least one point is needed' }]);
+    if (c.totalPoints < 1)
+      throw new ValidationError('The sweep has no points', [{ path: 'axes', message: 'at least one point is needed' }]);
     const layout = layoutColumns(c.columns);
     const chunks = planChunks(c.totalPoints, this.config.chunkSize);
     const now = this.clock.now();
@@ -83,11 +112,25 @@ export class SweepsService {
     // Quota check and insert in one synchronous transaction: concurrent submits cannot both pass.
     const row = this.repo.transaction(() => {
       if (opts.enforceQuota !== false) this.quotas.assertAllowed(user.id, user.role, c.totalPoints);
-      return this.repo.insert({
-        ownerId: user.id, name: d.name, model: d.model, modelVersion: c.model.version, appVersion: this.config.appVersion,
-        status: 'queued', definition: JSON.stringify(raw), columns: JSON.stringify(layout), visibility: d.visibility ?? 'private',
-        points: c.totalPoints, chunkCount: chunks.length, createdAt: now,
-      }, d.tags ?? [], chunks, now);
+      return this.repo.insert(
+        {
+          ownerId: user.id,
+          name: d.name,
+          model: d.model,
+          modelVersion: c.model.version,
+          appVersion: this.config.appVersion,
+          status: 'queued',
+          definition: JSON.stringify(raw),
+          columns: JSON.stringify(layout),
+          visibility: d.visibility ?? 'private',
+          points: c.totalPoints,
+          chunkCount: chunks.length,
+          createdAt: now,
+        },
+        d.tags ?? [],
+        chunks,
+        now,
+      );
     });
     await this.dispatcher.enqueue(row);
     return { id: row.id, status: row.status, points: row.points };

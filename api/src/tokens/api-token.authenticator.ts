@@ -11,7 +11,10 @@ const TOUCH_EVERY_MS = 60_000;
 /** Resolves `dgt_…` bearers for the global AccessGuard: unknown, revoked, expired or inactive → null (401). */
 @Injectable()
 export class ApiTokenAuthenticator extends TokenAuthenticator {
-  constructor(private readonly repo: TokensRepository, private readonly clock: Clock) {
+  constructor(
+    private readonly repo: TokensRepository,
+    private readonly clock: Clock,
+  ) {
     super();
   }
 

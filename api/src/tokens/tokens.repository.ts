@@ -17,22 +17,44 @@ export class TokensRepository {
 
   listForUser(userId: number, offset: number, limit: number): { items: TokenRow[]; total: number } {
     const where = eq(apiTokens.userId, userId);
-    const items = this.db.select().from(apiTokens).where(where).orderBy(desc(apiTokens.id)).limit(limit).offset(offset).all();
+    const items = this.db
+      .select()
+      .from(apiTokens)
+      .where(where)
+      .orderBy(desc(apiTokens.id))
+      .limit(limit)
+      .offset(offset)
+      .all();
     const total = this.db.select({ n: count() }).from(apiTokens).where(where).get()?.n ?? 0;
     return { items, total };
   }
 
   countUnrevoked(userId: number): number {
-    return this.db.select({ n: count() }).from(apiTokens).where(and(eq(apiTokens.userId, userId), isNull(apiTokens.revokedAt))).get()?.n ?? 0;
+    return (
+      this.db
+        .select({ n: count() })
+        .from(apiTokens)
+        .where(and(eq(apiTokens.userId, userId), isNull(apiTokens.revokedAt)))
+        .get()?.n ?? 0
+    );
   }
 
   findForUser(id: number, userId: number): TokenRow | undefined {
-    return this.db.select().from(apiTokens).where(and(eq(apiTokens.id, id), eq(apiTokens.userId, userId))).get();
+    return this.db
+      .select()
+      .from(apiTokens)
+      .where(and(eq(apiTokens.id, id), eq(apiTokens.userId, userId)))
+      .get();
   }
 
   /** The token and its owner by the secret's hash, in one query (hot path: every token request). */
   findByHash(hash: string): { token: TokenRow; user: UserRowForToken } | undefined {
-    return this.db.select({ token: apiTokens, user: users }).from(apiTokens).innerJoin(users, eq(users.id, apiTokens.userId)).where(eq(apiTokens.tokenHash, hash)).get();
+    return this.db
+      .select({ token: apiTokens, user: users })
+      .from(apiTokens)
+      .innerJoin(users, eq(users.id, apiTokens.userId))
+      .where(eq(apiTokens.tokenHash, hash))
+      .get();
   }
 
   revoke(id: number, now: number): void {

@@ -20,7 +20,11 @@ export class UsersRepository {
   }
 
   insert(user: NewUser): UserRow {
-    return this.db.insert(users).values({ ...user, email: user.email.toLowerCase() }).returning().get();
+    return this.db
+      .insert(users)
+      .values({ ...user, email: user.email.toLowerCase() })
+      .returning()
+      .get();
   }
 
   update(id: number, patch: Partial<NewUser>): UserRow | undefined {
@@ -32,7 +36,13 @@ export class UsersRepository {
   }
 
   countActiveAdmins(): number {
-    return this.db.select({ n: count() }).from(users).where(and(eq(users.role, 'admin'), eq(users.active, true))).get()?.n ?? 0;
+    return (
+      this.db
+        .select({ n: count() })
+        .from(users)
+        .where(and(eq(users.role, 'admin'), eq(users.active, true)))
+        .get()?.n ?? 0
+    );
   }
 
   list(opts: { q?: string; role?: Role; offset: number; limit: number }): { items: UserRow[]; total: number } {
@@ -43,7 +53,14 @@ export class UsersRepository {
     }
     if (opts.role) where.push(eq(users.role, opts.role));
     const cond = where.length ? and(...where) : undefined;
-    const items = this.db.select().from(users).where(cond).orderBy(asc(users.id)).limit(opts.limit).offset(opts.offset).all();
+    const items = this.db
+      .select()
+      .from(users)
+      .where(cond)
+      .orderBy(asc(users.id))
+      .limit(opts.limit)
+      .offset(opts.offset)
+      .all();
     const total = this.db.select({ n: count() }).from(users).where(cond).get()?.n ?? 0;
     return { items, total };
   }

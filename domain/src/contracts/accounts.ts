@@ -9,7 +9,11 @@ export type QuotaKey = (typeof QUOTA_KEYS)[number];
 /** Upper bound for any quota value: far above any sweep a server can hold, below 2^53. */
 export const QUOTA_MAX = 1_000_000_000_000;
 
-const quotaValue = z.number().int('must be a whole number').min(0, 'must be 0 or more').max(QUOTA_MAX, `at most ${QUOTA_MAX}`);
+const quotaValue = z
+  .number()
+  .int('must be a whole number')
+  .min(0, 'must be 0 or more')
+  .max(QUOTA_MAX, `at most ${QUOTA_MAX}`);
 
 export const quotaSchema = z.object({
   maxPointsPerSweep: quotaValue,
@@ -77,7 +81,12 @@ export interface QuotasDocument {
 
 export const pageQuerySchema = z.object({
   page: z.coerce.number().int('must be a whole number').min(1, 'must be 1 or more').default(1),
-  pageSize: z.coerce.number().int('must be a whole number').min(1, 'must be 1 or more').max(1000, 'at most 1000').default(50),
+  pageSize: z.coerce
+    .number()
+    .int('must be a whole number')
+    .min(1, 'must be 1 or more')
+    .max(1000, 'at most 1000')
+    .default(50),
 });
 export type PageQuery = z.infer<typeof pageQuerySchema>;
 
@@ -158,7 +167,9 @@ export interface Invitation {
 /** One-time secrets in links: base64url of 32 random bytes (43 characters). */
 export const oneTimeTokenSchema = z.string().trim().min(20, 'the link is incomplete').max(200, 'the link is malformed');
 
-export const acceptInviteSchema = z.object({ token: oneTimeTokenSchema, name: personNameSchema, password: passwordSchema }).strict();
+export const acceptInviteSchema = z
+  .object({ token: oneTimeTokenSchema, name: personNameSchema, password: passwordSchema })
+  .strict();
 export type AcceptInviteRequest = z.infer<typeof acceptInviteSchema>;
 
 export const passwordResetRequestSchema = z.object({ email: emailSchema }).strict();
@@ -174,7 +185,8 @@ export const changePasswordSchema = z
 export type ChangePasswordRequest = z.infer<typeof changePasswordSchema>;
 
 /** The same answer whether or not the address is registered. */
-export const PASSWORD_RESET_ACCEPTED = 'If an account exists for that address, a reset link is on its way. It is valid for one hour.';
+export const PASSWORD_RESET_ACCEPTED =
+  'If an account exists for that address, a reset link is on its way. It is valid for one hour.';
 
 /* ---------- personal API tokens ---------- */
 
@@ -192,7 +204,10 @@ export const createTokenSchema = z
     expiresAt: z
       .union([
         z.number().int('must be whole milliseconds'),
-        z.string().trim().refine((s) => !Number.isNaN(Date.parse(s)), 'must be an ISO 8601 date or date-time'),
+        z
+          .string()
+          .trim()
+          .refine((s) => !Number.isNaN(Date.parse(s)), 'must be an ISO 8601 date or date-time'),
       ])
       .nullable()
       .optional()

@@ -3,7 +3,12 @@ import { z } from 'zod';
 export const ROLE_NAMES = ['admin', 'researcher', 'reviewer'] as const;
 export type RoleName = (typeof ROLE_NAMES)[number];
 
-export const emailSchema = z.string().trim().toLowerCase().max(254, 'at most 254 characters').email('must be an e-mail address');
+export const emailSchema = z
+  .string()
+  .trim()
+  .toLowerCase()
+  .max(254, 'at most 254 characters')
+  .email('must be an e-mail address');
 
 /** Passwords: 10–200 characters (length beats composition rules). */
 export const passwordSchema = z.string().min(10, 'at least 10 characters').max(200, 'at most 200 characters');

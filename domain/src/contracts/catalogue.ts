@@ -6,7 +6,15 @@ import { z } from 'zod';
  * parameter is a 400 naming it rather than a silently ignored filter.
  */
 
-export const CATALOGUE_STATUSES = ['draft', 'queued', 'running', 'completed', 'failed', 'cancelled', 'archived'] as const;
+export const CATALOGUE_STATUSES = [
+  'draft',
+  'queued',
+  'running',
+  'completed',
+  'failed',
+  'cancelled',
+  'archived',
+] as const;
 export const CATALOGUE_SCOPES = ['all', 'mine', 'shared', 'archived'] as const;
 export const CATALOGUE_SORT_KEYS = ['name', 'createdAt', 'finishedAt', 'points', 'status', 'model'] as const;
 export type CatalogueScope = (typeof CATALOGUE_SCOPES)[number];
@@ -16,12 +24,22 @@ export type CatalogueSortKey = (typeof CATALOGUE_SORT_KEYS)[number];
 function listParam<T extends z.ZodType<string, string>>(item: T, max: number) {
   return z
     .union([z.string(), z.array(z.string())])
-    .transform((v) => (Array.isArray(v) ? v : [v]).flatMap((s) => s.split(',')).map((s) => s.trim()).filter(Boolean))
+    .transform((v) =>
+      (Array.isArray(v) ? v : [v])
+        .flatMap((s) => s.split(','))
+        .map((s) => s.trim())
+        .filter(Boolean),
+    )
     .pipe(z.array(item).max(max, `at most ${max} values`));
 }
 
 const pageParam = z.coerce.number().int('must be a whole number').min(1, 'pages start at 1').default(1);
-const pageSizeParam = z.coerce.number().int('must be a whole number').min(1, 'must be at least 1').max(1000, 'at most 1000').default(50);
+const pageSizeParam = z.coerce
+  .number()
+  .int('must be a whole number')
+  .min(1, 'must be at least 1')
+  .max(1000, 'at most 1000')
+  .default(50);
 
 /** An ISO 8601 date or date-time; returns epoch milliseconds. */
 const dateParam = z
@@ -32,7 +50,11 @@ const dateParam = z
   })
   .transform((s) => Date.parse(s));
 
-const countParam = z.coerce.number().int('must be a whole number').min(0, 'must be 0 or more').max(1e12, 'at most 10¹²');
+const countParam = z.coerce
+  .number()
+  .int('must be a whole number')
+  .min(0, 'must be 0 or more')
+  .max(1e12, 'at most 10¹²');
 const boolParam = z.enum(['true', 'false'], { message: 'expected true or false' }).transform((v) => v === 'true');
 
 /** GET /api/sweeps */
@@ -42,12 +64,20 @@ export const sweepListQuerySchema = z
     pageSize: pageSizeParam,
     sort: z
       .string()
-      .regex(new RegExp(`^(${CATALOGUE_SORT_KEYS.join('|')})(:(asc|desc))?$`), `expected one of ${CATALOGUE_SORT_KEYS.join(', ')} with :asc or :desc`)
+      .regex(
+        new RegExp(`^(${CATALOGUE_SORT_KEYS.join('|')})(:(asc|desc))?$`),
+        `expected one of ${CATALOGUE_SORT_KEYS.join(', ')} with :asc or :desc`,
+      )
       .default('createdAt:desc'),
     q: z.string().trim().max(200, 'at most 200 characters').optional(),
     model: listParam(z.string().regex(/^[a-z0-9-]{1,64}$/, 'expected a model id such as cross-field'), 10).optional(),
-    status: listParam(z.enum(CATALOGUE_STATUSES, { message: `expected one of ${CATALOGUE_STATUSES.join(', ')}` }), 7).optional(),
-    owner: z.union([z.literal('me'), z.coerce.number().int().positive()], { message: 'expected a user id or "me"' }).optional(),
+    status: listParam(
+      z.enum(CATALOGUE_STATUSES, { message: `expected one of ${CATALOGUE_STATUSES.join(', ')}` }),
+      7,
+    ).optional(),
+    owner: z
+      .union([z.literal('me'), z.coerce.number().int().positive()], { message: 'expected a user id or "me"' })
+      .optional(),
     tag: listParam(z.string().max(64, 'tags are at most 64 characters'), 20).optional(),
     createdFrom: dateParam.optional(),
     createdTo: dateParam.optional(),
@@ -86,15 +116,23 @@ export const seriesQuerySchema = z
     y: columnName,
     z: columnName.optional(),
     groupBy: columnName.optional(),
-    maxPoints: z.coerce.number().int('must be a whole number').min(2, 'at least 2').max(20_000, 'at most 20,000').default(2000),
+    maxPoints: z.coerce
+      .number()
+      .int('must be a whole number')
+      .min(2, 'at least 2')
+      .max(20_000, 'at most 20,000')
+      .default(2000),
     filter: z.string().max(10_000, 'at most 10,000 characters').optional(),
     valid: boolParam.optional(),
     agg: z.enum(['slice', 'mean'], { message: 'expected slice or mean' }).default('slice'),
-    slice: z.record(columnName, z.coerce.number().int('must be a whole number').min(0, 'must be 0 or more')).default({}),
+    slice: z
+      .record(columnName, z.coerce.number().int('must be a whole number').min(0, 'must be 0 or more'))
+      .default({}),
   })
   .strict()
   .superRefine((v, ctx) => {
-    if (v.kind === 'heatmap' && !v.z) ctx.addIssue({ code: 'custom', path: ['z'], message: 'a heatmap needs z, the column shown as colour' });
+    if (v.kind === 'heatmap' && !v.z)
+      ctx.addIssue({ code: 'custom', path: ['z'], message: 'a heatmap needs z, the column shown as colour' });
   });
 export type SeriesQuery = z.infer<typeof seriesQuerySchema>;
 

@@ -14,7 +14,10 @@ export type DatasetVisibility = z.infer<typeof datasetVisibilitySchema>;
 
 /** `{ column: unit }`: mathjs unit strings ("V", "cm^-3", "eV", "K"); "" or "1" = dimensionless. */
 export const datasetUnitsSchema = z.record(
-  z.string().min(1, 'column name required').max(DATASET_COLUMN_NAME_MAX, `at most ${DATASET_COLUMN_NAME_MAX} characters`),
+  z
+    .string()
+    .min(1, 'column name required')
+    .max(DATASET_COLUMN_NAME_MAX, `at most ${DATASET_COLUMN_NAME_MAX} characters`),
   z.string().trim().max(64, 'at most 64 characters'),
 );
 export type DatasetUnits = z.infer<typeof datasetUnitsSchema>;
@@ -41,7 +44,12 @@ export const datasetUploadFieldsSchema = z.object({
 export type DatasetUploadFields = z.infer<typeof datasetUploadFieldsSchema>;
 
 const page = z.coerce.number().int('must be a whole number').min(1, 'at least 1').default(1);
-const pageSize = z.coerce.number().int('must be a whole number').min(1, 'at least 1').max(1000, 'at most 1000').default(50);
+const pageSize = z.coerce
+  .number()
+  .int('must be a whole number')
+  .min(1, 'at least 1')
+  .max(1000, 'at most 1000')
+  .default(50);
 
 export const datasetListQuerySchema = z.object({
   page,
@@ -56,7 +64,12 @@ export type DatasetRowsQuery = z.infer<typeof datasetRowsQuerySchema>;
 export const datasetSeriesQuerySchema = z.object({
   x: z.string().min(1, 'required').max(DATASET_COLUMN_NAME_MAX),
   y: z.string().min(1, 'required').max(DATASET_COLUMN_NAME_MAX),
-  maxPoints: z.coerce.number().int('must be a whole number').min(2, 'at least 2').max(200_000, 'at most 200,000').default(5000),
+  maxPoints: z.coerce
+    .number()
+    .int('must be a whole number')
+    .min(2, 'at least 2')
+    .max(200_000, 'at most 200,000')
+    .default(5000),
 });
 export type DatasetSeriesQuery = z.infer<typeof datasetSeriesQuerySchema>;
 

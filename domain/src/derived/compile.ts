@@ -24,7 +24,20 @@ export interface CompiledDerived {
 }
 
 const IDENTIFIER = /^[A-Za-z][A-Za-z0-9_]{0,63}$/;
-const RESERVED = new Set(['pi', 'e', 'i', 'Infinity', 'NaN', 'true', 'false', 'null', 'undefined', 'idx', 'flags', 'valid']);
+const RESERVED = new Set([
+  'pi',
+  'e',
+  'i',
+  'Infinity',
+  'NaN',
+  'true',
+  'false',
+  'null',
+  'undefined',
+  'idx',
+  'flags',
+  'valid',
+]);
 
 /**
  * Check and compile derived-column definitions against `symbols` (the model's input and output
@@ -36,7 +49,9 @@ export function compileDerived(defs: readonly DerivedDef[], symbols: readonly st
   const names: string[] = [];
   const compiled: CompiledExpression[] = [];
   if (!Array.isArray(defs)) {
-    throw new ValidationError('derived must be a list of { name, expr }', [{ path: 'derived', message: 'expected a list of { name, expr }' }]);
+    throw new ValidationError('derived must be a list of { name, expr }', [
+      { path: 'derived', message: 'expected a list of { name, expr }' },
+    ]);
   }
 
   defs.forEach((def, i) => {
@@ -44,7 +59,10 @@ export function compileDerived(defs: readonly DerivedDef[], symbols: readonly st
     const namePath = `derived.${i}.name`;
     let nameOk = false;
     if (typeof name !== 'string' || !IDENTIFIER.test(name)) {
-      details.push({ path: namePath, message: `name must start with a letter and use only letters, digits and "_" (at most 64), got ${JSON.stringify(name)}` });
+      details.push({
+        path: namePath,
+        message: `name must start with a letter and use only letters, digits and "_" (at most 64), got ${JSON.stringify(name)}`,
+      });
     } else if (known.has(name)) {
       details.push({ path: namePath, message: `"${name}" is already an input or output of the model` });
     } else if (names.includes(name)) {
@@ -69,7 +87,10 @@ export function compileDerived(defs: readonly DerivedDef[], symbols: readonly st
   });
 
   if (details.length) {
-    throw new ValidationError(`Invalid derived columns: ${details.map((d) => `${d.path}: ${d.message}`).join('; ')}`, details);
+    throw new ValidationError(
+      `Invalid derived columns: ${details.map((d) => `${d.path}: ${d.message}`).join('; ')}`,
+      details,
+    );
   }
 
   return {
@@ -82,7 +103,8 @@ export function compileDerived(defs: readonly DerivedDef[], symbols: readonly st
       const cols: Float64Array[] = [];
       for (const sym of needed) {
         const col = columns[sym];
-        if (!col || col.length < n) throw new Error(`derived evaluateChunk: column ${sym} missing or shorter than ${n}`);
+        if (!col || col.length < n)
+          throw new Error(`derived evaluateChunk: column ${sym} missing or shorter than ${n}`);
         keys.push(sym);
         cols.push(col);
       }

@@ -32,12 +32,16 @@ describe('compileDerived', () => {
     const n = 5;
     const inputs: Record<string, Float64Array> = {};
     for (const s of crossField.inputs) inputs[s.name] = new Float64Array(n).fill(s.default);
-    for (let k = 0; k < n; k++) { inputs.Er_Vm![k] = 100 * k; inputs.Te_eV![k] = 50 * k + 1; }
+    for (let k = 0; k < n; k++) {
+      inputs.Er_Vm![k] = 100 * k;
+      inputs.Te_eV![k] = 50 * k + 1;
+    }
     const out = allocateChunk(crossField, n);
     crossField.evaluateChunk(inputs, n, out);
     const cols = d.evaluateChunk({ ...inputs, ...out.columns }, n);
     for (let k = 0; k < n; k++) {
-      const vE = out.columns.vE_ms![k]!, vDi = out.columns.vDi_ms![k]!;
+      const vE = out.columns.vE_ms![k]!,
+        vDi = out.columns.vDi_ms![k]!;
       expect(cols.vE_over_vDi![k]).toBe(vE / vDi);
       expect(cols.ratio2![k]).toBeCloseTo((2 * vE) / vDi + Math.sqrt(out.columns.beta![k]!), 12);
       expect(cols.hot![k]).toBe(inputs.Te_eV![k]! > 100 ? 1 : 0);
@@ -95,7 +99,12 @@ describe('compileDerived', () => {
         symbols,
       ),
     );
-    expect(details.map((d) => d.path)).toEqual(['derived.0.name', 'derived.1.name', 'derived.3.name', 'derived.4.name']);
+    expect(details.map((d) => d.path)).toEqual([
+      'derived.0.name',
+      'derived.1.name',
+      'derived.3.name',
+      'derived.4.name',
+    ]);
     expect(details[0]!.message).toMatch(/already an input or output/);
     expect(details[2]!.message).toMatch(/defined twice/);
   });
@@ -107,7 +116,14 @@ describe('compileExpression', () => {
     expect(f.symbols).toEqual(['Te_eV']);
     expect(f({ Te_eV: 42, B_T: 1 })).toBe(42);
     const g = compileExpression('0.5 * Te_eV * pi + max(B_T, 2)', ['Te_eV', 'B_T'], 'fixed.x');
-    expect(g(new Map([['Te_eV', 2], ['B_T', 3]]))).toBeCloseTo(Math.PI + 3, 14);
+    expect(
+      g(
+        new Map([
+          ['Te_eV', 2],
+          ['B_T', 3],
+        ]),
+      ),
+    ).toBeCloseTo(Math.PI + 3, 14);
     expect(() => compileExpression('Ti_eV', ['Te_eV'], 'fixed.Ti_eV')).toThrow(/fixed.Ti_eV.*unknown symbol "Ti_eV"/);
     expect(() => compileExpression('  ', ['Te_eV'], 'fixed.Ti_eV')).toThrow(/non-empty/);
   });

@@ -15,15 +15,65 @@ import { math } from '../units/math.js';
 
 /** Real functions an expression may call. */
 export const ALLOWED_FUNCTIONS: ReadonlySet<string> = new Set([
-  'abs', 'sign', 'sqrt', 'cbrt', 'nthRoot', 'square', 'cube', 'exp', 'expm1', 'log', 'log10', 'log2', 'log1p',
-  'pow', 'hypot', 'min', 'max', 'floor', 'ceil', 'round', 'fix', 'mod',
-  'sin', 'cos', 'tan', 'asin', 'acos', 'atan', 'atan2', 'sinh', 'cosh', 'tanh', 'asinh', 'acosh', 'atanh',
+  'abs',
+  'sign',
+  'sqrt',
+  'cbrt',
+  'nthRoot',
+  'square',
+  'cube',
+  'exp',
+  'expm1',
+  'log',
+  'log10',
+  'log2',
+  'log1p',
+  'pow',
+  'hypot',
+  'min',
+  'max',
+  'floor',
+  'ceil',
+  'round',
+  'fix',
+  'mod',
+  'sin',
+  'cos',
+  'tan',
+  'asin',
+  'acos',
+  'atan',
+  'atan2',
+  'sinh',
+  'cosh',
+  'tanh',
+  'asinh',
+  'acosh',
+  'atanh',
 ]);
 
 /** Functions named explicitly in the error message because they could escape the sandbox. */
 export const BLOCKED_FUNCTIONS: ReadonlySet<string> = new Set([
-  'import', 'createUnit', 'evaluate', 'parse', 'compile', 'simplify', 'derivative', 'resolve', 'parser',
-  'config', 'help', 'chain', 'typed', 'reviver', 'replacer', 'unit', 'splitUnit', 'format', 'print', 'string',
+  'import',
+  'createUnit',
+  'evaluate',
+  'parse',
+  'compile',
+  'simplify',
+  'derivative',
+  'resolve',
+  'parser',
+  'config',
+  'help',
+  'chain',
+  'typed',
+  'reviver',
+  'replacer',
+  'unit',
+  'splitUnit',
+  'format',
+  'print',
+  'string',
 ]);
 
 /** Constants an expression may use besides its symbols. */
@@ -31,8 +81,27 @@ const ALLOWED_CONSTANTS: ReadonlySet<string> = new Set(['pi']);
 
 /** Operator functions mathjs produces for the allowed operators (no `to`/`in` unit conversion). */
 const ALLOWED_OPERATORS: ReadonlySet<string> = new Set([
-  'add', 'subtract', 'multiply', 'divide', 'pow', 'unaryMinus', 'unaryPlus', 'mod', 'dotMultiply', 'dotDivide',
-  'dotPow', 'smaller', 'larger', 'smallerEq', 'largerEq', 'equal', 'unequal', 'and', 'or', 'not', 'xor',
+  'add',
+  'subtract',
+  'multiply',
+  'divide',
+  'pow',
+  'unaryMinus',
+  'unaryPlus',
+  'mod',
+  'dotMultiply',
+  'dotDivide',
+  'dotPow',
+  'smaller',
+  'larger',
+  'smallerEq',
+  'largerEq',
+  'equal',
+  'unequal',
+  'and',
+  'or',
+  'not',
+  'xor',
 ]);
 
 export type ExpressionScope = Record<string, number>;
@@ -53,20 +122,40 @@ function problem(path: string, message: string): ErrorDetail {
 }
 
 /** Walk the tree and list what is not allowed; collects used symbols. */
-function check(node: MathNode, allowed: ReadonlySet<string>, path: string, used: Set<string>, errors: ErrorDetail[]): void {
+function check(
+  node: MathNode,
+  allowed: ReadonlySet<string>,
+  path: string,
+  used: Set<string>,
+  errors: ErrorDetail[],
+): void {
   const n = node as MathNode & Record<string, unknown>;
   switch (node.type) {
     case 'ConstantNode': {
-      if (typeof n.value !== 'number') errors.push(problem(path, `only numbers may appear as constants, not ${JSON.stringify(n.value)}`));
+      if (typeof n.value !== 'number')
+        errors.push(problem(path, `only numbers may appear as constants, not ${JSON.stringify(n.value)}`));
       return;
     }
     case 'SymbolNode': {
       const name = n.name as string;
       if (allowed.has(name)) used.add(name);
       else if (ALLOWED_CONSTANTS.has(name)) return;
-      else if (name === 'e') errors.push(problem(path, `symbol "e" is ambiguous: write exp(1) for Euler's number; temperatures are already in eV, so no elementary charge is needed`));
-      else if (ALLOWED_FUNCTIONS.has(name) || BLOCKED_FUNCTIONS.has(name)) errors.push(problem(path, `"${name}" is a function, not a value`));
-      else errors.push(problem(path, `unknown symbol "${name}"; allowed symbols: ${[...allowed].join(', ')}${allowed.size ? ', ' : ''}pi`));
+      else if (name === 'e')
+        errors.push(
+          problem(
+            path,
+            `symbol "e" is ambiguous: write exp(1) for Euler's number; temperatures are already in eV, so no elementary charge is needed`,
+          ),
+        );
+      else if (ALLOWED_FUNCTIONS.has(name) || BLOCKED_FUNCTIONS.has(name))
+        errors.push(problem(path, `"${name}" is a function, not a value`));
+      else
+        errors.push(
+          problem(
+            path,
+            `unknown symbol "${name}"; allowed symbols: ${[...allowed].join(', ')}${allowed.size ? ', ' : ''}pi`,
+          ),
+        );
       return;
     }
     case 'ParenthesisNode':
@@ -97,7 +186,12 @@ function check(node: MathNode, allowed: ReadonlySet<string>, path: string, used:
         return;
       }
       if (!name || !ALLOWED_FUNCTIONS.has(name)) {
-        errors.push(problem(path, `unknown or forbidden function "${name ?? fnNode.toString()}"; allowed functions: ${[...ALLOWED_FUNCTIONS].join(', ')}`));
+        errors.push(
+          problem(
+            path,
+            `unknown or forbidden function "${name ?? fnNode.toString()}"; allowed functions: ${[...ALLOWED_FUNCTIONS].join(', ')}`,
+          ),
+        );
         return;
       }
       for (const a of n.args as MathNode[]) check(a, allowed, path, used, errors);
@@ -117,7 +211,9 @@ function check(node: MathNode, allowed: ReadonlySet<string>, path: string, used:
       errors.push(problem(path, 'property access and indexing are not allowed in expressions'));
       return;
     default:
-      errors.push(problem(path, `${node.type.replace(/Node$/, '').toLowerCase()} syntax is not allowed in expressions`));
+      errors.push(
+        problem(path, `${node.type.replace(/Node$/, '').toLowerCase()} syntax is not allowed in expressions`),
+      );
   }
 }
 

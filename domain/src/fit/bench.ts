@@ -15,9 +15,14 @@ export function benchPowerLawFit(n = 100_000): { n: number; ms: number; converge
     Ti[i] = 0.5 + 50 * uniform();
     B[i] = 0.02 + uniform();
     Ln[i] = 0.005 + 0.1 * uniform();
-    v[i] = ((5 / 3) * Ti[i]!) / (B[i]! * Ln[i]!) * (1 + 0.01 * (uniform() - 0.5));
+    v[i] = (((5 / 3) * Ti[i]!) / (B[i]! * Ln[i]!)) * (1 + 0.01 * (uniform() - 0.5));
   }
   const t0 = performance.now();
-  const result = fitModel({ model: 'power-law', x: { Ti_eV: Ti, B_T: B, Ln_m: Ln }, xNames: ['Ti_eV', 'B_T', 'Ln_m'], y: v });
+  const result = fitModel({
+    model: 'power-law',
+    x: { Ti_eV: Ti, B_T: B, Ln_m: Ln },
+    xNames: ['Ti_eV', 'B_T', 'Ln_m'],
+    y: v,
+  });
   return { n, ms: performance.now() - t0, converged: result.converged, iterations: result.iterations };
 }

@@ -198,7 +198,11 @@ function check(prob: Problem, params: Float64Array, r: Float64Array, jac: Float6
   const cov = covarianceOf(lin, prob.p, lin.rss / dof);
   // A vanishing residual (noise-free data) is an exact optimum whatever the step says.
   const exact = lin.rss <= 1e-30 * sumSquares(prob.y, prob.w);
-  return { lin, singular, converged: !singular && Number.isFinite(lin.rss) && (exact || stepIsSmall(step, params, cov, tol)) };
+  return {
+    lin,
+    singular,
+    converged: !singular && Number.isFinite(lin.rss) && (exact || stepIsSmall(step, params, cov, tol)),
+  };
 }
 
 function sumSquares(y: Float64Array, w: Float64Array): number {
@@ -371,7 +375,13 @@ function predictedDecrease(lin: Linearisation, p: number, lambda: number): numbe
  * Nielsen's damping update (λ follows the gain ratio), which crosses long curved valleys
  * such as Bennett5's far faster than fixed ×10 / ÷10 factors.
  */
-function refine(prob: Problem, params: Float64Array, budget: number, r: Float64Array, jac: Float64Array): RefineOutcome {
+function refine(
+  prob: Problem,
+  params: Float64Array,
+  budget: number,
+  r: Float64Array,
+  jac: Float64Array,
+): RefineOutcome {
   const { p } = prob;
   const step = new Float64Array(p);
   const trial = new Float64Array(p);
@@ -381,8 +391,18 @@ function refine(prob: Problem, params: Float64Array, budget: number, r: Float64A
   let singularSeen = false;
   for (let it = 0; it < budget; it++) {
     const st = check(prob, params, r, jac, STEP_TOL);
-    if (st.converged) return { iterations: it, converged: true, message: 'converged: Gauss–Newton step below 1e-9 of |p| + standard error' };
-    if (!Number.isFinite(st.lin.rss)) return { iterations: it, converged: false, message: 'not converged: the model is not finite at the current parameters' };
+    if (st.converged)
+      return {
+        iterations: it,
+        converged: true,
+        message: 'converged: Gauss–Newton step below 1e-9 of |p| + standard error',
+      };
+    if (!Number.isFinite(st.lin.rss))
+      return {
+        iterations: it,
+        converged: false,
+        message: 'not converged: the model is not finite at the current parameters',
+      };
     singularSeen = st.singular;
     let accepted = false;
     while (!accepted && lambda <= 1e16) {
@@ -411,12 +431,28 @@ function refine(prob: Problem, params: Float64Array, budget: number, r: Float64A
       nu = 2;
       if (st.singular) break;
       const final = check(prob, params, r, jac, STALL_TOL);
-      if (final.converged) return { iterations: it + 1, converged: true, message: 'converged to the rounding limit: no further decrease, Gauss–Newton step below 1e-6 of |p| + standard error' };
-      return { iterations: it + 1, converged: false, message: 'not converged: no decrease of the residual sum of squares possible, but the step criterion is not met' };
+      if (final.converged)
+        return {
+          iterations: it + 1,
+          converged: true,
+          message:
+            'converged to the rounding limit: no further decrease, Gauss–Newton step below 1e-6 of |p| + standard error',
+        };
+      return {
+        iterations: it + 1,
+        converged: false,
+        message:
+          'not converged: no decrease of the residual sum of squares possible, but the step criterion is not met',
+      };
     }
   }
   if (singularSeen) {
-    return { iterations: budget, converged: false, message: 'not converged: singular problem (rank-deficient JᵀJ); the parameters cannot all be determined from these data' };
+    return {
+      iterations: budget,
+      converged: false,
+      message:
+        'not converged: singular problem (rank-deficient JᵀJ); the parameters cannot all be determined from these data',
+    };
   }
   return { iterations: budget, converged: false, message: `not converged within ${budget} iterations` };
 }
@@ -427,7 +463,12 @@ function refine(prob: Problem, params: Float64Array, budget: number, r: Float64A
  * a matrix row object per point and iteration, so it only brings the start close on the
  * subsample; the allocation-free refinement then uses every point.
  */
-export function runFit(kind: FitModelKind, model: CompiledModel, data: CheckedData, sub?: { model: CompiledModel; data: CheckedData }): FitResult {
+export function runFit(
+  kind: FitModelKind,
+  model: CompiledModel,
+  data: CheckedData,
+  sub?: { model: CompiledModel; data: CheckedData },
+): FitResult {
   const p = model.paramNames.length;
   requireMorePointsThanParams(data.n, p);
   const prob = new Problem(model, data.y, data.sigma);
@@ -469,7 +510,18 @@ export function runFit(kind: FitModelKind, model: CompiledModel, data: CheckedDa
     message = `not converged: singular problem (rank-deficient JᵀJ, reciprocal condition ${final.lin.rcond.toExponential(2)}); the parameters cannot all be determined from these data`;
     converged = false;
   }
-  return summarise(kind, model, data, params, final.lin, prob, libIts + outcome.iterations, converged, message, singular);
+  return summarise(
+    kind,
+    model,
+    data,
+    params,
+    final.lin,
+    prob,
+    libIts + outcome.iterations,
+    converged,
+    message,
+    singular,
+  );
 }
 
 function summarise(

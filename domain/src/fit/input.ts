@@ -71,7 +71,8 @@ export function startValue(input: FitInput, name: string, guess: number): number
 /** Checks that `params` names only parameters the model has. */
 export function checkParamNames(input: FitInput, names: string[]): void {
   for (const key of Object.keys(input.params ?? {})) {
-    if (!names.includes(key)) fail(`params.${key}`, `is not a parameter of ${input.model} (parameters: ${names.join(', ')})`);
+    if (!names.includes(key))
+      fail(`params.${key}`, `is not a parameter of ${input.model} (parameters: ${names.join(', ')})`);
   }
 }
 
@@ -86,7 +87,8 @@ export function resolveBounds(
   own: Record<string, { min?: number; max?: number }> = {},
 ): { min: Float64Array; max: Float64Array } {
   for (const key of Object.keys(input.bounds ?? {})) {
-    if (!names.includes(key)) fail(`bounds.${key}`, `is not a parameter of ${input.model} (parameters: ${names.join(', ')})`);
+    if (!names.includes(key))
+      fail(`bounds.${key}`, `is not a parameter of ${input.model} (parameters: ${names.join(', ')})`);
   }
   const p = names.length;
   const min = new Float64Array(p).fill(-Infinity);

@@ -86,7 +86,9 @@ describe('polytropic with the density scale n0', () => {
 
   it('rejects a start n0 ≤ 0 naming the field', () => {
     const y = phi.map((p) => density(p, 1.4, 5, 3e17));
-    expect(() => fitModel({ model: 'polytropic', x: { phi_V: phi }, xNames: ['phi_V'], y, params: { n0: -1 } })).toThrow(/params\.n0.*outside the bounds/);
+    expect(() =>
+      fitModel({ model: 'polytropic', x: { phi_V: phi }, xNames: ['phi_V'], y, params: { n0: -1 } }),
+    ).toThrow(/params\.n0.*outside the bounds/);
   });
 
   it('has an analytic Jacobian that matches central differences for all three parameters', () => {
@@ -108,7 +110,7 @@ describe('polytropic with the density scale n0', () => {
       model.evaluate(q, down);
       for (let i = 0; i < n; i++) {
         const fd = (up[i]! - down[i]!) / (2 * h);
-        expect(Math.abs(jac[j * n + i]! - fd)).toBeLessThanOrEqual(1e-6 * Math.abs(fd) + 1e-9 * 3e17 / p[j]!);
+        expect(Math.abs(jac[j * n + i]! - fd)).toBeLessThanOrEqual(1e-6 * Math.abs(fd) + (1e-9 * 3e17) / p[j]!);
       }
     }
   });

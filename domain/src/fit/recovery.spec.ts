@@ -50,7 +50,12 @@ describe('power-law recovery', () => {
       }
 
   it('gets exponents 1, −1, −1 to 1e-9 with tiny standard errors on noiseless drift data', () => {
-    const result = fitModel({ model: 'power-law', x: { Ti_eV: Ti, B_T: B, Ln_m: Ln }, xNames: ['Ti_eV', 'B_T', 'Ln_m'], y: v });
+    const result = fitModel({
+      model: 'power-law',
+      x: { Ti_eV: Ti, B_T: B, Ln_m: Ln },
+      xNames: ['Ti_eV', 'B_T', 'Ln_m'],
+      y: v,
+    });
     expect(result.converged).toBe(true);
     expect(result.parameters.map((p) => p.name)).toEqual(['C', 'exp_Ti_eV', 'exp_B_T', 'exp_Ln_m']);
     expect(Math.abs(byName(result, 'exp_Ti_eV').value - 1)).toBeLessThan(1e-9);
@@ -86,10 +91,10 @@ describe('large data (library stage on a subsample, refinement on all points)', 
     const L = new Float64Array(n);
     const y = new Float64Array(n);
     for (let i = 0; i < n; i++) {
-      T[i] = 1 + 49 * Math.abs(noise()) / 3;
+      T[i] = 1 + (49 * Math.abs(noise())) / 3;
       Bv[i] = 0.05 + Math.abs(noise()) / 4;
       L[i] = 0.01 + Math.abs(noise()) / 20;
-      y[i] = (T[i]! ** 1 * Bv[i]! ** -1 * L[i]! ** -1);
+      y[i] = T[i]! ** 1 * Bv[i]! ** -1 * L[i]! ** -1;
     }
     const result = fitModel({
       model: 'power-law',
@@ -124,7 +129,13 @@ describe('polytropic recovery', () => {
   it('fits γ = 1.4, Te = 5 eV within 3 standard errors from seeded Gaussian noise', () => {
     const noise = normalSource(20240611);
     const y = phi.map((p) => polytropic(p, 1.4, 5) + sigmaAbs * noise());
-    const result = fitModel({ model: 'polytropic', x: { phi_V: phi }, xNames: ['phi_V'], y, sigma: phi.map(() => sigmaAbs) });
+    const result = fitModel({
+      model: 'polytropic',
+      x: { phi_V: phi },
+      xNames: ['phi_V'],
+      y,
+      sigma: phi.map(() => sigmaAbs),
+    });
     expect(result.converged).toBe(true);
     const gamma = byName(result, 'gamma');
     const te = byName(result, 'Te_eV');
@@ -140,7 +151,13 @@ describe('polytropic recovery', () => {
 
   it('recovers γ ≈ 1 from Boltzmann data (γ = 1 exactly), with and without noise', () => {
     const clean = phi.map((p) => polytropic(p, 1, 5));
-    const exact = fitModel({ model: 'polytropic', x: { phi_V: phi }, xNames: ['phi_V'], y: clean, params: { gamma: 1.3 } });
+    const exact = fitModel({
+      model: 'polytropic',
+      x: { phi_V: phi },
+      xNames: ['phi_V'],
+      y: clean,
+      params: { gamma: 1.3 },
+    });
     expect(exact.converged).toBe(true);
     expect(Math.abs(byName(exact, 'gamma').value - 1)).toBeLessThan(1e-8);
     expect(Math.abs(byName(exact, 'Te_eV').value - 5)).toBeLessThan(1e-7);
@@ -168,7 +185,13 @@ describe('polytropic recovery', () => {
     const wide = Array.from({ length: 60 }, (_, i) => -25 + i * 0.45); // cutoff at −17.5 V for γ = 1.4, Te = 5
     const y = wide.map((p) => polytropic(p, 1.4, 5));
     expect(y[0]).toBe(0);
-    const result = fitModel({ model: 'polytropic', x: { phi_V: wide }, xNames: ['phi_V'], y, params: { gamma: 1.2, Te_eV: 4 } });
+    const result = fitModel({
+      model: 'polytropic',
+      x: { phi_V: wide },
+      xNames: ['phi_V'],
+      y,
+      params: { gamma: 1.2, Te_eV: 4 },
+    });
     expect(result.converged).toBe(true);
     expect(byName(result, 'gamma').value).toBeCloseTo(1.4, 8);
     expect(byName(result, 'Te_eV').value).toBeCloseTo(5, 8);
@@ -181,10 +204,18 @@ describe('weighted least squares', () => {
     const x = [1, 2, 3, 4, 5, 6, 7, 8];
     const y = [2.1, 3.9, 6.2, 7.8, 10.1, 12.2, 13.8, 16.1];
     const s = [0.1, 0.2, 0.1, 0.3, 0.2, 0.1, 0.2, 0.3];
-    let S = 0, Sx = 0, Sy = 0, Sxx = 0, Sxy = 0;
+    let S = 0,
+      Sx = 0,
+      Sy = 0,
+      Sxx = 0,
+      Sxy = 0;
     x.forEach((xi, i) => {
       const w = 1 / s[i]! ** 2;
-      S += w; Sx += w * xi; Sy += w * y[i]!; Sxx += w * xi * xi; Sxy += w * xi * y[i]!;
+      S += w;
+      Sx += w * xi;
+      Sy += w * y[i]!;
+      Sxx += w * xi * xi;
+      Sxy += w * xi * y[i]!;
     });
     const D = S * Sxx - Sx * Sx;
     const a = (Sxx * Sy - Sx * Sxy) / D;
@@ -192,7 +223,15 @@ describe('weighted least squares', () => {
     let chi2 = 0;
     x.forEach((xi, i) => (chi2 += ((y[i]! - a - b * xi) / s[i]!) ** 2));
     const chi2red = chi2 / (x.length - 2);
-    const result = fitModel({ model: 'expression', expr: 'a + b*x', x: { x }, xNames: ['x'], y, sigma: s, params: { a: 0, b: 1 } });
+    const result = fitModel({
+      model: 'expression',
+      expr: 'a + b*x',
+      x: { x },
+      xNames: ['x'],
+      y,
+      sigma: s,
+      params: { a: 0, b: 1 },
+    });
     expect(result.converged).toBe(true);
     expect(byName(result, 'a').value).toBeCloseTo(a, 10);
     expect(byName(result, 'b').value).toBeCloseTo(b, 10);

@@ -38,11 +38,21 @@ describe('fitRequestSchema', () => {
       'expr: expr is required when model is "expression"',
       'params: params (start values) are required when model is "expression"',
     ]);
-    expect(messages({ source: { kind: 'sweep', id: 'a' }, model: 'cubic', y: 'v', x: 'T' })[0]).toMatch(/^model: model must be one of power-law/);
+    expect(messages({ source: { kind: 'sweep', id: 'a' }, model: 'cubic', y: 'v', x: 'T' })[0]).toMatch(
+      /^model: model must be one of power-law/,
+    );
     expect(messages({ source: { kind: 'sweep', id: 'a' }, model: 'polytropic', y: 'v', x: ['a', 'b'] })).toContain(
       'x: polytropic takes exactly one x column',
     );
-    expect(messages({ source: { kind: 'sweep', id: 'a' }, model: 'power-law', y: 'v', x: 'T', filter: { T: { between: 1 } } })[0]).toMatch(/^filter\.T/);
+    expect(
+      messages({
+        source: { kind: 'sweep', id: 'a' },
+        model: 'power-law',
+        y: 'v',
+        x: 'T',
+        filter: { T: { between: 1 } },
+      })[0],
+    ).toMatch(/^filter\.T/);
     expect(messages({ source: { kind: 'sweep', id: 'a' }, model: 'power-law', y: 'v', x: [] })[0]).toMatch(/^x:/);
   });
 });

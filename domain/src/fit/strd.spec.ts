@@ -81,7 +81,14 @@ describe('NIST StRD nonlinear regression (source: NIST ITL Statistical Reference
         const x = rows.map((r) => r[0]!);
         const y = rows.map((r) => r[1]!);
         const params = Object.fromEntries(cert.params.map((p) => [p.name, start === 1 ? p.start1 : p.start2]));
-        const result: FitResult = fitModel({ model: 'expression', expr: MODELS[cert.name]!, x: { x }, xNames: ['x'], y, params });
+        const result: FitResult = fitModel({
+          model: 'expression',
+          expr: MODELS[cert.name]!,
+          x: { x },
+          xNames: ['x'],
+          y,
+          params,
+        });
         const paramLre = cert.params.map((p) => lre(result.parameters.find((q) => q.name === p.name)!.value, p.value));
         const sdLre = cert.params.map((p) => lre(result.parameters.find((q) => q.name === p.name)!.stdError, p.sd));
         const rssLre = lre(result.rss, cert.rss);

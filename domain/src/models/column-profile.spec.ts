@@ -6,7 +6,8 @@ import { allocateChunk } from './registry.js';
 
 type Point = Record<string, number>;
 const defaults: Point = Object.fromEntries(columnProfile.inputs.map((i) => [i.name, i.default]));
-const out = (over: Record<string, number>) => columnProfile.evaluate({ ...defaults, ...over }).outputs as Record<string, number>;
+const out = (over: Record<string, number>) =>
+  columnProfile.evaluate({ ...defaults, ...over }).outputs as Record<string, number>;
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.abs(b);
 
 /** Axis pressures p_e0 = n0 e T_e0, p_i0 = (n0/Z) e T_i0. */
@@ -18,7 +19,11 @@ function axis(p: Record<string, number>) {
 function wperpExact(p: Record<string, number>): number {
   const { pe0, pi0 } = axis(p);
   const S = p.rmax_over_a! ** 2;
-  return Math.PI * p.a_m! ** 2 * ((pe0 * -Math.expm1(-p.gamma_e! * S)) / p.gamma_e! + (pi0 * -Math.expm1(-p.gamma_i! * S)) / p.gamma_i!);
+  return (
+    Math.PI *
+    p.a_m! ** 2 *
+    ((pe0 * -Math.expm1(-p.gamma_e! * S)) / p.gamma_e! + (pi0 * -Math.expm1(-p.gamma_i! * S)) / p.gamma_i!)
+  );
 }
 
 /**
@@ -58,13 +63,18 @@ describe('column-profile integrals against the analytic Gaussian results', () =>
   it('converges at fourth order in the grid spacing', () => {
     const p: Point = { ...defaults, gamma_e: 1, gamma_i: 1 };
     const err = (nr: number) => rel(out({ ...p, nr }).Wperp_Jm!, wperpExact(p));
-    const e1 = err(33), e2 = err(65);
+    const e1 = err(33),
+      e2 = err(65);
     expect(e1 / e2).toBeGreaterThan(12); // ≈ 16 for h⁴; plain trapezoid would give ≈ 4
   });
 
   it('low-β flux relation: flux ≈ −μ0 W⊥/B0 with relative error below β0', () => {
     // From B − B0 ≈ −μ0 p/B0 for β ≪ 1 (pressure balance, Chen §5.8, FROM MEMORY).
-    const lowBeta: Point[] = [{ n0_m3: 1e17 }, { n0_m3: 1e18, gamma_e: 5 / 3, gamma_i: 5 / 3 }, { n0_m3: 1e19, B0_T: 0.5, Te0_eV: 20 }];
+    const lowBeta: Point[] = [
+      { n0_m3: 1e17 },
+      { n0_m3: 1e18, gamma_e: 5 / 3, gamma_i: 5 / 3 },
+      { n0_m3: 1e19, B0_T: 0.5, Te0_eV: 20 },
+    ];
     for (const c of lowBeta) {
       const o = out(c);
       expect(o.beta0!).toBeLessThan(0.01);
@@ -111,8 +121,12 @@ describe('column-profile radial profiles', () => {
   });
 
   it('drifts are opposite and the scalar peaks come from the core r ≤ 2a', () => {
-    const core = prof.r_m!.map((r, i) => [r, i] as const).filter(([r]) => r <= 2 * p.a_m! + 1e-12).map(([, i]) => i);
-    const peak = (key: string) => core.reduce((best, i) => (Math.abs(prof[key]![i]!) > Math.abs(best) ? prof[key]![i]! : best), 0);
+    const core = prof
+      .r_m!.map((r, i) => [r, i] as const)
+      .filter(([r]) => r <= 2 * p.a_m! + 1e-12)
+      .map(([, i]) => i);
+    const peak = (key: string) =>
+      core.reduce((best, i) => (Math.abs(prof[key]![i]!) > Math.abs(best) ? prof[key]![i]! : best), 0);
     expect(prof.vDe_ms!.every((v) => v >= 0)).toBe(true);
     expect(prof.vDi_ms!.every((v) => v <= 0)).toBe(true);
     expect(o.vDe_peak_ms).toBe(peak('vDe_ms'));
@@ -135,8 +149,16 @@ describe('column-profile radial profiles', () => {
     for (const i of [10, 50, 90]) {
       const r = prof.r_m![i]!;
       const local = crossField.evaluate({
-        Te_eV: prof.Te_eV![i]!, Ti_eV: prof.Ti_eV![i]!, B_T: prof.B_T![i]!, n_m3: prof.n_m3![i]!,
-        Ln_m: p.a_m! ** 2 / (2 * r), gamma_e: p.gamma_e!, gamma_i: p.gamma_i!, Er_Vm: prof.Er_Vm![i]!, mu: p.mu!, Z: p.Z!,
+        Te_eV: prof.Te_eV![i]!,
+        Ti_eV: prof.Ti_eV![i]!,
+        B_T: prof.B_T![i]!,
+        n_m3: prof.n_m3![i]!,
+        Ln_m: p.a_m! ** 2 / (2 * r),
+        gamma_e: p.gamma_e!,
+        gamma_i: p.gamma_i!,
+        Er_Vm: prof.Er_Vm![i]!,
+        mu: p.mu!,
+        Z: p.Z!,
       }).outputs as Record<string, number>;
       expect(rel(prof.vDe_ms![i]!, local.vDe_ms!)).toBeLessThan(1e-12);
       expect(rel(prof.vDi_ms![i]!, local.vDi_ms!)).toBeLessThan(1e-12);
@@ -172,7 +194,9 @@ describe('column-profile flags and chunks', () => {
     const o = allocateChunk(columnProfile, n);
     columnProfile.evaluateChunk(cols, n, o);
     for (let k = 0; k < n; k++) {
-      const r = columnProfile.evaluate(Object.fromEntries(columnProfile.inputs.map((s) => [s.name, cols[s.name]![k]!])));
+      const r = columnProfile.evaluate(
+        Object.fromEntries(columnProfile.inputs.map((s) => [s.name, cols[s.name]![k]!])),
+      );
       for (const spec of columnProfile.outputs) {
         const v = o.columns[spec.name]![k]!;
         expect(spec.kind === 'boolean' ? v === 1 : v).toBe(r.outputs[spec.name]);

@@ -19,56 +19,260 @@
  * isothermal drifts grow without bound with r, so a maximum over the whole grid would only
  * measure rmax).
  */
-import {
-  ELEMENTARY_CHARGE,
-  PROTON_MASS,
-  VACUUM_PERMEABILITY,
-  VACUUM_PERMITTIVITY,
-} from '../constants.js';
+import { ELEMENTARY_CHARGE, PROTON_MASS, VACUUM_PERMEABILITY, VACUUM_PERMITTIVITY } from '../constants.js';
 import { evaluateViaChunk, inputColumns, invalidatingMask, outputColumns, thresholdValue } from './common.js';
-import type { ChunkOutput, FlagSpec, InputSpec, ModelDefinition, OutputSpec, Profile, ThresholdSpec, Thresholds } from './types.js';
+import type {
+  ChunkOutput,
+  FlagSpec,
+  InputSpec,
+  ModelDefinition,
+  OutputSpec,
+  Profile,
+  ThresholdSpec,
+  Thresholds,
+} from './types.js';
 
 const inputs: InputSpec[] = [
-  { name: 'n0_m3', symbol: 'n_0', unit: 'm^-3', default: 1e18, min: 0, minExclusive: true, max: 1e32, meaning: 'Electron density on the axis.' },
-  { name: 'Te0_eV', symbol: 'T_e0', unit: 'eV', default: 5, min: 0, minExclusive: true, max: 1e6, meaning: 'Electron temperature on the axis.' },
-  { name: 'Ti0_eV', symbol: 'T_i0', unit: 'eV', default: 0.1, min: 0, minExclusive: true, max: 1e6, meaning: 'Ion temperature on the axis.' },
-  { name: 'B0_T', symbol: 'B_0', unit: 'T', default: 0.2, min: 0, minExclusive: true, max: 100, meaning: 'Vacuum magnetic field along +z (outside the plasma).' },
-  { name: 'a_m', symbol: 'a', unit: 'm', default: 0.05, min: 0, minExclusive: true, max: 1e12, meaning: 'Gaussian profile width: n = n0 exp(−r²/a²).' },
-  { name: 'phi0_V', symbol: 'φ_0', unit: 'V', default: 0, min: -1e7, max: 1e7, meaning: 'Potential on the axis; the potential has the same Gaussian shape.' },
-  { name: 'gamma_e', symbol: 'γ_e', unit: '1', default: 1, min: 0, minExclusive: true, max: 10, meaning: 'Electron polytropic index; T_e ∝ n^(γ_e−1).' },
-  { name: 'gamma_i', symbol: 'γ_i', unit: '1', default: 1, min: 0, minExclusive: true, max: 10, meaning: 'Ion polytropic index; T_i ∝ n^(γ_i−1).' },
-  { name: 'mu', symbol: 'μ', unit: '1', default: 39.66, min: 1, max: 500, meaning: 'Ion mass in proton masses m_i/m_p (argon 39.66, i.e. 39.948 u; deuterium 2).' },
+  {
+    name: 'n0_m3',
+    symbol: 'n_0',
+    unit: 'm^-3',
+    default: 1e18,
+    min: 0,
+    minExclusive: true,
+    max: 1e32,
+    meaning: 'Electron density on the axis.',
+  },
+  {
+    name: 'Te0_eV',
+    symbol: 'T_e0',
+    unit: 'eV',
+    default: 5,
+    min: 0,
+    minExclusive: true,
+    max: 1e6,
+    meaning: 'Electron temperature on the axis.',
+  },
+  {
+    name: 'Ti0_eV',
+    symbol: 'T_i0',
+    unit: 'eV',
+    default: 0.1,
+    min: 0,
+    minExclusive: true,
+    max: 1e6,
+    meaning: 'Ion temperature on the axis.',
+  },
+  {
+    name: 'B0_T',
+    symbol: 'B_0',
+    unit: 'T',
+    default: 0.2,
+    min: 0,
+    minExclusive: true,
+    max: 100,
+    meaning: 'Vacuum magnetic field along +z (outside the plasma).',
+  },
+  {
+    name: 'a_m',
+    symbol: 'a',
+    unit: 'm',
+    default: 0.05,
+    min: 0,
+    minExclusive: true,
+    max: 1e12,
+    meaning: 'Gaussian profile width: n = n0 exp(−r²/a²).',
+  },
+  {
+    name: 'phi0_V',
+    symbol: 'φ_0',
+    unit: 'V',
+    default: 0,
+    min: -1e7,
+    max: 1e7,
+    meaning: 'Potential on the axis; the potential has the same Gaussian shape.',
+  },
+  {
+    name: 'gamma_e',
+    symbol: 'γ_e',
+    unit: '1',
+    default: 1,
+    min: 0,
+    minExclusive: true,
+    max: 10,
+    meaning: 'Electron polytropic index; T_e ∝ n^(γ_e−1).',
+  },
+  {
+    name: 'gamma_i',
+    symbol: 'γ_i',
+    unit: '1',
+    default: 1,
+    min: 0,
+    minExclusive: true,
+    max: 10,
+    meaning: 'Ion polytropic index; T_i ∝ n^(γ_i−1).',
+  },
+  {
+    name: 'mu',
+    symbol: 'μ',
+    unit: '1',
+    default: 39.66,
+    min: 1,
+    max: 500,
+    meaning: 'Ion mass in proton masses m_i/m_p (argon 39.66, i.e. 39.948 u; deuterium 2).',
+  },
   { name: 'Z', symbol: 'Z', unit: '1', default: 1, min: 1, max: 100, meaning: 'Ion charge state; n_i = n_e/Z.' },
-  { name: 'nr', symbol: 'N_r', unit: '1', default: 256, min: 16, max: 8192, integer: true, meaning: 'Number of radial grid nodes from the axis to rmax.' },
-  { name: 'rmax_over_a', symbol: 'r_max/a', unit: '1', default: 3, min: 2, max: 20, meaning: 'Outer edge of the radial grid in units of a.' },
+  {
+    name: 'nr',
+    symbol: 'N_r',
+    unit: '1',
+    default: 256,
+    min: 16,
+    max: 8192,
+    integer: true,
+    meaning: 'Number of radial grid nodes from the axis to rmax.',
+  },
+  {
+    name: 'rmax_over_a',
+    symbol: 'r_max/a',
+    unit: '1',
+    default: 3,
+    min: 2,
+    max: 20,
+    meaning: 'Outer edge of the radial grid in units of a.',
+  },
 ];
 
 const outputs: OutputSpec[] = [
-  { name: 'vDi_peak_ms', symbol: 'v_Di,pk', unit: 'm/s', kind: 'number', meaning: 'Ion diamagnetic drift of largest magnitude over r ≤ 2a (signed azimuthal).' },
-  { name: 'vDe_peak_ms', symbol: 'v_De,pk', unit: 'm/s', kind: 'number', meaning: 'Electron diamagnetic drift of largest magnitude over r ≤ 2a (signed azimuthal).' },
-  { name: 'vE_peak_ms', symbol: 'v_E,pk', unit: 'm/s', kind: 'number', meaning: 'E×B drift of largest magnitude over r ≤ 2a (signed azimuthal).' },
-  { name: 'r_peak_m', symbol: 'r_pk', unit: 'm', kind: 'number', meaning: 'Radius of the diamagnetic-current peak (within r ≤ 2a).' },
-  { name: 'jTheta_peak_Am2', symbol: 'j_θ,pk', unit: 'A/m^2', kind: 'number', meaning: 'Diamagnetic current density at its peak, −|dp/dr|/B (signed azimuthal).' },
-  { name: 'beta0', symbol: 'β_0', unit: '1', kind: 'number', meaning: 'Beta on the axis against the vacuum field, 2μ0 p(0)/B0².' },
-  { name: 'dB_over_B_axis', symbol: 'ΔB/B_0', unit: '1', kind: 'number', meaning: 'Field change on the axis, B(0)/B0 − 1 = sqrt(1−β0) − 1 (−1 when β0 ≥ 1).' },
-  { name: 'flux_Wb', symbol: 'ΔΦ', unit: 'Wb', kind: 'number', meaning: 'Diamagnetic flux ∫(B − B0) 2πr dr out to rmax (what a loop around the column sees).' },
-  { name: 'Wperp_Jm', symbol: 'W_⊥', unit: 'J/m', kind: 'number', meaning: 'Thermal energy per unit length ∫p 2πr dr out to rmax.' },
-  { name: 'max_rho_i_over_Ln', symbol: 'max ρ_i/L_n', unit: '1', kind: 'number', meaning: 'Largest ion gyroradius over local gradient length, r ≤ 2a.' },
-  { name: 'max_rho_s_over_Ln', symbol: 'max ρ_s/L_n', unit: '1', kind: 'number', meaning: 'Largest sound gyroradius over local gradient length, r ≤ 2a.' },
-  { name: 'max_lambdaD_over_Ln', symbol: 'max λ_D/L_n', unit: '1', kind: 'number', meaning: 'Largest Debye length over local gradient length, r ≤ 2a.' },
-  { name: 'max_vDi_over_vti', symbol: 'max |v_Di|/v_ti', unit: '1', kind: 'number', meaning: 'Largest ion diamagnetic drift over ion thermal speed, r ≤ 2a.' },
+  {
+    name: 'vDi_peak_ms',
+    symbol: 'v_Di,pk',
+    unit: 'm/s',
+    kind: 'number',
+    meaning: 'Ion diamagnetic drift of largest magnitude over r ≤ 2a (signed azimuthal).',
+  },
+  {
+    name: 'vDe_peak_ms',
+    symbol: 'v_De,pk',
+    unit: 'm/s',
+    kind: 'number',
+    meaning: 'Electron diamagnetic drift of largest magnitude over r ≤ 2a (signed azimuthal).',
+  },
+  {
+    name: 'vE_peak_ms',
+    symbol: 'v_E,pk',
+    unit: 'm/s',
+    kind: 'number',
+    meaning: 'E×B drift of largest magnitude over r ≤ 2a (signed azimuthal).',
+  },
+  {
+    name: 'r_peak_m',
+    symbol: 'r_pk',
+    unit: 'm',
+    kind: 'number',
+    meaning: 'Radius of the diamagnetic-current peak (within r ≤ 2a).',
+  },
+  {
+    name: 'jTheta_peak_Am2',
+    symbol: 'j_θ,pk',
+    unit: 'A/m^2',
+    kind: 'number',
+    meaning: 'Diamagnetic current density at its peak, −|dp/dr|/B (signed azimuthal).',
+  },
+  {
+    name: 'beta0',
+    symbol: 'β_0',
+    unit: '1',
+    kind: 'number',
+    meaning: 'Beta on the axis against the vacuum field, 2μ0 p(0)/B0².',
+  },
+  {
+    name: 'dB_over_B_axis',
+    symbol: 'ΔB/B_0',
+    unit: '1',
+    kind: 'number',
+    meaning: 'Field change on the axis, B(0)/B0 − 1 = sqrt(1−β0) − 1 (−1 when β0 ≥ 1).',
+  },
+  {
+    name: 'flux_Wb',
+    symbol: 'ΔΦ',
+    unit: 'Wb',
+    kind: 'number',
+    meaning: 'Diamagnetic flux ∫(B − B0) 2πr dr out to rmax (what a loop around the column sees).',
+  },
+  {
+    name: 'Wperp_Jm',
+    symbol: 'W_⊥',
+    unit: 'J/m',
+    kind: 'number',
+    meaning: 'Thermal energy per unit length ∫p 2πr dr out to rmax.',
+  },
+  {
+    name: 'max_rho_i_over_Ln',
+    symbol: 'max ρ_i/L_n',
+    unit: '1',
+    kind: 'number',
+    meaning: 'Largest ion gyroradius over local gradient length, r ≤ 2a.',
+  },
+  {
+    name: 'max_rho_s_over_Ln',
+    symbol: 'max ρ_s/L_n',
+    unit: '1',
+    kind: 'number',
+    meaning: 'Largest sound gyroradius over local gradient length, r ≤ 2a.',
+  },
+  {
+    name: 'max_lambdaD_over_Ln',
+    symbol: 'max λ_D/L_n',
+    unit: '1',
+    kind: 'number',
+    meaning: 'Largest Debye length over local gradient length, r ≤ 2a.',
+  },
+  {
+    name: 'max_vDi_over_vti',
+    symbol: 'max |v_Di|/v_ti',
+    unit: '1',
+    kind: 'number',
+    meaning: 'Largest ion diamagnetic drift over ion thermal speed, r ≤ 2a.',
+  },
   { name: 'valid', symbol: 'valid', unit: '1', kind: 'boolean', meaning: 'True when no validity flag is raised.' },
 ];
 
 const flags: FlagSpec[] = [
-  { code: 'rho_i_over_Ln', bit: 0, invalidates: true, meaning: 'Somewhere in r ≤ 2a the ion gyroradius is not small against the local gradient length (ρ_i/L_n ≥ threshold).' },
-  { code: 'lambdaD_over_Ln', bit: 1, invalidates: true, meaning: 'Somewhere in r ≤ 2a the Debye length is not small against the local gradient length (λ_D/L_n ≥ threshold).' },
-  { code: 'beta', bit: 2, invalidates: true, meaning: 'Axis beta reaches the threshold (β0 ≥ 1: the field cannot confine the column; B is set to 0 where B² < 0).' },
+  {
+    code: 'rho_i_over_Ln',
+    bit: 0,
+    invalidates: true,
+    meaning:
+      'Somewhere in r ≤ 2a the ion gyroradius is not small against the local gradient length (ρ_i/L_n ≥ threshold).',
+  },
+  {
+    code: 'lambdaD_over_Ln',
+    bit: 1,
+    invalidates: true,
+    meaning:
+      'Somewhere in r ≤ 2a the Debye length is not small against the local gradient length (λ_D/L_n ≥ threshold).',
+  },
+  {
+    code: 'beta',
+    bit: 2,
+    invalidates: true,
+    meaning:
+      'Axis beta reaches the threshold (β0 ≥ 1: the field cannot confine the column; B is set to 0 where B² < 0).',
+  },
 ];
 
 const thresholds: ThresholdSpec[] = [
-  { name: 'rho_i_over_Ln_max', default: 0.1, meaning: 'Flag rho_i_over_Ln when max ρ_i/L_n ≥ this (0.1 is common practice).' },
-  { name: 'lambdaD_over_Ln_max', default: 0.1, meaning: 'Flag lambdaD_over_Ln when max λ_D/L_n ≥ this (0.1 is common practice).' },
+  {
+    name: 'rho_i_over_Ln_max',
+    default: 0.1,
+    meaning: 'Flag rho_i_over_Ln when max ρ_i/L_n ≥ this (0.1 is common practice).',
+  },
+  {
+    name: 'lambdaD_over_Ln_max',
+    default: 0.1,
+    meaning: 'Flag lambdaD_over_Ln when max λ_D/L_n ≥ this (0.1 is common practice).',
+  },
   { name: 'beta_max', default: 1, meaning: 'Flag beta when β0 ≥ this.' },
 ];
 
@@ -81,13 +285,36 @@ const EPS0_OVER_E = VACUUM_PERMITTIVITY / ELEMENTARY_CHARGE;
 
 /** Scalars of one point, in output order (without `valid`). */
 const S = {
-  vDi: 0, vDe: 1, vE: 2, rPeak: 3, jPeak: 4, beta0: 5, dBaxis: 6, flux: 7, wperp: 8,
-  rhoI: 9, rhoS: 10, lD: 11, vDiVti: 12, mask: 13, count: 14,
+  vDi: 0,
+  vDe: 1,
+  vE: 2,
+  rPeak: 3,
+  jPeak: 4,
+  beta0: 5,
+  dBaxis: 6,
+  flux: 7,
+  wperp: 8,
+  rhoI: 9,
+  rhoS: 10,
+  lD: 11,
+  vDiVti: 12,
+  mask: 13,
+  count: 14,
 } as const;
 
 interface ProfileArrays {
-  r_m: number[]; n_m3: number[]; p_Pa: number[]; Te_eV: number[]; Ti_eV: number[]; phi_V: number[];
-  Er_Vm: number[]; vDe_ms: number[]; vDi_ms: number[]; vE_ms: number[]; jTheta_Am2: number[]; B_T: number[];
+  r_m: number[];
+  n_m3: number[];
+  p_Pa: number[];
+  Te_eV: number[];
+  Ti_eV: number[];
+  phi_V: number[];
+  Er_Vm: number[];
+  vDe_ms: number[];
+  vDi_ms: number[];
+  vE_ms: number[];
+  jTheta_Am2: number[];
+  B_T: number[];
 }
 
 /**
@@ -95,10 +322,23 @@ interface ProfileArrays {
  * `prof` is given (the single-point page's plot arrays).
  */
 function kernel(
-  n0: number, te0: number, ti0: number, b0: number, a: number, phi0: number,
-  ge: number, gi: number, mu: number, z: number, nrIn: number, rmaxA: number,
-  rhoMax: number, ldMax: number, betaMax: number,
-  res: Float64Array, prof: ProfileArrays | null,
+  n0: number,
+  te0: number,
+  ti0: number,
+  b0: number,
+  a: number,
+  phi0: number,
+  ge: number,
+  gi: number,
+  mu: number,
+  z: number,
+  nrIn: number,
+  rmaxA: number,
+  rhoMax: number,
+  ldMax: number,
+  betaMax: number,
+  res: Float64Array,
+  prof: ProfileArrays | null,
 ): void {
   const nr = Math.max(2, Math.round(nrIn));
   const rmax = rmaxA * a;
@@ -115,11 +355,23 @@ function kernel(
   // Last node of the core r ≤ 2a (tolerance so that 2a on the grid counts).
   const iCore = Math.min(nr - 1, Math.floor((2 * a) / h + 1e-9));
 
-  let vDiPk = 0, vDePk = 0, vEPk = 0, jPk = 0, rPk = 0;
-  let rhoIMax = 0, rhoSMax = 0, ldMaxV = 0, vDiVtiMax = 0;
-  let sumFlux = 0, sumW = 0;
-  let gFluxPrev = 0, gWPrev = 0;
-  let dgFlux0 = 0, dgW0 = 0, dgFluxEnd = 0, dgWEnd = 0;
+  let vDiPk = 0,
+    vDePk = 0,
+    vEPk = 0,
+    jPk = 0,
+    rPk = 0;
+  let rhoIMax = 0,
+    rhoSMax = 0,
+    ldMaxV = 0,
+    vDiVtiMax = 0;
+  let sumFlux = 0,
+    sumW = 0;
+  let gFluxPrev = 0,
+    gWPrev = 0;
+  let dgFlux0 = 0,
+    dgW0 = 0,
+    dgFluxEnd = 0,
+    dgWEnd = 0;
 
   for (let i = 0; i < nr; i++) {
     const r = i * h;
@@ -167,15 +419,27 @@ function kernel(
       const ve = -er * invB;
       const j = dpdr * invB;
       if (prof) {
-        prof.r_m.push(r); prof.n_m3.push(n0 * eS); prof.p_Pa.push(p); prof.Te_eV.push(teR);
-        prof.Ti_eV.push(tiR); prof.phi_V.push(phi0 * eS); prof.Er_Vm.push(er); prof.vDe_ms.push(vde);
-        prof.vDi_ms.push(vdi); prof.vE_ms.push(ve); prof.jTheta_Am2.push(j); prof.B_T.push(b);
+        prof.r_m.push(r);
+        prof.n_m3.push(n0 * eS);
+        prof.p_Pa.push(p);
+        prof.Te_eV.push(teR);
+        prof.Ti_eV.push(tiR);
+        prof.phi_V.push(phi0 * eS);
+        prof.Er_Vm.push(er);
+        prof.vDe_ms.push(vde);
+        prof.vDi_ms.push(vdi);
+        prof.vE_ms.push(ve);
+        prof.jTheta_Am2.push(j);
+        prof.B_T.push(b);
       }
       if (i <= iCore) {
         if (Math.abs(vdi) > Math.abs(vDiPk)) vDiPk = vdi;
         if (Math.abs(vde) > Math.abs(vDePk)) vDePk = vde;
         if (Math.abs(ve) > Math.abs(vEPk)) vEPk = ve;
-        if (Math.abs(j) > Math.abs(jPk)) { jPk = j; rPk = r; }
+        if (Math.abs(j) > Math.abs(jPk)) {
+          jPk = j;
+          rPk = r;
+        }
         // ρ_i = sqrt(T_i m_i/e)/(Z B); ρ_s = c_s m_i/(Z e B) with c_s² = (Z γ_e T_e + γ_i T_i) e/m_i.
         const rhoI = sqrtMiOverE * Math.sqrt(tiR) * invZ * invB * invLn;
         const rhoS = Math.sqrt((z * ge * teR + gi * tiR) * miOverE) * invZ * invB * invLn;
@@ -218,9 +482,23 @@ function kernel(
 const scratch = new Float64Array(S.count);
 
 function evaluateChunk(inp: Record<string, Float64Array>, n: number, out: ChunkOutput, th?: Thresholds): void {
-  const [n0c, tec, tic, b0c, ac, phic, gec, gic, muc, zc, nrc, rmc] = inputColumns(INPUT_NAMES, inp, n) as Float64Array[] as [
-    Float64Array, Float64Array, Float64Array, Float64Array, Float64Array, Float64Array,
-    Float64Array, Float64Array, Float64Array, Float64Array, Float64Array, Float64Array,
+  const [n0c, tec, tic, b0c, ac, phic, gec, gic, muc, zc, nrc, rmc] = inputColumns(
+    INPUT_NAMES,
+    inp,
+    n,
+  ) as Float64Array[] as [
+    Float64Array,
+    Float64Array,
+    Float64Array,
+    Float64Array,
+    Float64Array,
+    Float64Array,
+    Float64Array,
+    Float64Array,
+    Float64Array,
+    Float64Array,
+    Float64Array,
+    Float64Array,
   ];
   const cols = outputColumns(outputs, out, n);
   const valid = cols[cols.length - 1]!;
@@ -229,8 +507,25 @@ function evaluateChunk(inp: Record<string, Float64Array>, n: number, out: ChunkO
   const betaMax = thresholdValue(thresholds, th, 'beta_max');
   const res = scratch;
   for (let k = 0; k < n; k++) {
-    kernel(n0c[k]!, tec[k]!, tic[k]!, b0c[k]!, ac[k]!, phic[k]!, gec[k]!, gic[k]!, muc[k]!, zc[k]!, nrc[k]!, rmc[k]!,
-      rhoMax, ldMax, betaMax, res, null);
+    kernel(
+      n0c[k]!,
+      tec[k]!,
+      tic[k]!,
+      b0c[k]!,
+      ac[k]!,
+      phic[k]!,
+      gec[k]!,
+      gic[k]!,
+      muc[k]!,
+      zc[k]!,
+      nrc[k]!,
+      rmc[k]!,
+      rhoMax,
+      ldMax,
+      betaMax,
+      res,
+      null,
+    );
     for (let c = 0; c < S.mask; c++) cols[c]![k] = res[c]!;
     const mask = res[S.mask]!;
     out.flags[k] = mask;
@@ -240,12 +535,39 @@ function evaluateChunk(inp: Record<string, Float64Array>, n: number, out: ChunkO
 
 function profile(v: Record<string, number>): Profile {
   const prof: ProfileArrays = {
-    r_m: [], n_m3: [], p_Pa: [], Te_eV: [], Ti_eV: [], phi_V: [], Er_Vm: [],
-    vDe_ms: [], vDi_ms: [], vE_ms: [], jTheta_Am2: [], B_T: [],
+    r_m: [],
+    n_m3: [],
+    p_Pa: [],
+    Te_eV: [],
+    Ti_eV: [],
+    phi_V: [],
+    Er_Vm: [],
+    vDe_ms: [],
+    vDi_ms: [],
+    vE_ms: [],
+    jTheta_Am2: [],
+    B_T: [],
   };
   const d = (name: string) => v[name] ?? inputs.find((i) => i.name === name)!.default;
-  kernel(d('n0_m3'), d('Te0_eV'), d('Ti0_eV'), d('B0_T'), d('a_m'), d('phi0_V'), d('gamma_e'), d('gamma_i'),
-    d('mu'), d('Z'), d('nr'), d('rmax_over_a'), Infinity, Infinity, Infinity, new Float64Array(S.count), prof);
+  kernel(
+    d('n0_m3'),
+    d('Te0_eV'),
+    d('Ti0_eV'),
+    d('B0_T'),
+    d('a_m'),
+    d('phi0_V'),
+    d('gamma_e'),
+    d('gamma_i'),
+    d('mu'),
+    d('Z'),
+    d('nr'),
+    d('rmax_over_a'),
+    Infinity,
+    Infinity,
+    Infinity,
+    new Float64Array(S.count),
+    prof,
+  );
   return { ...prof };
 }
 

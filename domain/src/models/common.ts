@@ -2,7 +2,15 @@
  * Helpers shared by the model files: one-point evaluation through the chunk kernel (so a single
  * point and a chunk can never disagree), flag-mask decoding and threshold merging.
  */
-import type { ChunkOutput, FlagSpec, ModelDefinition, OutputSpec, PointResult, ThresholdSpec, Thresholds } from './types.js';
+import type {
+  ChunkOutput,
+  FlagSpec,
+  ModelDefinition,
+  OutputSpec,
+  PointResult,
+  ThresholdSpec,
+  Thresholds,
+} from './types.js';
 
 /** Allocate the output columns of a model for n points (booleans stored as 0/1). */
 export function allocateOutputs(outputs: readonly OutputSpec[], n: number): ChunkOutput {

@@ -37,7 +37,8 @@ describe('parallel-balance: Boltzmann and polytropic relations', () => {
       const v = Number(r.value);
       let m: RegExpExecArray | null;
       if ((m = /gamma=([\d.]+), e phi\/kTe0=([-\d.]+)/.exec(q))) {
-        const g = gammaOf(m[1]!), x = Number(m[2]);
+        const g = gammaOf(m[1]!),
+          x = Number(m[2]);
         expect(rel(out({ Te_eV: 12, phi_V: 12 * x, gamma_e: g }).n_over_n0!, v)).toBeLessThan(2e-7);
         seen++;
       } else if ((m = /sheath-edge density ratio gamma=([\d.]+)/.exec(q))) {
@@ -85,7 +86,8 @@ describe('parallel-balance: Boltzmann and polytropic relations', () => {
 
   it('flags the cutoff for γ > 1 and the missing real solution for γ < 1', () => {
     // For γ > 1 the density vanishes at φ_c = −γT0/(γ−1) (DERIVED, REFERENCES §4.4).
-    const g = 5 / 3, T = 10;
+    const g = 5 / 3,
+      T = 10;
     expect(out({ gamma_e: g, Te_eV: T }).phi_cutoff_V).toBeCloseTo(-25, 12);
     const inside = run({ gamma_e: g, Te_eV: T, phi_V: -24.9 });
     expect(inside.flags).toEqual([]);
@@ -143,7 +145,9 @@ describe('parallel-balance evaluateChunk', () => {
     const o = allocateChunk(parallelBalance, n);
     parallelBalance.evaluateChunk(cols, n, o);
     for (let k = 0; k < n; k++) {
-      const r = parallelBalance.evaluate(Object.fromEntries(parallelBalance.inputs.map((s) => [s.name, cols[s.name]![k]!])));
+      const r = parallelBalance.evaluate(
+        Object.fromEntries(parallelBalance.inputs.map((s) => [s.name, cols[s.name]![k]!])),
+      );
       for (const spec of parallelBalance.outputs) {
         const v = o.columns[spec.name]![k]!;
         expect(spec.kind === 'boolean' ? v === 1 : v).toBe(r.outputs[spec.name]);

@@ -12,32 +12,156 @@ import { evaluateViaChunk, inputColumns, invalidatingMask, outputColumns } from 
 import type { ChunkOutput, FlagSpec, InputSpec, ModelDefinition, OutputSpec, ThresholdSpec } from './types.js';
 
 const inputs: InputSpec[] = [
-  { name: 'Te_eV', symbol: 'T_0', unit: 'eV', default: 5, min: 0, minExclusive: true, max: 1e6, meaning: 'Electron temperature T0 at the reference point where n = n0.' },
-  { name: 'n0_m3', symbol: 'n_0', unit: 'm^-3', default: 1e18, min: 0, minExclusive: true, max: 1e32, meaning: 'Electron density at the reference point.' },
-  { name: 'phi_V', symbol: 'φ', unit: 'V', default: -5, min: -1e7, max: 1e7, meaning: 'Electrostatic potential relative to the reference point.' },
-  { name: 'gamma_e', symbol: 'γ_e', unit: '1', default: 1, min: 0, minExclusive: true, max: 10, meaning: 'Electron polytropic index (1 gives the Boltzmann relation).' },
-  { name: 'Lpar_m', symbol: 'L_∥', unit: 'm', default: 1, min: 0, minExclusive: true, max: 1e15, meaning: 'Parallel density gradient length n/|∇_∥ n|.' },
-  { name: 'mu', symbol: 'μ', unit: '1', default: 1, min: 1, max: 500, meaning: 'Ion mass in proton masses, for the sheath edge and wall potential (hydrogen 1, argon 39.66).' },
+  {
+    name: 'Te_eV',
+    symbol: 'T_0',
+    unit: 'eV',
+    default: 5,
+    min: 0,
+    minExclusive: true,
+    max: 1e6,
+    meaning: 'Electron temperature T0 at the reference point where n = n0.',
+  },
+  {
+    name: 'n0_m3',
+    symbol: 'n_0',
+    unit: 'm^-3',
+    default: 1e18,
+    min: 0,
+    minExclusive: true,
+    max: 1e32,
+    meaning: 'Electron density at the reference point.',
+  },
+  {
+    name: 'phi_V',
+    symbol: 'φ',
+    unit: 'V',
+    default: -5,
+    min: -1e7,
+    max: 1e7,
+    meaning: 'Electrostatic potential relative to the reference point.',
+  },
+  {
+    name: 'gamma_e',
+    symbol: 'γ_e',
+    unit: '1',
+    default: 1,
+    min: 0,
+    minExclusive: true,
+    max: 10,
+    meaning: 'Electron polytropic index (1 gives the Boltzmann relation).',
+  },
+  {
+    name: 'Lpar_m',
+    symbol: 'L_∥',
+    unit: 'm',
+    default: 1,
+    min: 0,
+    minExclusive: true,
+    max: 1e15,
+    meaning: 'Parallel density gradient length n/|∇_∥ n|.',
+  },
+  {
+    name: 'mu',
+    symbol: 'μ',
+    unit: '1',
+    default: 1,
+    min: 1,
+    max: 500,
+    meaning: 'Ion mass in proton masses, for the sheath edge and wall potential (hydrogen 1, argon 39.66).',
+  },
 ];
 
 const outputs: OutputSpec[] = [
-  { name: 'n_over_n0', symbol: 'n/n_0', unit: '1', kind: 'number', meaning: 'Electron density relative to the reference (0 beyond the cutoff for γ > 1).' },
+  {
+    name: 'n_over_n0',
+    symbol: 'n/n_0',
+    unit: '1',
+    kind: 'number',
+    meaning: 'Electron density relative to the reference (0 beyond the cutoff for γ > 1).',
+  },
   { name: 'n_m3', symbol: 'n', unit: 'm^-3', kind: 'number', meaning: 'Electron density at potential φ.' },
-  { name: 'T_over_T0', symbol: 'T/T_0', unit: '1', kind: 'number', meaning: 'Local electron temperature relative to T0, (n/n0)^(γ−1).' },
-  { name: 'p_over_p0', symbol: 'p/p_0', unit: '1', kind: 'number', meaning: 'Local electron pressure relative to the reference, (n/n0)^γ.' },
-  { name: 'boltzmann_n_over_n0', symbol: 'exp(φ/T_0)', unit: '1', kind: 'number', meaning: 'Isothermal Boltzmann density ratio exp(φ/T0), for comparison.' },
-  { name: 'deviation', symbol: 'δ', unit: '1', kind: 'number', meaning: 'Relative departure from the Boltzmann relation, (n/n0)/exp(φ/T0) − 1.' },
-  { name: 'Epar_Vm', symbol: 'E_∥', unit: 'V/m', kind: 'number', meaning: 'Parallel field magnitude holding the electrons against the gradient, γ T_local/L_∥.' },
-  { name: 'phi_cutoff_V', symbol: 'φ_c', unit: 'V', kind: 'number', meaning: 'Potential where the density reaches zero, −γ T0/(γ−1), for γ > 1 (NaN otherwise: no cutoff).' },
-  { name: 'lambdaD_m', symbol: 'λ_D', unit: 'm', kind: 'number', meaning: 'Local electron Debye length sqrt(ε0 T_local/(e n)) (NaN beyond the cutoff).' },
-  { name: 'sheathEdge_n_over_n0', symbol: 'n_s/n_0', unit: '1', kind: 'number', meaning: 'Density at the sheath edge for cold ions, (2/(γ+1))^(1/(γ−1)); e^(−1/2) at γ = 1.' },
-  { name: 'presheath_V', symbol: 'φ_s', unit: 'V', kind: 'number', meaning: 'Presheath potential drop to the sheath edge, −γ T0/(γ+1).' },
-  { name: 'floating_V', symbol: 'φ_f', unit: 'V', kind: 'number', meaning: 'Floating-wall potential relative to the bulk for γ = 1, −(T0/2)[1 + ln(m_i/(2π m_e))] (NaN for γ ≠ 1).' },
+  {
+    name: 'T_over_T0',
+    symbol: 'T/T_0',
+    unit: '1',
+    kind: 'number',
+    meaning: 'Local electron temperature relative to T0, (n/n0)^(γ−1).',
+  },
+  {
+    name: 'p_over_p0',
+    symbol: 'p/p_0',
+    unit: '1',
+    kind: 'number',
+    meaning: 'Local electron pressure relative to the reference, (n/n0)^γ.',
+  },
+  {
+    name: 'boltzmann_n_over_n0',
+    symbol: 'exp(φ/T_0)',
+    unit: '1',
+    kind: 'number',
+    meaning: 'Isothermal Boltzmann density ratio exp(φ/T0), for comparison.',
+  },
+  {
+    name: 'deviation',
+    symbol: 'δ',
+    unit: '1',
+    kind: 'number',
+    meaning: 'Relative departure from the Boltzmann relation, (n/n0)/exp(φ/T0) − 1.',
+  },
+  {
+    name: 'Epar_Vm',
+    symbol: 'E_∥',
+    unit: 'V/m',
+    kind: 'number',
+    meaning: 'Parallel field magnitude holding the electrons against the gradient, γ T_local/L_∥.',
+  },
+  {
+    name: 'phi_cutoff_V',
+    symbol: 'φ_c',
+    unit: 'V',
+    kind: 'number',
+    meaning: 'Potential where the density reaches zero, −γ T0/(γ−1), for γ > 1 (NaN otherwise: no cutoff).',
+  },
+  {
+    name: 'lambdaD_m',
+    symbol: 'λ_D',
+    unit: 'm',
+    kind: 'number',
+    meaning: 'Local electron Debye length sqrt(ε0 T_local/(e n)) (NaN beyond the cutoff).',
+  },
+  {
+    name: 'sheathEdge_n_over_n0',
+    symbol: 'n_s/n_0',
+    unit: '1',
+    kind: 'number',
+    meaning: 'Density at the sheath edge for cold ions, (2/(γ+1))^(1/(γ−1)); e^(−1/2) at γ = 1.',
+  },
+  {
+    name: 'presheath_V',
+    symbol: 'φ_s',
+    unit: 'V',
+    kind: 'number',
+    meaning: 'Presheath potential drop to the sheath edge, −γ T0/(γ+1).',
+  },
+  {
+    name: 'floating_V',
+    symbol: 'φ_f',
+    unit: 'V',
+    kind: 'number',
+    meaning: 'Floating-wall potential relative to the bulk for γ = 1, −(T0/2)[1 + ln(m_i/(2π m_e))] (NaN for γ ≠ 1).',
+  },
   { name: 'valid', symbol: 'valid', unit: '1', kind: 'boolean', meaning: 'True when no validity flag is raised.' },
 ];
 
 const flags: FlagSpec[] = [
-  { code: 'cutoff', bit: 0, invalidates: true, meaning: 'The potential lies beyond the polytropic cutoff: for γ > 1 no electrons reach it (n = 0); for γ < 1 the relation has no real solution.' },
+  {
+    code: 'cutoff',
+    bit: 0,
+    invalidates: true,
+    meaning:
+      'The potential lies beyond the polytropic cutoff: for γ > 1 no electrons reach it (n = 0); for γ < 1 the relation has no real solution.',
+  },
 ];
 
 const thresholds: ThresholdSpec[] = [];
@@ -51,20 +175,46 @@ const EXP_MINUS_HALF = Math.exp(-0.5);
 
 function evaluateChunk(inp: Record<string, Float64Array>, n: number, out: ChunkOutput): void {
   const [Tc, n0c, phic, gc, Lc, muc] = inputColumns(INPUT_NAMES, inp, n) as [
-    Float64Array, Float64Array, Float64Array, Float64Array, Float64Array, Float64Array,
+    Float64Array,
+    Float64Array,
+    Float64Array,
+    Float64Array,
+    Float64Array,
+    Float64Array,
   ];
-  const [nRel, nAbs, tRel, pRel, boltz, dev, epar, cutoff, lD, sheath, presheath, floating, valid] =
-    outputColumns(outputs, out, n) as Float64Array[] as [
-      Float64Array, Float64Array, Float64Array, Float64Array, Float64Array, Float64Array, Float64Array,
-      Float64Array, Float64Array, Float64Array, Float64Array, Float64Array, Float64Array,
-    ];
+  const [nRel, nAbs, tRel, pRel, boltz, dev, epar, cutoff, lD, sheath, presheath, floating, valid] = outputColumns(
+    outputs,
+    out,
+    n,
+  ) as Float64Array[] as [
+    Float64Array,
+    Float64Array,
+    Float64Array,
+    Float64Array,
+    Float64Array,
+    Float64Array,
+    Float64Array,
+    Float64Array,
+    Float64Array,
+    Float64Array,
+    Float64Array,
+    Float64Array,
+    Float64Array,
+  ];
   const fl = out.flags;
 
   for (let k = 0; k < n; k++) {
-    const t0 = Tc[k]!, n0 = n0c[k]!, phi = phic[k]!, g = gc[k]!, lpar = Lc[k]!, mu = muc[k]!;
+    const t0 = Tc[k]!,
+      n0 = n0c[k]!,
+      phi = phic[k]!,
+      g = gc[k]!,
+      lpar = Lc[k]!,
+      mu = muc[k]!;
     const x = phi / t0;
     const bz = Math.exp(x);
-    let nr: number, tr: number, mask = 0;
+    let nr: number,
+      tr: number,
+      mask = 0;
     if (g === 1) {
       nr = bz;
       tr = 1;

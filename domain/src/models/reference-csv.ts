@@ -12,12 +12,16 @@ function splitLine(line: string): string[] {
   for (let i = 0; i < line.length; i++) {
     const ch = line[i]!;
     if (quoted) {
-      if (ch === '"' && line[i + 1] === '"') { cur += '"'; i++; }
-      else if (ch === '"') quoted = false;
+      if (ch === '"' && line[i + 1] === '"') {
+        cur += '"';
+        i++;
+      } else if (ch === '"') quoted = false;
       else cur += ch;
     } else if (ch === '"') quoted = true;
-    else if (ch === ',') { cells.push(cur); cur = ''; }
-    else cur += ch;
+    else if (ch === ',') {
+      cells.push(cur);
+      cur = '';
+    } else cur += ch;
   }
   cells.push(cur);
   return cells;
@@ -25,7 +29,9 @@ function splitLine(line: string): string[] {
 
 export function readReferenceCsv(file: string): Record<string, string>[] {
   const url = new URL(`../../../tests/reference/physics/${file}`, import.meta.url);
-  const lines = readFileSync(url, 'utf8').split(/\r?\n/).filter((l) => l.trim() !== '');
+  const lines = readFileSync(url, 'utf8')
+    .split(/\r?\n/)
+    .filter((l) => l.trim() !== '');
   const header = splitLine(lines[0]!);
   return lines.slice(1).map((l) => {
     const cells = splitLine(l);
@@ -34,7 +40,12 @@ export function readReferenceCsv(file: string): Record<string, string>[] {
 }
 
 /** The numeric value of the row whose `key` column contains `needle` (exactly one must match, or exactly one ending with it). */
-export function referenceValue(rows: Record<string, string>[], key: string, needle: string, valueColumn: string): number {
+export function referenceValue(
+  rows: Record<string, string>[],
+  key: string,
+  needle: string,
+  valueColumn: string,
+): number {
   let hits = rows.filter((r) => (r[key] ?? '').includes(needle));
   // "gamma=1" also occurs inside "gamma=1.667": prefer the rows that end with the needle.
   if (hits.length > 1) hits = hits.filter((r) => (r[key] ?? '').endsWith(needle));

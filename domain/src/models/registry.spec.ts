@@ -36,7 +36,9 @@ describe('model registry', () => {
     expect(JSON.parse(JSON.stringify(s))).toEqual(s);
     expect(s.find((m) => m.id === 'column-profile')!.hasProfile).toBe(true);
     expect(s.find((m) => m.id === 'cross-field')!.thresholds.map((t) => [t.name, t.default])).toEqual([
-      ['rho_i_over_Ln_max', 0.1], ['lambdaD_over_Ln_max', 0.1], ['beta_max', 1],
+      ['rho_i_over_Ln_max', 0.1],
+      ['lambdaD_over_Ln_max', 0.1],
+      ['beta_max', 1],
     ]);
   });
 
@@ -61,14 +63,36 @@ describe('resolveInputs', () => {
   it('rejects non-physical and unknown values, listing every bad field', () => {
     let err: ValidationError | undefined;
     try {
-      resolveInputs(cf, { Te_eV: 0, B_T: 0, n_m3: -1, Z: 0.5, gamma_e: 0, Ti_eV: Number.NaN, Ln_m: Infinity, mu: '2 m', bogus: 1, Er_Vm: null });
+      resolveInputs(cf, {
+        Te_eV: 0,
+        B_T: 0,
+        n_m3: -1,
+        Z: 0.5,
+        gamma_e: 0,
+        Ti_eV: Number.NaN,
+        Ln_m: Infinity,
+        mu: '2 m',
+        bogus: 1,
+        Er_Vm: null,
+      });
     } catch (e) {
       err = e as ValidationError;
     }
     expect(err).toBeInstanceOf(ValidationError);
     const byPath = Object.fromEntries(err!.details!.map((d) => [d.path, d.message]));
     expect(Object.keys(byPath).sort()).toEqual(
-      ['inputs.B_T', 'inputs.Er_Vm', 'inputs.Ln_m', 'inputs.Te_eV', 'inputs.Ti_eV', 'inputs.Z', 'inputs.bogus', 'inputs.gamma_e', 'inputs.mu', 'inputs.n_m3'].sort(),
+      [
+        'inputs.B_T',
+        'inputs.Er_Vm',
+        'inputs.Ln_m',
+        'inputs.Te_eV',
+        'inputs.Ti_eV',
+        'inputs.Z',
+        'inputs.bogus',
+        'inputs.gamma_e',
+        'inputs.mu',
+        'inputs.n_m3',
+      ].sort(),
     );
     expect(byPath['inputs.Te_eV']).toBe('Te_eV must be > 0 and ≤ 1e6 eV; got 0 eV');
     expect(byPath['inputs.B_T']).toMatch(/> 0 and ≤ 100 T/);
@@ -82,7 +106,11 @@ describe('resolveInputs', () => {
     const cp = getModel('column-profile');
     expect(() => resolveInputs(cp, { nr: 100.5 })).toThrow(/whole number/);
     expect(resolveInputs(cp, { nr: '512' }).nr).toBe(512);
-    expect(resolveThresholds(cf, { beta_max: 0.5 })).toEqual({ rho_i_over_Ln_max: 0.1, lambdaD_over_Ln_max: 0.1, beta_max: 0.5 });
+    expect(resolveThresholds(cf, { beta_max: 0.5 })).toEqual({
+      rho_i_over_Ln_max: 0.1,
+      lambdaD_over_Ln_max: 0.1,
+      beta_max: 0.5,
+    });
     expect(() => resolveThresholds(cf, { beta_max: -1, nope: 1 })).toThrow(ValidationError);
   });
 

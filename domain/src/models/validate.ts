@@ -26,8 +26,10 @@ export function checkInputValue(spec: InputSpec, value: number): string | null {
   if (typeof value !== 'number' || Number.isNaN(value)) return `${spec.name} must be a number ${describeRange(spec)}`;
   if (!Number.isFinite(value)) return `${spec.name} must be finite, ${describeRange(spec)}`;
   const belowMin = spec.minExclusive ? value <= spec.min : value < spec.min;
-  if (belowMin || value > spec.max) return `${spec.name} must be ${describeRange(spec)}; got ${fmt(value)}${unitSuffix(spec)}`;
-  if (spec.integer && !Number.isInteger(value)) return `${spec.name} must be a whole number ${describeRange(spec)}; got ${fmt(value)}`;
+  if (belowMin || value > spec.max)
+    return `${spec.name} must be ${describeRange(spec)}; got ${fmt(value)}${unitSuffix(spec)}`;
+  if (spec.integer && !Number.isInteger(value))
+    return `${spec.name} must be a whole number ${describeRange(spec)}; got ${fmt(value)}`;
   return null;
 }
 
@@ -67,7 +69,10 @@ export function resolveInputs(model: ModelDefinition, raw: Record<string, unknow
         throw err;
       }
     } else {
-      details.push({ path, message: `${spec.name} must be a number or a quantity string in ${spec.unit}, ${describeRange(spec)}` });
+      details.push({
+        path,
+        message: `${spec.name} must be a number or a quantity string in ${spec.unit}, ${describeRange(spec)}`,
+      });
       continue;
     }
     const msg = checkInputValue(spec, x);
@@ -75,7 +80,10 @@ export function resolveInputs(model: ModelDefinition, raw: Record<string, unknow
     else out[spec.name] = x;
   }
   if (details.length) {
-    throw new ValidationError(`Invalid inputs for model ${model.id}: ${details.map((d) => d.message).join('; ')}`, details);
+    throw new ValidationError(
+      `Invalid inputs for model ${model.id}: ${details.map((d) => d.message).join('; ')}`,
+      details,
+    );
   }
   return out;
 }
@@ -84,7 +92,11 @@ export function resolveInputs(model: ModelDefinition, raw: Record<string, unknow
  * Thresholds for a sweep: known names only, finite and > 0; missing ones take the defaults.
  * Errors use the path `${prefix}.<name>`.
  */
-export function resolveThresholds(model: ModelDefinition, raw: Record<string, unknown> | undefined, prefix = 'thresholds'): Thresholds {
+export function resolveThresholds(
+  model: ModelDefinition,
+  raw: Record<string, unknown> | undefined,
+  prefix = 'thresholds',
+): Thresholds {
   const details: ErrorDetail[] = [];
   const out: Thresholds = {};
   for (const t of model.thresholds) out[t.name] = t.default;

@@ -19,14 +19,22 @@ export interface ResolvedAxis {
   count: number;
 }
 
-function toCanonical(path: string, value: number | string, axisUnit: string | undefined, unit: string, errors: ErrorDetail[]): number {
+function toCanonical(
+  path: string,
+  value: number | string,
+  axisUnit: string | undefined,
+  unit: string,
+  errors: ErrorDetail[],
+): number {
   try {
     // A number with an axis unit ("min": 1, "unit": "cm") is read in that unit.
     const given = typeof value === 'number' && axisUnit ? `${value} ${axisUnit}` : value;
     return parseQuantity(path, given, unit);
   } catch (err) {
     const details = (err as { details?: ErrorDetail[] }).details;
-    errors.push(...(details?.length ? details.map((d) => ({ ...d, path })) : [{ path, message: (err as Error).message }]));
+    errors.push(
+      ...(details?.length ? details.map((d) => ({ ...d, path })) : [{ path, message: (err as Error).message }]),
+    );
     return Number.NaN;
   }
 }
@@ -54,7 +62,13 @@ export function gridValues(kind: 'linear' | 'log', min: number, max: number, cou
  * Resolve one axis against its input spec; problems go into `errors` with paths like `axes.1.max`.
  * Returns null when the axis cannot be used.
  */
-export function resolveAxis(axis: SweepAxis, i: number, spec: InputSpec, grid: boolean, errors: ErrorDetail[]): ResolvedAxis | null {
+export function resolveAxis(
+  axis: SweepAxis,
+  i: number,
+  spec: InputSpec,
+  grid: boolean,
+  errors: ErrorDetail[],
+): ResolvedAxis | null {
   const path = `axes.${i}`;
   const start = errors.length;
   const check = (p: string, value: number): void => {
@@ -90,7 +104,8 @@ export function resolveAxis(axis: SweepAxis, i: number, spec: InputSpec, grid: b
   const count = grid ? (axis.count ?? 0) : 0;
   const single = grid && count === 1;
   if (!(max > min) && !(single && max === min)) {
-    if (errors.length === start) errors.push({ path: `${path}.max`, message: `must be greater than min (${min} ${spec.unit})` });
+    if (errors.length === start)
+      errors.push({ path: `${path}.max`, message: `must be greater than min (${min} ${spec.unit})` });
   }
   if (spec.integer) {
     // Only a grid whose every value is whole fits an integer input; a random design never does.
@@ -102,7 +117,10 @@ export function resolveAxis(axis: SweepAxis, i: number, spec: InputSpec, grid: b
   if (values && spec.integer) {
     const bad = Array.from(values).find((v) => !Number.isInteger(v));
     if (bad !== undefined) {
-      errors.push({ path: `${path}.count`, message: `${spec.name} takes whole numbers but this axis gives ${bad}: use a list axis` });
+      errors.push({
+        path: `${path}.count`,
+        message: `${spec.name} takes whole numbers but this axis gives ${bad}: use a list axis`,
+      });
       return null;
     }
   }

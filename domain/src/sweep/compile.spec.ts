@@ -25,8 +25,18 @@ describe('compileSweep: the SPEC §4 example', () => {
     expect(sweep.totalPoints).toBe(13950);
     const names = sweep.columns.map((c) => c.name);
     const model = getModel('cross-field');
-    expect(names).toEqual(['idx', ...model.inputs.map((i) => i.name), ...model.outputs.map((o) => o.name), 'vE_over_vDi', 'flags']);
-    expect(sweep.columns.find((c) => c.name === 'Ti_eV')).toMatchObject({ kind: 'input', source: 'expression', unit: 'eV' });
+    expect(names).toEqual([
+      'idx',
+      ...model.inputs.map((i) => i.name),
+      ...model.outputs.map((o) => o.name),
+      'vE_over_vDi',
+      'flags',
+    ]);
+    expect(sweep.columns.find((c) => c.name === 'Ti_eV')).toMatchObject({
+      kind: 'input',
+      source: 'expression',
+      unit: 'eV',
+    });
     expect(sweep.columns.find((c) => c.name === 'Te_eV')).toMatchObject({ source: 'axis' });
     expect(sweep.columns.find((c) => c.name === 'gamma_i')).toMatchObject({ source: 'fixed' });
     expect(sweep.columns.find((c) => c.name === 'vE_over_vDi')).toMatchObject({ kind: 'derived' });
@@ -135,7 +145,10 @@ describe('compileSweep: units and random designs', () => {
     // Same definition, same points; another seed, other points.
     const again = compileSweep(fixture('argon-column-lhs.json')).evaluateChunk(0, 50);
     expect(Array.from(again.columns['B_T']!)).toEqual(Array.from(chunk.columns['B_T']!.subarray(0, 50)));
-    const reseeded = compileSweep({ ...fixture('argon-column-lhs.json'), sampling: { kind: 'latin-hypercube', samples: 2000, seed: 1 } });
+    const reseeded = compileSweep({
+      ...fixture('argon-column-lhs.json'),
+      sampling: { kind: 'latin-hypercube', samples: 2000, seed: 1 },
+    });
     expect(reseeded.pointAt(0).B_T).not.toBe(sweep.pointAt(0).B_T);
   });
 
@@ -175,7 +188,10 @@ describe('compileSweep: units and random designs', () => {
     expect(p2.Te_eV).toBeCloseTo(2 * 25 ** 0.75, 12);
     expect(p2.phi_V).toBe(-7.5);
     expect(p2.gamma_e).toBe(1.2);
-    const skipped = compileSweep({ ...fixture('sheath-sobol.json'), sampling: { kind: 'sobol', samples: 10, skip: 1 } });
+    const skipped = compileSweep({
+      ...fixture('sheath-sobol.json'),
+      sampling: { kind: 'sobol', samples: 10, skip: 1 },
+    });
     expect(skipped.pointAt(0)).toEqual(p1);
   });
 });
@@ -204,7 +220,9 @@ describe('compileSweep: errors with paths', () => {
   });
 
   it('rejects an unknown model', () => {
-    expect(errorsOf({ ...edge, model: 'warp-drive' })['model']).toMatch(/unknown model "warp-drive"; known models: cross-field/);
+    expect(errorsOf({ ...edge, model: 'warp-drive' })['model']).toMatch(
+      /unknown model "warp-drive"; known models: cross-field/,
+    );
   });
 
   it('rejects cyclic and self-referencing expressions', () => {
@@ -218,7 +236,10 @@ describe('compileSweep: errors with paths', () => {
   });
 
   it('orders chained expressions topologically', () => {
-    const sweep = compileSweep({ ...edge, fixed: { ...(edge.fixed as object), Ti_eV: 'Er_Vm + Te_eV', Er_Vm: '2*Te_eV' } });
+    const sweep = compileSweep({
+      ...edge,
+      fixed: { ...(edge.fixed as object), Ti_eV: 'Er_Vm + Te_eV', Er_Vm: '2*Te_eV' },
+    });
     const p = sweep.pointAt(13949);
     expect(p.Er_Vm).toBe(2000);
     expect(p.Ti_eV).toBe(3000);
@@ -248,7 +269,13 @@ describe('compileSweep: errors with paths', () => {
   });
 
   it('rejects unknown symbols and name clashes in derived columns', () => {
-    const errors = errorsOf({ ...edge, derived: [{ name: 'ratio', expr: 'vE_ms / nope' }, { name: 'beta', expr: '1' }] });
+    const errors = errorsOf({
+      ...edge,
+      derived: [
+        { name: 'ratio', expr: 'vE_ms / nope' },
+        { name: 'beta', expr: '1' },
+      ],
+    });
     expect(errors['derived.0.expr']).toMatch(/nope/);
     expect(errors['derived.1.name']).toMatch(/already an input or output/);
   });

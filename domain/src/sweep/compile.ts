@@ -87,7 +87,10 @@ export function checkSweep(raw: unknown): { ok: true; compiled: CompiledSweep } 
   } catch (err) {
     if (!(err instanceof NotFoundError)) throw err;
     const known = models.map((m) => m.id).join(', ');
-    return { ok: false, errors: [{ path: 'model', message: `unknown model "${definition.model}"; known models: ${known}` }] };
+    return {
+      ok: false,
+      errors: [{ path: 'model', message: `unknown model "${definition.model}"; known models: ${known}` }],
+    };
   }
 
   // Axes: each names a model input once.
@@ -103,7 +106,10 @@ export function checkSweep(raw: unknown): { ok: true; compiled: CompiledSweep } 
       return null;
     }
     if (axisOf.has(axis.param)) {
-      errors.push({ path: `axes.${i}.param`, message: `${axis.param} is already swept by axes.${axisOf.get(axis.param)}` });
+      errors.push({
+        path: `axes.${i}.param`,
+        message: `${axis.param} is already swept by axes.${axisOf.get(axis.param)}`,
+      });
       return null;
     }
     axisOf.set(axis.param, i);
@@ -120,19 +126,27 @@ export function checkSweep(raw: unknown): { ok: true; compiled: CompiledSweep } 
     errors.push(...(err.details ?? [{ path: 'thresholds', message: err.message }]));
   }
 
-  const totalPoints = grid ? axes.reduce((n, a) => n * (a?.count ?? 1), 1) : (definition.sampling as { samples: number }).samples;
-  if (totalPoints > MAX_POINTS_HARD) errors.push({ path: 'axes', message: `${totalPoints} points exceed the limit of ${MAX_POINTS_HARD}` });
+  const totalPoints = grid
+    ? axes.reduce((n, a) => n * (a?.count ?? 1), 1)
+    : (definition.sampling as { samples: number }).samples;
+  if (totalPoints > MAX_POINTS_HARD)
+    errors.push({ path: 'axes', message: `${totalPoints} points exceed the limit of ${MAX_POINTS_HARD}` });
   if (definition.sampling.kind === 'sobol') {
-    if (axes.length > MAX_SOBOL_DIMENSIONS) errors.push({ path: 'axes', message: `Sobol sampling supports at most ${MAX_SOBOL_DIMENSIONS} axes` });
+    if (axes.length > MAX_SOBOL_DIMENSIONS)
+      errors.push({ path: 'axes', message: `Sobol sampling supports at most ${MAX_SOBOL_DIMENSIONS} axes` });
     const skip = definition.sampling.skip ?? 0;
-    if (skip + totalPoints - 1 > MAX_SOBOL_INDEX) errors.push({ path: 'sampling.skip', message: `skip + samples must stay below 2^32` });
+    if (skip + totalPoints - 1 > MAX_SOBOL_INDEX)
+      errors.push({ path: 'sampling.skip', message: `skip + samples must stay below 2^32` });
   }
 
   // Derived columns read inputs and outputs by name; compileDerived also rejects name clashes.
   let derived: ReturnType<typeof compileDerived> | null = null;
   if (definition.derived.length) {
     try {
-      derived = compileDerived(definition.derived, [...model.inputs.map((s) => s.name), ...model.outputs.map((o) => o.name)]);
+      derived = compileDerived(definition.derived, [
+        ...model.inputs.map((s) => s.name),
+        ...model.outputs.map((o) => o.name),
+      ]);
     } catch (err) {
       const details = (err as { details?: ErrorDetail[] }).details;
       errors.push(...(details?.length ? details : [{ path: 'derived', message: (err as Error).message }]));
@@ -144,7 +158,16 @@ export function checkSweep(raw: unknown): { ok: true; compiled: CompiledSweep } 
   }
   if (errors.length) return { ok: false, errors };
 
-  const compiled = buildEvaluator(definition, model, axes as ResolvedAxis[], sources, order, thresholds, totalPoints, derived);
+  const compiled = buildEvaluator(
+    definition,
+    model,
+    axes as ResolvedAxis[],
+    sources,
+    order,
+    thresholds,
+    totalPoints,
+    derived,
+  );
   return { ok: true, compiled };
 }
 
@@ -198,7 +221,10 @@ function checkExpressionCorners(
       if (message && !reported.has(e.name)) {
         reported.add(e.name);
         const at = rel.map((a) => `${axes[a]!.param} = ${scope[axes[a]!.param]}`).join(', ');
-        errors.push({ path: `fixed.${e.name}`, message: `"${e.expr}" leaves the allowed range${at ? ` at ${at}` : ''}: ${message}` });
+        errors.push({
+          path: `fixed.${e.name}`,
+          message: `"${e.expr}" leaves the allowed range${at ? ` at ${at}` : ''}: ${message}`,
+        });
       }
     }
   }
@@ -225,7 +251,11 @@ function buildEvaluator(
     const n = i1 - i0;
     const inputs: Record<string, Float64Array> = {};
     for (const s of sources) inputs[s.name] = new Float64Array(n);
-    fill(i0, n, axes.map((a) => inputs[a.param]!));
+    fill(
+      i0,
+      n,
+      axes.map((a) => inputs[a.param]!),
+    );
     for (const s of sources) if (s.kind === 'constant') inputs[s.name]!.fill(s.value);
     if (order.length) {
       // A Map scope goes to mathjs unwrapped (a plain object would be wrapped on every call).
@@ -252,7 +282,8 @@ function buildEvaluator(
 
   // Inputs alone (no model run) for one point.
   const pointAt = (i: number): Record<string, number> => {
-    if (!Number.isSafeInteger(i) || i < 0 || i >= totalPoints) throw new RangeError(`point ${i} outside 0..${totalPoints - 1}`);
+    if (!Number.isSafeInteger(i) || i < 0 || i >= totalPoints)
+      throw new RangeError(`point ${i} outside 0..${totalPoints - 1}`);
     const swept = axes.map(() => new Float64Array(1));
     fill(i, 1, swept);
     const values: Record<string, number> = {};
@@ -269,33 +300,72 @@ function buildEvaluator(
     const inputs: Record<string, number> = {};
     for (const s of model.inputs) inputs[s.name] = chunk.columns[s.name]![0]!;
     const outputs: Record<string, number | boolean> = {};
-    for (const o of model.outputs) outputs[o.name] = o.kind === 'boolean' ? chunk.columns[o.name]![0] !== 0 : chunk.columns[o.name]![0]!;
+    for (const o of model.outputs)
+      outputs[o.name] = o.kind === 'boolean' ? chunk.columns[o.name]![0] !== 0 : chunk.columns[o.name]![0]!;
     const d: Record<string, number> = {};
     for (const name of derivedNames) d[name] = chunk.columns[name]![0]!;
     const mask = chunk.flags[0]!;
-    return { idx: i, inputs, outputs, derived: d, flags: model.flags.filter((f) => mask & (1 << f.bit)).map((f) => f.code) };
+    return {
+      idx: i,
+      inputs,
+      outputs,
+      derived: d,
+      flags: model.flags.filter((f) => mask & (1 << f.bit)).map((f) => f.code),
+    };
   };
 
   return { definition, model, totalPoints, axes, columns, thresholds, pointAt, evaluateChunk, evaluatePointAt };
 }
 
-function describeColumns(model: ModelDefinition, sources: InputSource[], definition: SweepDefinition, derivedNames: string[]): SweepColumn[] {
+function describeColumns(
+  model: ModelDefinition,
+  sources: InputSource[],
+  definition: SweepDefinition,
+  derivedNames: string[],
+): SweepColumn[] {
   const sourceOf = new Map(sources.map((s) => [s.name, s]));
-  const cols: SweepColumn[] = [{ name: 'idx', kind: 'index', unit: '1', type: 'int', meaning: 'Point index within the sweep (0-based).' }];
+  const cols: SweepColumn[] = [
+    { name: 'idx', kind: 'index', unit: '1', type: 'int', meaning: 'Point index within the sweep (0-based).' },
+  ];
   for (const spec of model.inputs) {
     const s = sourceOf.get(spec.name)!;
     const source = s.kind === 'axis' ? 'axis' : s.kind === 'expression' ? 'expression' : s.from;
     const how = s.kind === 'expression' ? ` Computed as ${s.expr}.` : '';
-    cols.push({ name: spec.name, kind: 'input', unit: spec.unit, type: spec.integer ? 'int' : 'float', meaning: spec.meaning + how, source });
+    cols.push({
+      name: spec.name,
+      kind: 'input',
+      unit: spec.unit,
+      type: spec.integer ? 'int' : 'float',
+      meaning: spec.meaning + how,
+      source,
+    });
   }
   for (const o of model.outputs) {
-    cols.push({ name: o.name, kind: 'output', unit: o.unit, type: o.kind === 'boolean' ? 'boolean' : 'float', meaning: o.meaning });
+    cols.push({
+      name: o.name,
+      kind: 'output',
+      unit: o.unit,
+      type: o.kind === 'boolean' ? 'boolean' : 'float',
+      meaning: o.meaning,
+    });
   }
   derivedNames.forEach((name) => {
     const d = definition.derived.find((x) => x.name === name);
-    cols.push({ name, kind: 'derived', unit: '', type: 'float', meaning: d ? `Derived: ${d.expr}` : 'Derived column.' });
+    cols.push({
+      name,
+      kind: 'derived',
+      unit: '',
+      type: 'float',
+      meaning: d ? `Derived: ${d.expr}` : 'Derived column.',
+    });
   });
   const bits = model.flags.map((f) => `bit ${f.bit} ${f.code}`).join(', ');
-  cols.push({ name: 'flags', kind: 'flags', unit: '', type: 'mask', meaning: `Validity flag bit mask (${bits || 'no flags'}).` });
+  cols.push({
+    name: 'flags',
+    kind: 'flags',
+    unit: '',
+    type: 'mask',
+    meaning: `Validity flag bit mask (${bits || 'no flags'}).`,
+  });
   return cols;
 }

@@ -10,7 +10,11 @@ export interface SweepEstimate {
 }
 
 /** Points, chunks and a compute-time estimate from a measured kernel speed (points per second). */
-export function estimateSweep(compiled: Pick<CompiledSweep, 'totalPoints'>, pointsPerSecond: number, chunkSize = DEFAULT_CHUNK_SIZE): SweepEstimate {
+export function estimateSweep(
+  compiled: Pick<CompiledSweep, 'totalPoints'>,
+  pointsPerSecond: number,
+  chunkSize = DEFAULT_CHUNK_SIZE,
+): SweepEstimate {
   if (!(pointsPerSecond > 0)) throw new RangeError(`pointsPerSecond ${pointsPerSecond} must be > 0`);
   const points = compiled.totalPoints;
   return { points, chunks: chunkCount(points, chunkSize), seconds: points / pointsPerSecond };

@@ -36,7 +36,8 @@ function symbolsOf(text: string): Set<string> | null {
     if ((n as { isFunctionNode?: boolean }).isFunctionNode) fnNames.add((n as unknown as { fn: MathNode }).fn);
   });
   node.traverse((n) => {
-    if ((n as { isSymbolNode?: boolean }).isSymbolNode && !fnNames.has(n)) names.add((n as unknown as { name: string }).name);
+    if ((n as { isSymbolNode?: boolean }).isSymbolNode && !fnNames.has(n))
+      names.add((n as unknown as { name: string }).name);
   });
   return names;
 }
@@ -105,7 +106,11 @@ export function resolveFixed(
       continue;
     }
     try {
-      const fn = compileExpression(text, inputNames.filter((n) => n !== name), path);
+      const fn = compileExpression(
+        text,
+        inputNames.filter((n) => n !== name),
+        path,
+      );
       const copyOf = known.has(text) ? text : null;
       byName.set(name, { name, kind: 'expression', expr: text, deps, copyOf, fn });
     } catch (err) {
@@ -144,7 +149,10 @@ function topologicalOrder(sources: InputSource[], errors: ErrorDetail[]): Expres
   const cyclic = [...pending].filter(([, k]) => k > 0).map(([n]) => n);
   for (const name of cyclic) {
     const others = cyclic.filter((n) => n !== name).map((n) => `fixed.${n}`);
-    errors.push({ path: `fixed.${name}`, message: `expressions form a cycle (${[`fixed.${name}`, ...others].join(' → ')}); break it with a number or an axis` });
+    errors.push({
+      path: `fixed.${name}`,
+      message: `expressions form a cycle (${[`fixed.${name}`, ...others].join(' → ')}); break it with a number or an axis`,
+    });
   }
   return order;
 }

@@ -4,7 +4,8 @@ import { ValidationError } from '../errors.js';
 import { MAX_POINTS_HARD } from './limits.js';
 import { parseSweepDefinition, safeParseSweepDefinition } from './parse.js';
 
-const fixture = (name: string): unknown => JSON.parse(readFileSync(new URL(`fixtures/${name}`, import.meta.url), 'utf8'));
+const fixture = (name: string): unknown =>
+  JSON.parse(readFileSync(new URL(`fixtures/${name}`, import.meta.url), 'utf8'));
 
 function errorsOf(raw: unknown): Record<string, string> {
   const r = safeParseSweepDefinition(raw);
@@ -89,7 +90,15 @@ describe('sweep definition schema', () => {
     expect(errors['description']).toMatch(/5000/);
     expect(errors['tags']).toMatch(/20/);
     expect(errors['derived']).toMatch(/16/);
-    expect(errorsOf({ ...base, derived: [{ name: 'a', expr: '1' }, { name: 'a', expr: '2' }] })['derived.1.name']).toMatch(/duplicates/);
+    expect(
+      errorsOf({
+        ...base,
+        derived: [
+          { name: 'a', expr: '1' },
+          { name: 'a', expr: '2' },
+        ],
+      })['derived.1.name'],
+    ).toMatch(/duplicates/);
   });
 
   it('throws one ValidationError carrying every detail', () => {

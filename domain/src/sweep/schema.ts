@@ -1,12 +1,5 @@
 import { z } from 'zod';
-import {
-  MAX_AXES,
-  MAX_AXIS_COUNT,
-  MAX_DERIVED,
-  MAX_POINTS_HARD,
-  MAX_RANDOM_SAMPLES,
-  MAX_TAGS,
-} from './limits.js';
+import { MAX_AXES, MAX_AXIS_COUNT, MAX_DERIVED, MAX_POINTS_HARD, MAX_RANDOM_SAMPLES, MAX_TAGS } from './limits.js';
 
 /**
  * The sweep definition (SPEC §4), shared by api validation and the ui form. Structural checks only;
@@ -25,9 +18,7 @@ export const quantitySchema = z.union(
   { error: 'must be a number or a string such as "20 eV"' },
 );
 
-const paramSchema = z
-  .string({ error: 'must be an input name' })
-  .regex(IDENT, 'must be an input name such as Te_eV');
+const paramSchema = z.string({ error: 'must be an input name' }).regex(IDENT, 'must be an input name such as Te_eV');
 const unitSchema = z.string().trim().min(1).max(40, 'must be at most 40 characters').optional();
 const countSchema = z
   .number({ error: 'must be a whole number' })
@@ -108,13 +99,21 @@ export const derivedSchema = z.object({
     .string({ error: 'must be a name' })
     .regex(IDENT, 'must be an identifier (letters, digits, _; not starting with a digit)')
     .max(64, 'must be at most 64 characters'),
-  expr: z.string({ error: 'must be an expression' }).trim().min(1, 'must not be empty').max(500, 'must be at most 500 characters'),
+  expr: z
+    .string({ error: 'must be an expression' })
+    .trim()
+    .min(1, 'must not be empty')
+    .max(500, 'must be at most 500 characters'),
 });
 
 export const sweepDefinitionSchema = z
   .object({
     schemaVersion: z.literal(1, { error: 'must be 1' }).default(1),
-    name: z.string({ error: 'is required' }).trim().min(1, 'must not be empty').max(200, 'must be at most 200 characters'),
+    name: z
+      .string({ error: 'is required' })
+      .trim()
+      .min(1, 'must not be empty')
+      .max(200, 'must be at most 200 characters'),
     model: z.string({ error: 'is required' }).min(1, 'must name a model'),
     description: z.string().max(5000, 'must be at most 5000 characters').optional(),
     fixed: z.record(paramSchema, quantitySchema).default({}),
@@ -157,7 +156,8 @@ export const sweepDefinitionSchema = z
     }
     const names = new Set<string>();
     def.derived.forEach((d, i) => {
-      if (names.has(d.name)) ctx.addIssue({ code: 'custom', path: ['derived', i, 'name'], message: `duplicates derived column ${d.name}` });
+      if (names.has(d.name))
+        ctx.addIssue({ code: 'custom', path: ['derived', i, 'name'], message: `duplicates derived column ${d.name}` });
       names.add(d.name);
     });
   });

@@ -38,7 +38,13 @@ describe('parseQuantity', () => {
   });
 
   it('rejects the wrong dimension naming the field and the unit', () => {
-    const cases: [string, string][] = [['3 cm', 'eV'], ['0.5 T', 'm'], ['20 eV', 'T'], ['2 m', '1'], ['5 kV', 'V/m']];
+    const cases: [string, string][] = [
+      ['3 cm', 'eV'],
+      ['0.5 T', 'm'],
+      ['20 eV', 'T'],
+      ['2 m', '1'],
+      ['5 kV', 'V/m'],
+    ];
     for (const [text, unit] of cases) {
       let err: unknown;
       try {
@@ -50,7 +56,9 @@ describe('parseQuantity', () => {
       const d = (err as ValidationError).details!;
       expect(d).toHaveLength(1);
       expect(d[0]!.path).toBe('inputs.f');
-      expect(d[0]!.message).toMatch(unit === '1' ? /dimensionless/ : new RegExp(`expected a quantity in ${unit.replace('^', '\\^')}`));
+      expect(d[0]!.message).toMatch(
+        unit === '1' ? /dimensionless/ : new RegExp(`expected a quantity in ${unit.replace('^', '\\^')}`),
+      );
     }
   });
 

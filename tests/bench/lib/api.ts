@@ -39,9 +39,21 @@ export async function startApi(label: string, env: Record<string, string> = {}):
   if (profile) fs.mkdirSync(PROFILE_DIR, { recursive: true });
   const dataDir = tempDir(label);
   const port = await freePort();
-  const apiEnv = { NODE_ENV: 'test', LOG_LEVEL: 'warn', HOST: '127.0.0.1', PORT: String(port), DEMO_SEED: 'true', DATA_DIR: dataDir, ...env };
+  const apiEnv = {
+    NODE_ENV: 'test',
+    LOG_LEVEL: 'warn',
+    HOST: '127.0.0.1',
+    PORT: String(port),
+    DEMO_SEED: 'true',
+    DATA_DIR: dataDir,
+    ...env,
+  };
   const proc = profile
-    ? spawnNode('api/dist/main.js', apiEnv, ['--cpu-prof', `--cpu-prof-dir=${PROFILE_DIR}`, `--cpu-prof-name=api-${label}-${Date.now()}.cpuprofile`])
+    ? spawnNode('api/dist/main.js', apiEnv, [
+        '--cpu-prof',
+        `--cpu-prof-dir=${PROFILE_DIR}`,
+        `--cpu-prof-name=api-${label}-${Date.now()}.cpuprofile`,
+      ])
     : spawnNode('api/dist/main.js', apiEnv);
   const stop = track(`api ${label}`, async () => {
     await stopProc(proc);
@@ -51,7 +63,16 @@ export async function startApi(label: string, env: Record<string, string> = {}):
   try {
     await waitForHealth(baseUrl, proc, 60_000);
     const token = await apiLogin(baseUrl, 'researcher@example.com');
-    const api: ApiHandle = { baseUrl, proc, pid: proc.child.pid!, dataDir, token, dbFile: path.join(dataDir, 'driftgrid.db'), stop, startMs: 0 };
+    const api: ApiHandle = {
+      baseUrl,
+      proc,
+      pid: proc.child.pid!,
+      dataDir,
+      token,
+      dbFile: path.join(dataDir, 'driftgrid.db'),
+      stop,
+      startMs: 0,
+    };
     await waitIdle(api);
     api.startMs = performance.now() - t0;
     return api;
@@ -91,7 +112,8 @@ export interface SweepRun {
 export async function runSweep(api: ApiHandle, definition: unknown, timeoutMs = 600_000): Promise<SweepRun> {
   const t0 = performance.now();
   const created = await apiJson(api.baseUrl, api.token, 'POST', '/api/sweeps', definition);
-  if (created.status !== 201) throw new Error(`POST /api/sweeps answered ${created.status}: ${JSON.stringify(created.body)}`);
+  if (created.status !== 201)
+    throw new Error(`POST /api/sweeps answered ${created.status}: ${JSON.stringify(created.body)}`);
   const id = created.body.id as number;
   const deadline = Date.now() + timeoutMs;
   for (;;) {
@@ -103,17 +125,25 @@ export async function runSweep(api: ApiHandle, definition: unknown, timeoutMs = 
       const rows = countRows(api.dbFile, id);
       if (rows !== s.points) throw new Error(`sweep ${id} completed with ${rows} stored rows, expected ${s.points}`);
       return {
-        id, points: s.points, chunks: s.chunks, wallMs, rows,
+        id,
+        points: s.points,
+        chunks: s.chunks,
+        wallMs,
+        rows,
         serverMs: Date.parse(s.finishedAt) - Date.parse(s.createdAt),
         computeMs: s.provenance?.computeMs ?? NaN,
         workers: s.provenance?.workers ?? [],
       };
     }
     if (!['queued', 'running'].includes(s.status)) {
-      throw new Error(`sweep ${id} ended ${s.status}${s.error ? `: ${s.error}` : ''}\napi output:\n${api.proc.output().slice(-3000)}`);
+      throw new Error(
+        `sweep ${id} ended ${s.status}${s.error ? `: ${s.error}` : ''}\napi output:\n${api.proc.output().slice(-3000)}`,
+      );
     }
-    if (api.proc.child.exitCode !== null) throw new Error(`api exited during sweep ${id}:\n${api.proc.output().slice(-3000)}`);
-    if (Date.now() > deadline) throw new Error(`sweep ${id} still ${s.status} after ${timeoutMs} ms (${s.progress.done}/${s.progress.total})`);
+    if (api.proc.child.exitCode !== null)
+      throw new Error(`api exited during sweep ${id}:\n${api.proc.output().slice(-3000)}`);
+    if (Date.now() > deadline)
+      throw new Error(`sweep ${id} still ${s.status} after ${timeoutMs} ms (${s.progress.done}/${s.progress.total})`);
     await new Promise((res) => setTimeout(res, 100));
   }
 }
@@ -130,7 +160,9 @@ export async function warmUp(api: ApiHandle, definition: unknown): Promise<numbe
 export function countRows(dbFile: string, sweepId: number): number {
   const db = new Database(dbFile, { readonly: true, fileMustExist: true });
   try {
-    const r = db.prepare('select count(*) as n from results where id >= ? and id < ?').get(sweepId * ROW_SPAN, (sweepId + 1) * ROW_SPAN) as { n: number };
+    const r = db
+      .prepare('select count(*) as n from results where id >= ? and id < ?')
+      .get(sweepId * ROW_SPAN, (sweepId + 1) * ROW_SPAN) as { n: number };
     return r.n;
   } finally {
     db.close();
@@ -153,7 +185,10 @@ export function checkpointedBytes(dbFile: string): { dbBytes: number; walBytes: 
 }
 
 /** GET a route and time it; `available` is false on 404/405 (route not built yet). */
-export async function timedGet(api: ApiHandle, route: string): Promise<{ ms: number; status: number; body: unknown; bytes: number }> {
+export async function timedGet(
+  api: ApiHandle,
+  route: string,
+): Promise<{ ms: number; status: number; body: unknown; bytes: number }> {
   const t0 = performance.now();
   const r = await fetch(`${api.baseUrl}${route}`, { headers: { authorization: `Bearer ${api.token}` } });
   const text = await r.text();

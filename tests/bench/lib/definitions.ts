@@ -9,12 +9,22 @@ import { smallSweep } from '../../support/sweeps.js';
 export function crossFieldGrid(points: number) {
   const teCount = points % 2000 === 0 ? 200 : 100;
   const lnCount = points / (teCount * 10);
-  if (!Number.isInteger(lnCount) || lnCount < 1) throw new Error(`bench grid: ${points} points is not a multiple of ${teCount * 10}`);
+  if (!Number.isInteger(lnCount) || lnCount < 1)
+    throw new Error(`bench grid: ${points} points is not a multiple of ${teCount * 10}`);
   const axes: unknown[] = [
     { param: 'Te_eV', kind: 'log', min: 1, max: 100, count: teCount },
     { param: 'B_T', kind: 'linear', min: 0.05, max: 0.5, count: 10 },
   ];
-  const fixed: Record<string, unknown> = { n_m3: 1e18, mu: 40, Z: 1, Er_Vm: 0, gamma_i: 1, gamma_e: 1, Ti_eV: 'Te_eV', Ln_m: 0.02 };
+  const fixed: Record<string, unknown> = {
+    n_m3: 1e18,
+    mu: 40,
+    Z: 1,
+    Er_Vm: 0,
+    gamma_i: 1,
+    gamma_e: 1,
+    Ti_eV: 'Te_eV',
+    Ln_m: 0.02,
+  };
   if (lnCount > 1) {
     axes.push({ param: 'Ln_m', kind: 'linear', min: 0.005, max: 0.1, count: lnCount });
     delete fixed.Ln_m;
@@ -45,7 +55,18 @@ export function columnProfileGrid(points: number) {
   return {
     name: `Bench column width grid, ${points} points`,
     model: 'column-profile',
-    fixed: { n0_m3: 1e18, Te0_eV: 4, Ti0_eV: 0.05, mu: 40, Z: 1, phi0_V: 10, gamma_e: 1, gamma_i: 1, nr: 256, rmax_over_a: 3 },
+    fixed: {
+      n0_m3: 1e18,
+      Te0_eV: 4,
+      Ti0_eV: 0.05,
+      mu: 40,
+      Z: 1,
+      phi0_V: 10,
+      gamma_e: 1,
+      gamma_i: 1,
+      nr: 256,
+      rmax_over_a: 3,
+    },
     axes: [
       { param: 'a_m', kind: 'linear', min: 0.01, max: 0.05, count: aCount },
       { param: 'B0_T', kind: 'linear', min: 0.05, max: 0.5, count: bCount },

@@ -12,7 +12,10 @@ export interface MeasuredSweep {
 export async function measuredSweep(api: ApiHandle, definition: unknown): Promise<MeasuredSweep> {
   const rssSampler = sampleRss(api.pid, 100);
   const healthSampler = sampleHealth(api.baseUrl, 50);
-  const outcome = await runSweep(api, definition).then((run) => ({ run }), (error: unknown) => ({ error }));
+  const outcome = await runSweep(api, definition).then(
+    (run) => ({ run }),
+    (error: unknown) => ({ error }),
+  );
   // Samplers stop on failure too (their timers would keep the process alive).
   const health = await healthSampler.stop();
   const rss = rssSampler.stop();

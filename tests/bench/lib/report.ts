@@ -21,13 +21,22 @@ export class Report {
   add(row: Row): void {
     this.rows.push(row);
     const v = typeof row.value === 'number' ? fmt(row.value) : row.value;
-    console.log(`  ${row.scenario} · ${row.metric}: ${v} ${row.unit}${row.target ? `  (target ${row.target})` : ''}${row.note ? `  — ${row.note}` : ''}`);
+    console.log(
+      `  ${row.scenario} · ${row.metric}: ${v} ${row.unit}${row.target ? `  (target ${row.target})` : ''}${row.note ? `  — ${row.note}` : ''}`,
+    );
   }
 
   /** A figure with a "lower is better" or "higher is better" target. */
   target(row: Omit<Row, 'met' | 'target'>, op: '≤' | '<' | '≥', limit: number, limitText: string): void {
     const v = row.value;
-    const met = typeof v === 'number' && Number.isFinite(v) ? (op === '≥' ? v >= limit : op === '≤' ? v <= limit : v < limit) : undefined;
+    const met =
+      typeof v === 'number' && Number.isFinite(v)
+        ? op === '≥'
+          ? v >= limit
+          : op === '≤'
+            ? v <= limit
+            : v < limit
+        : undefined;
     this.add({ ...row, target: `${op} ${limitText}`, met });
   }
 
@@ -53,11 +62,20 @@ export function fmt(v: number): string {
 export function printTable(report: Report): void {
   const head = ['scenario', 'metric', 'value', 'unit', 'target', 'met', 'note'];
   const body = report.rows.map((r) => [
-    r.scenario, r.metric, typeof r.value === 'number' ? fmt(r.value) : r.value, r.unit, r.target ?? '',
-    r.met === undefined ? '' : r.met ? 'yes' : 'NO', r.note ?? '',
+    r.scenario,
+    r.metric,
+    typeof r.value === 'number' ? fmt(r.value) : r.value,
+    r.unit,
+    r.target ?? '',
+    r.met === undefined ? '' : r.met ? 'yes' : 'NO',
+    r.note ?? '',
   ]);
   const widths = head.map((h, i) => Math.max(h.length, ...body.map((b) => b[i]!.length)));
-  const line = (cells: string[]) => cells.map((c, i) => (i === 2 ? c.padStart(widths[i]!) : c.padEnd(widths[i]!))).join('  ').trimEnd();
+  const line = (cells: string[]) =>
+    cells
+      .map((c, i) => (i === 2 ? c.padStart(widths[i]!) : c.padEnd(widths[i]!)))
+      .join('  ')
+      .trimEnd();
   console.log(`\n${line(head)}\n${widths.map((w) => '-'.repeat(w)).join('  ')}`);
   let last = '';
   for (const b of body) {

@@ -19,25 +19,46 @@ interface Query {
 
 export async function benchQueries(cfg: BenchConfig, kept: KeptSweep, report: Report): Promise<void> {
   const { api, sweepId: id, points } = kept;
-  console.log(`\n[4] results and series on the ${points.toLocaleString('en-US')}-point sweep (median of ${cfg.queryRuns})`);
+  console.log(
+    `\n[4] results and series on the ${points.toLocaleString('en-US')}-point sweep (median of ${cfg.queryRuns})`,
+  );
   const filter = encodeURIComponent(JSON.stringify({ Te_eV: { gte: 5, lte: 50 } }));
   const deepPage = Math.max(1, Math.floor(points / 50 / 2));
   const rows = (b: any) => `${b?.rows?.length ?? '?'} rows of ${b?.total ?? '?'}`;
   const series = (b: any) => `${b?.returned ?? '?'} points in ${b?.groups?.length ?? '?'} groups, ${b?.method ?? '?'}`;
   const queries: Query[] = [
-    { metric: 'results page 1, default order (50 rows)', route: `/api/sweeps/${id}/results?page=1&pageSize=50`, limit: 50, limitText: '50 ms', describe: rows },
-    { metric: `results page ${deepPage.toLocaleString('en-US')}, default order`, route: `/api/sweeps/${id}/results?page=${deepPage}&pageSize=50`, describe: rows },
     {
-      metric: 'results sorted by rho_i_over_Ln desc, 5 ≤ Te_eV ≤ 50', route: `/api/sweeps/${id}/results?page=1&pageSize=50&sort=rho_i_over_Ln:desc&filter=${filter}`,
-      limit: 500, limitText: '500 ms', describe: rows,
+      metric: 'results page 1, default order (50 rows)',
+      route: `/api/sweeps/${id}/results?page=1&pageSize=50`,
+      limit: 50,
+      limitText: '50 ms',
+      describe: rows,
     },
     {
-      metric: 'series x=Te_eV y=vDi_ms groupBy=B_T, 2,000 pts', route: `/api/sweeps/${id}/series?x=Te_eV&y=vDi_ms&groupBy=B_T&maxPoints=2000`,
-      limit: 300, limitText: '300 ms', describe: series,
+      metric: `results page ${deepPage.toLocaleString('en-US')}, default order`,
+      route: `/api/sweeps/${id}/results?page=${deepPage}&pageSize=50`,
+      describe: rows,
     },
     {
-      metric: 'series x=beta y=vDi_ms (x not swept), 2,000 pts', route: `/api/sweeps/${id}/series?x=beta&y=vDi_ms&maxPoints=2000`,
-      limit: 300, limitText: '300 ms', describe: series,
+      metric: 'results sorted by rho_i_over_Ln desc, 5 ≤ Te_eV ≤ 50',
+      route: `/api/sweeps/${id}/results?page=1&pageSize=50&sort=rho_i_over_Ln:desc&filter=${filter}`,
+      limit: 500,
+      limitText: '500 ms',
+      describe: rows,
+    },
+    {
+      metric: 'series x=Te_eV y=vDi_ms groupBy=B_T, 2,000 pts',
+      route: `/api/sweeps/${id}/series?x=Te_eV&y=vDi_ms&groupBy=B_T&maxPoints=2000`,
+      limit: 300,
+      limitText: '300 ms',
+      describe: series,
+    },
+    {
+      metric: 'series x=beta y=vDi_ms (x not swept), 2,000 pts',
+      route: `/api/sweeps/${id}/series?x=beta&y=vDi_ms&maxPoints=2000`,
+      limit: 300,
+      limitText: '300 ms',
+      describe: series,
     },
   ];
   const detail: Record<string, unknown> = {};
@@ -54,7 +75,13 @@ async function one(api: ApiHandle, q: Query, runs: number, report: Report): Prom
   }
   if (first.status !== 200) {
     const msg = (first.body as any)?.message ?? String(first.body).slice(0, 120);
-    report.add({ scenario, metric: q.metric, value: `error ${first.status}`, unit: '', note: String(msg).slice(0, 160) });
+    report.add({
+      scenario,
+      metric: q.metric,
+      value: `error ${first.status}`,
+      unit: '',
+      note: String(msg).slice(0, 160),
+    });
     return { available: true, status: first.status, body: first.body };
   }
   const ms: number[] = [];
@@ -63,7 +90,13 @@ async function one(api: ApiHandle, q: Query, runs: number, report: Report): Prom
     if (r.status !== 200) throw new Error(`${q.route} answered ${r.status} after a 200`);
     ms.push(r.ms);
   }
-  const row = { scenario, metric: q.metric, value: median(ms), unit: 'ms', note: `${q.describe(first.body)}; first ${first.ms.toFixed(0)} ms` };
+  const row = {
+    scenario,
+    metric: q.metric,
+    value: median(ms),
+    unit: 'ms',
+    note: `${q.describe(first.body)}; first ${first.ms.toFixed(0)} ms`,
+  };
   if (q.limit !== undefined) report.target(row, '≤', q.limit, q.limitText!);
   else report.add(row);
   return { available: true, ms, firstMs: first.ms, bytes: first.bytes };

@@ -21,13 +21,22 @@ export async function benchExport(kept: KeptSweep, report: Report): Promise<void
     const file = path.join(dir, 'export.zip');
     const rss = sampleRss(api.pid, 100);
     const t0 = performance.now();
-    const outcome = await download(`${api.baseUrl}/api/sweeps/${sweepId}/export`, api.token, file, t0).then((d) => ({ d }), (error: unknown) => ({ error }));
+    const outcome = await download(`${api.baseUrl}/api/sweeps/${sweepId}/export`, api.token, file, t0).then(
+      (d) => ({ d }),
+      (error: unknown) => ({ error }),
+    );
     const mem = rss.stop();
     if ('error' in outcome) throw outcome.error;
     const { res, zipBytes, firstByteMs } = outcome.d;
     const seconds = (performance.now() - t0) / 1000;
     if (res.status === 404 || res.status === 405) {
-      report.add({ scenario, metric: 'GET /api/sweeps/:id/export', value: 'not available', unit: '', note: `HTTP ${res.status}` });
+      report.add({
+        scenario,
+        metric: 'GET /api/sweeps/:id/export',
+        value: 'not available',
+        unit: '',
+        note: `HTTP ${res.status}`,
+      });
       report.detail('export', { available: false, status: res.status });
       return;
     }
@@ -38,21 +47,68 @@ export async function benchExport(kept: KeptSweep, report: Report): Promise<void
     }
     const info = zipContents(file);
     const csv = info.files.find((f) => f.name.endsWith('results.csv'));
-    report.add({ scenario, metric: 'zip bytes streamed', value: zipBytes / MB / seconds, unit: 'MB/s', note: `${(zipBytes / MB).toFixed(1)} MB in ${seconds.toFixed(2)} s; first byte ${firstByteMs.toFixed(0)} ms` });
+    report.add({
+      scenario,
+      metric: 'zip bytes streamed',
+      value: zipBytes / MB / seconds,
+      unit: 'MB/s',
+      note: `${(zipBytes / MB).toFixed(1)} MB in ${seconds.toFixed(2)} s; first byte ${firstByteMs.toFixed(0)} ms`,
+    });
     if (csv) {
-      report.target({ scenario, metric: 'uncompressed results.csv', value: csv.originalSize / MB / seconds, unit: 'MB/s', note: `${(csv.originalSize / MB).toFixed(1)} MB CSV${info.rows !== undefined ? `, manifest rows ${info.rows}` : ''}` }, '≥', 20, '20 MB/s');
+      report.target(
+        {
+          scenario,
+          metric: 'uncompressed results.csv',
+          value: csv.originalSize / MB / seconds,
+          unit: 'MB/s',
+          note: `${(csv.originalSize / MB).toFixed(1)} MB CSV${info.rows !== undefined ? `, manifest rows ${info.rows}` : ''}`,
+        },
+        '≥',
+        20,
+        '20 MB/s',
+      );
     } else {
-      report.add({ scenario, metric: 'uncompressed results.csv', value: 'not in zip', unit: '', note: info.files.map((f) => f.name).join(', ') });
+      report.add({
+        scenario,
+        metric: 'uncompressed results.csv',
+        value: 'not in zip',
+        unit: '',
+        note: info.files.map((f) => f.name).join(', '),
+      });
     }
-    report.target({ scenario, metric: 'api RSS growth during export', value: mem.growthMB, unit: 'MB', note: `${mem.baselineMB.toFixed(0)} → peak ${mem.peakMB.toFixed(0)} MB` }, '<', 100, '100 MB');
-    report.detail('export', { available: true, seconds, zipBytes, firstByteMs, files: info.files, manifestRows: info.rows, rss: mem });
+    report.target(
+      {
+        scenario,
+        metric: 'api RSS growth during export',
+        value: mem.growthMB,
+        unit: 'MB',
+        note: `${mem.baselineMB.toFixed(0)} → peak ${mem.peakMB.toFixed(0)} MB`,
+      },
+      '<',
+      100,
+      '100 MB',
+    );
+    report.detail('export', {
+      available: true,
+      seconds,
+      zipBytes,
+      firstByteMs,
+      files: info.files,
+      manifestRows: info.rows,
+      rss: mem,
+    });
   } finally {
     removeDir(dir);
   }
 }
 
 /** Streams the response body to `file`; a non-2xx body is read and dropped. */
-async function download(url: string, token: string, file: string, t0: number): Promise<{ res: Response; zipBytes: number; firstByteMs: number }> {
+async function download(
+  url: string,
+  token: string,
+  file: string,
+  t0: number,
+): Promise<{ res: Response; zipBytes: number; firstByteMs: number }> {
   const res = await fetch(url, { headers: { authorization: `Bearer ${token}` } });
   let zipBytes = 0;
   let firstByteMs = NaN;

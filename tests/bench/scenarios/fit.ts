@@ -28,7 +28,11 @@ function powerLawData(n: number) {
   return { Ti, B, Ln, y };
 }
 
-const exps = (params: { name: string; value: number }[]) => params.filter((p) => p.name.startsWith('exp_')).map((p) => `${p.name.slice(4)} ${p.value.toFixed(3)}`).join(', ');
+const exps = (params: { name: string; value: number }[]) =>
+  params
+    .filter((p) => p.name.startsWith('exp_'))
+    .map((p) => `${p.name.slice(4)} ${p.value.toFixed(3)}`)
+    .join(', ');
 
 export function benchFitDomain(cfg: BenchConfig, report: Report): void {
   const n = cfg.fitPoints;
@@ -38,13 +42,26 @@ export function benchFitDomain(cfg: BenchConfig, report: Report): void {
   let last: ReturnType<typeof fitModel> | undefined;
   for (let r = 0; r <= cfg.fitRuns; r++) {
     const t0 = performance.now();
-    last = fitModel({ model: 'power-law', x: { Ti_eV: d.Ti, B_T: d.B, Ln_m: d.Ln }, xNames: ['Ti_eV', 'B_T', 'Ln_m'], y: d.y });
+    last = fitModel({
+      model: 'power-law',
+      x: { Ti_eV: d.Ti, B_T: d.B, Ln_m: d.Ln },
+      xNames: ['Ti_eV', 'B_T', 'Ln_m'],
+      y: d.y,
+    });
     if (r > 0) ms.push(performance.now() - t0); // run 0 warms the JIT
   }
   if (!last!.converged) throw new Error(`bench fit did not converge: ${last!.message}`);
   report.target(
-    { scenario: '6 fit', metric: `fitModel power-law, 3 exponents, ${n.toLocaleString('en-US')} pts (domain)`, value: median(ms) / 1000, unit: 's', note: `${last!.iterations} iterations; exponents ${exps(last!.parameters)} (true 1, −1, −1)` },
-    '≤', 1, '1 s',
+    {
+      scenario: '6 fit',
+      metric: `fitModel power-law, 3 exponents, ${n.toLocaleString('en-US')} pts (domain)`,
+      value: median(ms) / 1000,
+      unit: 's',
+      note: `${last!.iterations} iterations; exponents ${exps(last!.parameters)} (true 1, −1, −1)`,
+    },
+    '≤',
+    1,
+    '1 s',
   );
   report.detail('fitDomain', { n, ms, iterations: last!.iterations, parameters: last!.parameters, r2: last!.r2 });
 }
@@ -59,7 +76,12 @@ export async function benchFitApi(cfg: BenchConfig, kept: KeptSweep, report: Rep
     return;
   }
   const source = await runSweep(api, fitGrid(cfg.fitPoints));
-  const body = { source: { kind: 'sweep', id: source.id }, model: 'power-law', y: 'vDe_ms', x: ['Te_eV', 'B_T', 'Ln_m'] };
+  const body = {
+    source: { kind: 'sweep', id: source.id },
+    model: 'power-law',
+    y: 'vDe_ms',
+    x: ['Te_eV', 'B_T', 'Ln_m'],
+  };
   const ms: number[] = [];
   let last: any;
   for (let r = 0; r < Math.max(1, cfg.fitRuns); r++) {
@@ -67,15 +89,34 @@ export async function benchFitApi(cfg: BenchConfig, kept: KeptSweep, report: Rep
     const res = await apiJson(api.baseUrl, api.token, 'POST', '/api/fits', body);
     ms.push(performance.now() - t0);
     if (res.status !== 200 && res.status !== 201) {
-      report.add({ scenario, metric: `POST /api/fits power-law, ${source.points.toLocaleString('en-US')} pts`, value: `error ${res.status}`, unit: '', note: String(res.body?.message ?? '').slice(0, 160) });
+      report.add({
+        scenario,
+        metric: `POST /api/fits power-law, ${source.points.toLocaleString('en-US')} pts`,
+        value: `error ${res.status}`,
+        unit: '',
+        note: String(res.body?.message ?? '').slice(0, 160),
+      });
       report.detail('fitApi', { available: true, status: res.status, body: res.body });
       return;
     }
     last = res.body;
   }
   report.target(
-    { scenario, metric: `POST /api/fits power-law, 3 exponents, ${source.points.toLocaleString('en-US')} pts (api)`, value: median(ms) / 1000, unit: 's', note: `n=${last?.n}, ${last?.iterations} iterations; exponents ${exps(last?.parameters ?? [])}` },
-    '≤', 1, '1 s',
+    {
+      scenario,
+      metric: `POST /api/fits power-law, 3 exponents, ${source.points.toLocaleString('en-US')} pts (api)`,
+      value: median(ms) / 1000,
+      unit: 's',
+      note: `n=${last?.n}, ${last?.iterations} iterations; exponents ${exps(last?.parameters ?? [])}`,
+    },
+    '≤',
+    1,
+    '1 s',
   );
-  report.detail('fitApi', { available: true, points: source.points, ms, result: { n: last?.n, parameters: last?.parameters, iterations: last?.iterations } });
+  report.detail('fitApi', {
+    available: true,
+    points: source.points,
+    ms,
+    result: { n: last?.n, parameters: last?.parameters, iterations: last?.iterations },
+  });
 }

@@ -3,7 +3,13 @@
  * model, (b) the sweep chunk evaluator compileSweep(def).evaluateChunk over a whole grid in chunks of
  * the default chunk size (axis decoding, expressions and flags included). One warm-up, then a median.
  */
-import { allocateChunk, compileSweep, DEFAULT_CHUNK_SIZE, getModel, type ModelDefinition } from '../../../domain/dist/index.js';
+import {
+  allocateChunk,
+  compileSweep,
+  DEFAULT_CHUNK_SIZE,
+  getModel,
+  type ModelDefinition,
+} from '../../../domain/dist/index.js';
 import type { BenchConfig } from '../lib/config.js';
 import { columnProfileGrid, crossFieldGrid, parallelBalanceGrid } from '../lib/definitions.js';
 import type { Report } from '../lib/report.js';
@@ -21,7 +27,8 @@ function inputColumns(model: ModelDefinition, n: number): Record<string, Float64
     const c = new Float64Array(n);
     for (let i = 0; i < n; i++) {
       let v = spec.default;
-      if (!spec.integer && spec.name !== 'mu' && spec.name !== 'Z') v = spec.default * (0.75 + 0.5 * ((i * 0.6180339887) % 1));
+      if (!spec.integer && spec.name !== 'mu' && spec.name !== 'Z')
+        v = spec.default * (0.75 + 0.5 * ((i * 0.6180339887) % 1));
       if (v > spec.max || v < spec.min || (spec.minExclusive && v <= spec.min)) v = spec.default;
       c[i] = v;
     }
@@ -53,7 +60,8 @@ function compiledRate(def: unknown, runs: number): { points: number; pointsPerSe
     const t0 = performance.now();
     // Warm-up pass over a tenth of the grid only; measured passes cover every point.
     const end = r === 0 ? Math.max(1, Math.floor(total / 10)) : total;
-    for (let i0 = 0; i0 < end; i0 += DEFAULT_CHUNK_SIZE) compiled.evaluateChunk(i0, Math.min(end, i0 + DEFAULT_CHUNK_SIZE));
+    for (let i0 = 0; i0 < end; i0 += DEFAULT_CHUNK_SIZE)
+      compiled.evaluateChunk(i0, Math.min(end, i0 + DEFAULT_CHUNK_SIZE));
     if (r > 0) ms.push(performance.now() - t0);
   }
   return { points: total, pointsPerSec: total / (median(ms) / 1000), runsMs: ms };
@@ -67,7 +75,12 @@ export function benchKernels(cfg: BenchConfig, report: Report): void {
     const n = cfg.kernelChunk[id];
     const r = kernelRate(id, n, cfg.kernelRuns);
     detail[`${id}.evaluateChunk`] = { n, ...r };
-    const row = { scenario, metric: `${id} evaluateChunk (${n.toLocaleString('en-US')}-pt chunk${id === 'column-profile' ? ', nr 256' : ''})`, value: r.pointsPerSec, unit: 'points/s' };
+    const row = {
+      scenario,
+      metric: `${id} evaluateChunk (${n.toLocaleString('en-US')}-pt chunk${id === 'column-profile' ? ', nr 256' : ''})`,
+      value: r.pointsPerSec,
+      unit: 'points/s',
+    };
     const t = TARGETS[id];
     if (t) report.target(row, '≥', t.limit, t.text);
     else report.add(row);
@@ -83,7 +96,10 @@ export function benchKernels(cfg: BenchConfig, report: Report): void {
     const r = compiledRate(def, runs);
     detail[`${id}.compiledSweep`] = { chunk: DEFAULT_CHUNK_SIZE, ...r };
     report.add({
-      scenario, metric: `${id} compileSweep().evaluateChunk, ${r.points.toLocaleString('en-US')}-pt grid`, value: r.pointsPerSec, unit: 'points/s',
+      scenario,
+      metric: `${id} compileSweep().evaluateChunk, ${r.points.toLocaleString('en-US')}-pt grid`,
+      value: r.pointsPerSec,
+      unit: 'points/s',
       note: `chunks of ${DEFAULT_CHUNK_SIZE}`,
     });
   }

@@ -25,10 +25,30 @@ export async function benchScaling(cfg: BenchConfig, report: Report): Promise<vo
       const peak = Math.max(...ms.map((m) => m.rss.peakMB));
       const growth = Math.max(...ms.map((m) => m.rss.growthMB));
       const label = `${points.toLocaleString('en-US')} pts`;
-      report.add({ scenario, metric: `${label}: submit → completed`, value: seconds, unit: 's', note: `${ms.length} run${ms.length > 1 ? 's, median' : ''}` });
+      report.add({
+        scenario,
+        metric: `${label}: submit → completed`,
+        value: seconds,
+        unit: 's',
+        note: `${ms.length} run${ms.length > 1 ? 's, median' : ''}`,
+      });
       report.add({ scenario, metric: `${label}: throughput`, value: rate, unit: 'points/s' });
-      report.add({ scenario, metric: `${label}: peak api RSS`, value: peak, unit: 'MB', note: `largest growth in a run ${growth.toFixed(0)} MB` });
-      rows.push({ points, runs: ms.length, seconds, pointsPerSec: rate, peakRssMB: peak, rssGrowthMB: growth, runsDetail: ms });
+      report.add({
+        scenario,
+        metric: `${label}: peak api RSS`,
+        value: peak,
+        unit: 'MB',
+        note: `largest growth in a run ${growth.toFixed(0)} MB`,
+      });
+      rows.push({
+        points,
+        runs: ms.length,
+        seconds,
+        pointsPerSec: rate,
+        peakRssMB: peak,
+        rssGrowthMB: growth,
+        runsDetail: ms,
+      });
     }
   } finally {
     await api.stop();

@@ -8,8 +8,17 @@ export function benchStorage(kept: KeptSweep, columns: number | undefined, repor
   const after = checkpointedBytes(kept.api.dbFile);
   const perPoint = (after.total - kept.bytesBefore) / kept.points;
   report.add({
-    scenario: '7 storage', metric: 'bytes per stored point (growth by the sweep / points)', value: perPoint, unit: 'B',
+    scenario: '7 storage',
+    metric: 'bytes per stored point (growth by the sweep / points)',
+    value: perPoint,
+    unit: 'B',
     note: `${(after.total / 1024 / 1024).toFixed(1)} MB file after checkpoint (wal ${after.walBytes} B), ${kept.points.toLocaleString('en-US')} points${columns ? `, ${columns} columns` : ''}`,
   });
-  report.detail('storage', { ...after, bytesBefore: kept.bytesBefore, points: kept.points, bytesPerPoint: perPoint, columns });
+  report.detail('storage', {
+    ...after,
+    bytesBefore: kept.bytesBefore,
+    points: kept.points,
+    bytesPerPoint: perPoint,
+    columns,
+  });
 }

@@ -1,7 +1,15 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useCallback } from 'react';
 import { useNavigate } from 'react-router-dom';
-import { clearSession, getToken, setSession, updateSessionUser, useSession, type Role, type SessionUser } from '../auth/session.js';
+import {
+  clearSession,
+  getToken,
+  setSession,
+  updateSessionUser,
+  useSession,
+  type Role,
+  type SessionUser,
+} from '../auth/session.js';
 import { api } from './client.js';
 import { queryKeys } from './queryKeys.js';
 
@@ -97,7 +105,10 @@ export function isSignedIn(): boolean {
   return getToken() !== null;
 }
 
-export function hasRole(user: Pick<SessionUser, 'role'> | null | undefined, roles: readonly Role[] | undefined): boolean {
+export function hasRole(
+  user: Pick<SessionUser, 'role'> | null | undefined,
+  roles: readonly Role[] | undefined,
+): boolean {
   if (!roles || roles.length === 0) return true;
   return !!user && roles.includes(user.role);
 }

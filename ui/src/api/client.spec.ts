@@ -14,7 +14,8 @@ afterEach(() => {
   setUnauthorizedHandler(null);
 });
 
-const json = (status: number, body: unknown) => new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
+const json = (status: number, body: unknown) =>
+  new Response(JSON.stringify(body), { status, headers: { 'Content-Type': 'application/json' } });
 
 describe('api client', () => {
   it('adds the bearer token and the /api prefix', async () => {
@@ -28,7 +29,12 @@ describe('api client', () => {
 
   it('parses the error shape into ApiError with details', async () => {
     fetchMock.mockResolvedValueOnce(
-      json(400, { statusCode: 400, error: 'Bad Request', message: 'Invalid sweep definition', details: [{ path: 'axes.0.min', message: 'must be > 0' }] }),
+      json(400, {
+        statusCode: 400,
+        error: 'Bad Request',
+        message: 'Invalid sweep definition',
+        details: [{ path: 'axes.0.min', message: 'must be > 0' }],
+      }),
     );
     const err = await api.post('/sweeps', {}).catch((e: unknown) => e);
     expect(err).toBeInstanceOf(ApiError);
@@ -39,7 +45,9 @@ describe('api client', () => {
   });
 
   it('copes with non-JSON failures', async () => {
-    fetchMock.mockResolvedValueOnce(new Response('<html>bad gateway</html>', { status: 502, statusText: 'Bad Gateway' }));
+    fetchMock.mockResolvedValueOnce(
+      new Response('<html>bad gateway</html>', { status: 502, statusText: 'Bad Gateway' }),
+    );
     const e = (await api.get('/health').catch((x: unknown) => x)) as ApiError;
     expect(e.status).toBe(502);
     expect(e.message).toBe('Request failed (502 Bad Gateway).');

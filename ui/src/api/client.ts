@@ -75,7 +75,11 @@ async function send(path: string, opts: RequestOptions): Promise<Response> {
     res = await fetch(buildUrl(path, opts.query), { method: opts.method ?? 'GET', headers, body, signal: opts.signal });
   } catch (err) {
     if (err instanceof DOMException && err.name === 'AbortError') throw err;
-    throw new ApiError(0, 'Cannot reach the Driftgrid server. Check that it is running and try again.', 'Network Error');
+    throw new ApiError(
+      0,
+      'Cannot reach the Driftgrid server. Check that it is running and try again.',
+      'Network Error',
+    );
   }
   if (!res.ok) {
     const error = await toApiError(res);
@@ -103,7 +107,9 @@ export async function toApiError(res: Response): Promise<ApiError> {
       ? rawMessage
       : `Request failed (${res.status}${res.statusText ? ` ${res.statusText}` : ''}).`;
   const details = Array.isArray(p.details)
-    ? (p.details as unknown[]).filter((d): d is ApiErrorDetail => !!d && typeof d === 'object' && typeof (d as ApiErrorDetail).message === 'string')
+    ? (p.details as unknown[]).filter(
+        (d): d is ApiErrorDetail => !!d && typeof d === 'object' && typeof (d as ApiErrorDetail).message === 'string',
+      )
     : [];
   const status = typeof p.statusCode === 'number' ? p.statusCode : res.status;
   return new ApiError(status, message, typeof p.error === 'string' ? p.error : res.statusText, details, correlationId);
@@ -127,7 +133,10 @@ export const api = {
 };
 
 /** A binary download (zip export) with the server's file name from Content-Disposition. */
-export async function apiDownload(path: string, signal?: AbortSignal): Promise<{ blob: Blob; filename: string | null }> {
+export async function apiDownload(
+  path: string,
+  signal?: AbortSignal,
+): Promise<{ blob: Blob; filename: string | null }> {
   const res = await send(path, { signal, headers: { Accept: '*/*' } });
   const disposition = res.headers.get('content-disposition') ?? '';
   const match = /filename\*?=(?:UTF-8'')?"?([^";]+)"?/i.exec(disposition);

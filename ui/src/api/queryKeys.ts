@@ -16,8 +16,10 @@ export const queryKeys = {
     lists: () => ['sweeps', 'list'] as const,
     list: (filters: KeyParams = {}) => ['sweeps', 'list', filters] as const,
     detail: (id: string | number) => ['sweeps', 'detail', String(id)] as const,
-    results: (id: string | number, params: KeyParams = {}) => ['sweeps', 'detail', String(id), 'results', params] as const,
-    series: (id: string | number, params: KeyParams = {}) => ['sweeps', 'detail', String(id), 'series', params] as const,
+    results: (id: string | number, params: KeyParams = {}) =>
+      ['sweeps', 'detail', String(id), 'results', params] as const,
+    series: (id: string | number, params: KeyParams = {}) =>
+      ['sweeps', 'detail', String(id), 'series', params] as const,
     preview: (definition: unknown) => ['sweeps', 'preview', definition] as const,
   },
   datasets: {
@@ -25,7 +27,8 @@ export const queryKeys = {
     list: (filters: KeyParams = {}) => ['datasets', 'list', filters] as const,
     detail: (id: string | number) => ['datasets', 'detail', String(id)] as const,
     rows: (id: string | number, params: KeyParams = {}) => ['datasets', 'detail', String(id), 'rows', params] as const,
-    series: (id: string | number, params: KeyParams = {}) => ['datasets', 'detail', String(id), 'series', params] as const,
+    series: (id: string | number, params: KeyParams = {}) =>
+      ['datasets', 'detail', String(id), 'series', params] as const,
   },
   fits: {
     all: () => ['fits'] as const,

@@ -22,8 +22,8 @@ export function RoleGate({ roles, children }: { roles?: readonly Role[]; childre
         </Button>
       }
     >
-      This page is for {roles.map((r) => ROLE_WORD[r]).join(' and ')}. You are signed in as a {me?.role ?? 'user'}; ask an
-      administrator if your work needs a different role.
+      This page is for {roles.map((r) => ROLE_WORD[r]).join(' and ')}. You are signed in as a {me?.role ?? 'user'}; ask
+      an administrator if your work needs a different role.
     </EmptyState>
   );
 }

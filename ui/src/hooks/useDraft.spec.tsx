@@ -11,7 +11,9 @@ describe('useDraft', () => {
     expect(result.current[2].restored).toBe(false);
     act(() => result.current[1]({ name: 'Argon column' }));
     expect(result.current[0]).toEqual({ name: 'Argon column' });
-    expect(JSON.parse(window.localStorage.getItem('driftgrid.draft.7.sweep-builder')!)).toEqual({ name: 'Argon column' });
+    expect(JSON.parse(window.localStorage.getItem('driftgrid.draft.7.sweep-builder')!)).toEqual({
+      name: 'Argon column',
+    });
   });
 
   it('restores a stored draft after a remount (re-sign-in) and clears it on request', () => {

@@ -4,7 +4,10 @@ import { getSession } from '../auth/session.js';
 const PREFIX = 'driftgrid.draft';
 
 /** Storage key for a draft, namespaced by user so a colleague signing in never sees it. */
-export function draftStorageKey(key: string, userId: string | number | null | undefined = getSession()?.user.id): string {
+export function draftStorageKey(
+  key: string,
+  userId: string | number | null | undefined = getSession()?.user.id,
+): string {
   return `${PREFIX}.${userId ?? 'anonymous'}.${key}`;
 }
 
@@ -45,20 +48,17 @@ export function useDraft<T>(key: string, initial: T): [T, (next: T | ((prev: T) 
     setState(current);
   }
 
-  const setValue = useCallback(
-    (next: T | ((prev: T) => T)) => {
-      setState((prev) => {
-        const value = typeof next === 'function' ? (next as (p: T) => T)(prev.value) : next;
-        try {
-          window.localStorage.setItem(prev.key, JSON.stringify(value));
-        } catch {
-          // Storage full or blocked: the draft still lives in memory for this visit.
-        }
-        return { ...prev, value };
-      });
-    },
-    [],
-  );
+  const setValue = useCallback((next: T | ((prev: T) => T)) => {
+    setState((prev) => {
+      const value = typeof next === 'function' ? (next as (p: T) => T)(prev.value) : next;
+      try {
+        window.localStorage.setItem(prev.key, JSON.stringify(value));
+      } catch {
+        // Storage full or blocked: the draft still lives in memory for this visit.
+      }
+      return { ...prev, value };
+    });
+  }, []);
 
   const clear = useCallback(() => {
     window.localStorage.removeItem(storageKey);
@@ -68,7 +68,8 @@ export function useDraft<T>(key: string, initial: T): [T, (next: T | ((prev: T) 
   // Other tabs editing the same draft.
   useEffect(() => {
     const onStorage = (e: StorageEvent) => {
-      if (e.key === storageKey) setState({ key: storageKey, value: load(storageKey, initialRef.current), restored: true });
+      if (e.key === storageKey)
+        setState({ key: storageKey, value: load(storageKey, initialRef.current), restored: true });
     };
     window.addEventListener('storage', onStorage);
     return () => window.removeEventListener('storage', onStorage);

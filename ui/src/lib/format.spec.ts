@@ -1,5 +1,15 @@
 import { describe, expect, it } from 'vitest';
-import { formatBytes, formatCount, formatNumber, formatQuantity, fullPrecision, MINUS, numberTitle, prettyUnit, toSuperscript } from './format.js';
+import {
+  formatBytes,
+  formatCount,
+  formatNumber,
+  formatQuantity,
+  fullPrecision,
+  MINUS,
+  numberTitle,
+  prettyUnit,
+  toSuperscript,
+} from './format.js';
 
 // Expected strings follow SPEC §12's own examples (`1.25 × 10⁴ m/s`, `0.0213 T`) and the common
 // practice of scientific notation with significant figures (rounding half away from zero as

@@ -5,7 +5,18 @@
  */
 
 const SUPERSCRIPT: Record<string, string> = {
-  '0': '⁰', '1': '¹', '2': '²', '3': '³', '4': '⁴', '5': '⁵', '6': '⁶', '7': '⁷', '8': '⁸', '9': '⁹', '-': '⁻', '+': '⁺',
+  '0': '⁰',
+  '1': '¹',
+  '2': '²',
+  '3': '³',
+  '4': '⁴',
+  '5': '⁵',
+  '6': '⁶',
+  '7': '⁷',
+  '8': '⁸',
+  '9': '⁹',
+  '-': '⁻',
+  '+': '⁺',
 };
 
 /** Typographic minus (U+2212) so negative values line up with positive ones in tabular figures. */
@@ -119,7 +130,12 @@ export function formatBytes(bytes: number): string {
 export function formatCount(n: number): string {
   if (!Number.isFinite(n)) return '—';
   const sign = n < 0 ? MINUS : '';
-  return sign + Math.round(Math.abs(n)).toString().replace(/\B(?=(\d{3})+(?!\d))/g, ',');
+  return (
+    sign +
+    Math.round(Math.abs(n))
+      .toString()
+      .replace(/\B(?=(\d{3})+(?!\d))/g, ',')
+  );
 }
 
 /**
@@ -130,5 +146,8 @@ export function plainNumber(x: number): string {
   if (!Number.isFinite(x) || x === 0) return String(x);
   const a = Math.abs(x);
   if (a >= 1e-3 && a < 1e6) return String(x);
-  return x.toExponential().replace(/\.?0+e/, 'e').replace('e+', 'e');
+  return x
+    .toExponential()
+    .replace(/\.?0+e/, 'e')
+    .replace('e+', 'e');
 }

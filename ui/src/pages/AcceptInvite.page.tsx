@@ -24,7 +24,8 @@ export default function AcceptInvitePage() {
     document.title = 'Accept invitation · Driftgrid';
   }, []);
   const accept = useMutation({
-    mutationFn: (body: { token: string; name: string; password: string }) => api.post<LoginResponse>('/auth/accept-invite', body, { auth: false }),
+    mutationFn: (body: { token: string; name: string; password: string }) =>
+      api.post<LoginResponse>('/auth/accept-invite', body, { auth: false }),
     onSuccess: (res) => {
       qc.clear();
       setSession({ accessToken: res.accessToken, user: res.user });
@@ -32,14 +33,24 @@ export default function AcceptInvitePage() {
       navigate('/', { replace: true });
     },
     onError: (err) => {
-      if (err instanceof ApiError) setErrors({ name: err.detailFor('name'), password: err.detailFor('password'), form: err.detailFor('name') || err.detailFor('password') ? undefined : err.message });
+      if (err instanceof ApiError)
+        setErrors({
+          name: err.detailFor('name'),
+          password: err.detailFor('password'),
+          form: err.detailFor('name') || err.detailFor('password') ? undefined : err.message,
+        });
       else setErrors({ form: 'The invitation could not be accepted' });
     },
   });
   const submit = () => {
     const parsed = acceptInviteSchema.safeParse({ token, name, password });
     const e: typeof errors = {};
-    if (!parsed.success) for (const i of parsed.error.issues) (e as Record<string, string>)[String(i.path[0]) === 'token' ? 'form' : String(i.path[0])] ??= i.path[0] === 'token' ? 'This invitation link is incomplete; open the link from the e-mail again.' : i.message;
+    if (!parsed.success)
+      for (const i of parsed.error.issues)
+        (e as Record<string, string>)[String(i.path[0]) === 'token' ? 'form' : String(i.path[0])] ??=
+          i.path[0] === 'token'
+            ? 'This invitation link is incomplete; open the link from the e-mail again.'
+            : i.message;
     if (password !== repeat) e.repeat = 'does not match the password';
     setErrors(e);
     if (Object.keys(e).length || !parsed.success) return;
@@ -52,20 +63,73 @@ export default function AcceptInvitePage() {
   return (
     <Center mih="100vh" px="md">
       <Stack w="100%" maw={420} gap="lg">
-        <Center><NameMark size={40} /></Center>
-        <Paper withBorder shadow="xs" p="lg" radius="md" component="form" onSubmit={onSubmit} onKeyDown={ctrlEnter(submit)} noValidate aria-labelledby="accept-title">
+        <Center>
+          <NameMark size={40} />
+        </Center>
+        <Paper
+          withBorder
+          shadow="xs"
+          p="lg"
+          radius="md"
+          component="form"
+          onSubmit={onSubmit}
+          onKeyDown={ctrlEnter(submit)}
+          noValidate
+          aria-labelledby="accept-title"
+        >
           <Stack gap="md">
             <div>
-              <Title order={1} fz="h3" id="accept-title">Join Driftgrid</Title>
-              <Text fz="sm" c="dimmed" mt={4}>Choose the name colleagues will see and a password. Your e-mail address is the one the invitation was sent to.</Text>
+              <Title order={1} fz="h3" id="accept-title">
+                Join Driftgrid
+              </Title>
+              <Text fz="sm" c="dimmed" mt={4}>
+                Choose the name colleagues will see and a password. Your e-mail address is the one the invitation was
+                sent to.
+              </Text>
             </div>
-            {!token ? <Alert color="red">This page needs the link from your invitation e-mail (it ends in ?token=…).</Alert> : null}
-            <TextInput label="Your name" value={name} onChange={(e) => setName(e.currentTarget.value)} error={errors.name} autoComplete="name" required />
-            <PasswordInput label="Password" description="At least 10 characters." value={password} onChange={(e) => setPassword(e.currentTarget.value)} error={errors.password} autoComplete="new-password" required />
-            <PasswordInput label="Password again" value={repeat} onChange={(e) => setRepeat(e.currentTarget.value)} error={errors.repeat} autoComplete="new-password" required />
-            {errors.form ? <Alert color="red" role="alert">{errors.form}</Alert> : null}
-            <Button type="submit" loading={accept.isPending} disabled={!token}>Create my account</Button>
-            <Text fz="xs" c="dimmed">Already have an account? <Anchor component={Link} to="/sign-in">Sign in</Anchor>.</Text>
+            {!token ? (
+              <Alert color="red">This page needs the link from your invitation e-mail (it ends in ?token=…).</Alert>
+            ) : null}
+            <TextInput
+              label="Your name"
+              value={name}
+              onChange={(e) => setName(e.currentTarget.value)}
+              error={errors.name}
+              autoComplete="name"
+              required
+            />
+            <PasswordInput
+              label="Password"
+              description="At least 10 characters."
+              value={password}
+              onChange={(e) => setPassword(e.currentTarget.value)}
+              error={errors.password}
+              autoComplete="new-password"
+              required
+            />
+            <PasswordInput
+              label="Password again"
+              value={repeat}
+              onChange={(e) => setRepeat(e.currentTarget.value)}
+              error={errors.repeat}
+              autoComplete="new-password"
+              required
+            />
+            {errors.form ? (
+              <Alert color="red" role="alert">
+                {errors.form}
+              </Alert>
+            ) : null}
+            <Button type="submit" loading={accept.isPending} disabled={!token}>
+              Create my account
+            </Button>
+            <Text fz="xs" c="dimmed">
+              Already have an account?{' '}
+              <Anchor component={Link} to="/sign-in">
+                Sign in
+              </Anchor>
+              .
+            </Text>
           </Stack>
         </Paper>
       </Stack>

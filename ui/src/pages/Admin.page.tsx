@@ -19,22 +19,53 @@ export default function AdminPage() {
   const tab: Tab = (TABS as readonly string[]).includes(raw ?? '') ? (raw as Tab) : 'users';
   return (
     <>
-      <PageHeader title="Admin" description="People and roles, invitations, quotas, the job queue, the built-in mailbox and the audit log." />
-      <Tabs value={tab} onChange={(v) => setParams(v && v !== 'users' ? { tab: v } : {}, { replace: true })} keepMounted={false}>
+      <PageHeader
+        title="Admin"
+        description="People and roles, invitations, quotas, the job queue, the built-in mailbox and the audit log."
+      />
+      <Tabs
+        value={tab}
+        onChange={(v) => setParams(v && v !== 'users' ? { tab: v } : {}, { replace: true })}
+        keepMounted={false}
+      >
         <Tabs.List mb="md">
-          <Tabs.Tab value="users" leftSection={<IconUsers size={16} />}>Users</Tabs.Tab>
-          <Tabs.Tab value="invitations" leftSection={<IconMailForward size={16} />}>Invitations</Tabs.Tab>
-          <Tabs.Tab value="quotas" leftSection={<IconGauge size={16} />}>Quotas</Tabs.Tab>
-          <Tabs.Tab value="queue" leftSection={<IconStack3 size={16} />}>Queue</Tabs.Tab>
-          <Tabs.Tab value="mailbox" leftSection={<IconMail size={16} />}>Mailbox</Tabs.Tab>
-          <Tabs.Tab value="audit" leftSection={<IconClipboardList size={16} />}>Audit log</Tabs.Tab>
+          <Tabs.Tab value="users" leftSection={<IconUsers size={16} />}>
+            Users
+          </Tabs.Tab>
+          <Tabs.Tab value="invitations" leftSection={<IconMailForward size={16} />}>
+            Invitations
+          </Tabs.Tab>
+          <Tabs.Tab value="quotas" leftSection={<IconGauge size={16} />}>
+            Quotas
+          </Tabs.Tab>
+          <Tabs.Tab value="queue" leftSection={<IconStack3 size={16} />}>
+            Queue
+          </Tabs.Tab>
+          <Tabs.Tab value="mailbox" leftSection={<IconMail size={16} />}>
+            Mailbox
+          </Tabs.Tab>
+          <Tabs.Tab value="audit" leftSection={<IconClipboardList size={16} />}>
+            Audit log
+          </Tabs.Tab>
         </Tabs.List>
-        <Tabs.Panel value="users"><AdminUsers /></Tabs.Panel>
-        <Tabs.Panel value="invitations"><AdminInvitations /></Tabs.Panel>
-        <Tabs.Panel value="quotas"><AdminQuotas /></Tabs.Panel>
-        <Tabs.Panel value="queue"><AdminQueue /></Tabs.Panel>
-        <Tabs.Panel value="mailbox"><AdminMailbox /></Tabs.Panel>
-        <Tabs.Panel value="audit"><AdminAudit /></Tabs.Panel>
+        <Tabs.Panel value="users">
+          <AdminUsers />
+        </Tabs.Panel>
+        <Tabs.Panel value="invitations">
+          <AdminInvitations />
+        </Tabs.Panel>
+        <Tabs.Panel value="quotas">
+          <AdminQuotas />
+        </Tabs.Panel>
+        <Tabs.Panel value="queue">
+          <AdminQueue />
+        </Tabs.Panel>
+        <Tabs.Panel value="mailbox">
+          <AdminMailbox />
+        </Tabs.Panel>
+        <Tabs.Panel value="audit">
+          <AdminAudit />
+        </Tabs.Panel>
       </Tabs>
     </>
   );

@@ -6,7 +6,10 @@ import { PageHeader } from '../components/PageHeader/PageHeader.js';
 export default function ApiTokensPage() {
   return (
     <>
-      <PageHeader title="API tokens" description="Personal tokens for scripts and notebooks that call the Driftgrid API." />
+      <PageHeader
+        title="API tokens"
+        description="Personal tokens for scripts and notebooks that call the Driftgrid API."
+      />
       <EmptyState
         icon={IconKey}
         title="No tokens yet"

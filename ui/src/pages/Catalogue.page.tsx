@@ -1,9 +1,27 @@
 import 'mantine-react-table/styles.css';
-import { Anchor, Badge, Button, Group, MultiSelect, SegmentedControl, Select, Stack, TagsInput, Text, TextInput } from '@mantine/core';
+import {
+  Anchor,
+  Badge,
+  Button,
+  Group,
+  MultiSelect,
+  SegmentedControl,
+  Select,
+  Stack,
+  TagsInput,
+  Text,
+  TextInput,
+} from '@mantine/core';
 import { useDebouncedValue } from '@mantine/hooks';
 import { IconSearch, IconStack2 } from '@tabler/icons-react';
 import { listModelSummaries } from '@driftgrid/domain';
-import { MantineReactTable, useMantineReactTable, type MRT_ColumnDef, type MRT_PaginationState, type MRT_SortingState } from 'mantine-react-table';
+import {
+  MantineReactTable,
+  useMantineReactTable,
+  type MRT_ColumnDef,
+  type MRT_PaginationState,
+  type MRT_SortingState,
+} from 'mantine-react-table';
 import { useEffect, useMemo, useState } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
 import { useMe } from '../api/auth.js';
@@ -21,9 +39,23 @@ const SCOPES = [
 ];
 
 /** The URL is the state: every filter, the page and the sort survive a reload and can be bookmarked. */
-const FILTER_KEYS = ['q', 'model', 'status', 'tag', 'scope', 'createdFrom', 'createdTo', 'finishedFrom', 'finishedTo', 'minPoints', 'maxPoints', 'owner'] as const;
+const FILTER_KEYS = [
+  'q',
+  'model',
+  'status',
+  'tag',
+  'scope',
+  'createdFrom',
+  'createdTo',
+  'finishedFrom',
+  'finishedTo',
+  'minPoints',
+  'maxPoints',
+  'owner',
+] as const;
 
-const dateText = (iso: string | null) => (iso ? new Date(iso).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' }) : '—');
+const dateText = (iso: string | null) =>
+  iso ? new Date(iso).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' }) : '—';
 
 export default function CataloguePage() {
   const [params, setParams] = useSearchParams();
@@ -80,7 +112,12 @@ export default function CataloguePage() {
         Cell: ({ row }) => {
           const s = row.original;
           const running = s.status === 'running' || s.status === 'queued';
-          return <StatusBadge status={s.status} suffix={running ? `${Math.floor(s.progress.fraction * 100)} %` : undefined} />;
+          return (
+            <StatusBadge
+              status={s.status}
+              suffix={running ? `${Math.floor(s.progress.fraction * 100)} %` : undefined}
+            />
+          );
         },
       },
       {
@@ -90,7 +127,16 @@ export default function CataloguePage() {
         Cell: ({ row }) => (
           <Group gap={4}>
             {row.original.tags.map((tag) => (
-              <Badge key={tag} size="sm" variant="default" radius="sm" tt="none" style={{ cursor: 'pointer' }} onClick={() => set({ tag: [...new Set([...list('tag'), tag])] })} title={`Show only sweeps tagged ${tag}`}>
+              <Badge
+                key={tag}
+                size="sm"
+                variant="default"
+                radius="sm"
+                tt="none"
+                style={{ cursor: 'pointer' }}
+                onClick={() => set({ tag: [...new Set([...list('tag'), tag])] })}
+                title={`Show only sweeps tagged ${tag}`}
+              >
                 {tag}
               </Badge>
             ))}
@@ -103,7 +149,14 @@ export default function CataloguePage() {
         header: 'Points',
         mantineTableBodyCellProps: { align: 'right' },
         Cell: ({ row }) => (
-          <span className="dg-num" title={row.original.invalidPoints ? `${formatCount(row.original.invalidPoints)} points flagged` : 'no point flagged'}>
+          <span
+            className="dg-num"
+            title={
+              row.original.invalidPoints
+                ? `${formatCount(row.original.invalidPoints)} points flagged`
+                : 'no point flagged'
+            }
+          >
             {formatCount(row.original.points)}
           </span>
         ),
@@ -184,8 +237,24 @@ export default function CataloguePage() {
       />
       <Stack gap="sm">
         <Group gap="sm" align="flex-end" wrap="wrap">
-          <TextInput label="Search" placeholder="Name or description" leftSection={<IconSearch size={16} />} value={text} onChange={(e) => setText(e.currentTarget.value)} w={220} />
-          <Select label="Model" placeholder="Any model" data={models} value={get('model') || null} onChange={(v) => set({ model: v })} clearable w={180} data-testid="filter-model" />
+          <TextInput
+            label="Search"
+            placeholder="Name or description"
+            leftSection={<IconSearch size={16} />}
+            value={text}
+            onChange={(e) => setText(e.currentTarget.value)}
+            w={220}
+          />
+          <Select
+            label="Model"
+            placeholder="Any model"
+            data={models}
+            value={get('model') || null}
+            onChange={(v) => set({ model: v })}
+            clearable
+            w={180}
+            data-testid="filter-model"
+          />
           <MultiSelect
             label="Status"
             placeholder={list('status').length ? undefined : 'Any status'}
@@ -195,12 +264,38 @@ export default function CataloguePage() {
             clearable
             w={220}
           />
-          <TagsInput label="Tags" placeholder={list('tag').length ? undefined : 'Type a tag, Enter'} value={list('tag')} onChange={(v) => set({ tag: v })} clearable w={220} data-testid="filter-tag" />
-          <TextInput label="Created from" type="date" value={get('createdFrom')} onChange={(e) => set({ createdFrom: e.currentTarget.value || null })} w={160} />
-          <TextInput label="Created to" type="date" value={get('createdTo')} onChange={(e) => set({ createdTo: e.currentTarget.value || null })} w={160} />
+          <TagsInput
+            label="Tags"
+            placeholder={list('tag').length ? undefined : 'Type a tag, Enter'}
+            value={list('tag')}
+            onChange={(v) => set({ tag: v })}
+            clearable
+            w={220}
+            data-testid="filter-tag"
+          />
+          <TextInput
+            label="Created from"
+            type="date"
+            value={get('createdFrom')}
+            onChange={(e) => set({ createdFrom: e.currentTarget.value || null })}
+            w={160}
+          />
+          <TextInput
+            label="Created to"
+            type="date"
+            value={get('createdTo')}
+            onChange={(e) => set({ createdTo: e.currentTarget.value || null })}
+            w={160}
+          />
         </Group>
         <Group justify="space-between" wrap="wrap">
-          <SegmentedControl size="xs" data={SCOPES} value={get('scope') || 'all'} onChange={(v) => set({ scope: v === 'all' ? null : v })} aria-label="Which sweeps" />
+          <SegmentedControl
+            size="xs"
+            data={SCOPES}
+            value={get('scope') || 'all'}
+            onChange={(v) => set({ scope: v === 'all' ? null : v })}
+            aria-label="Which sweeps"
+          />
           <Text fz="sm" c="dimmed" aria-live="polite">
             {data ? `${formatCount(data.total)} sweep${data.total === 1 ? '' : 's'}` : ''}
           </Text>

@@ -12,7 +12,8 @@ import { formatCount } from '../lib/format.js';
 
 const ROLE_SUMMARY: Record<Role, string> = {
   admin: 'You manage users, roles, quotas, the job queue and the outgoing mailbox.',
-  researcher: 'You define and run sweeps, upload datasets and fit reduced models; you see your own, shared and archived work.',
+  researcher:
+    'You define and run sweeps, upload datasets and fit reduced models; you see your own, shared and archived work.',
   reviewer: 'You read and download archived sweeps and the ones shared with you.',
 };
 
@@ -25,17 +26,61 @@ interface Shortcut {
 }
 
 const SHORTCUTS: Shortcut[] = [
-  { to: '/sweeps/new', label: 'New sweep', text: 'Scan a model over a grid or a random design.', icon: IconPlus, roles: ['researcher', 'admin'] },
-  { to: '/catalogue', label: 'Catalogue', text: 'Find sweeps by model, status, owner or tag.', icon: IconStack2, roles: ['researcher', 'reviewer', 'admin'] },
-  { to: '/single-point', label: 'Single point', text: 'Evaluate one parameter set and read its validity flags.', icon: IconTarget, roles: ['researcher', 'reviewer', 'admin'] },
-  { to: '/datasets', label: 'Datasets', text: 'Upload measured profiles as CSV with units.', icon: IconDatabase, roles: ['researcher', 'admin'] },
-  { to: '/fits', label: 'Fits', text: 'Fit scaling laws with standard errors.', icon: IconMathFunction, roles: ['researcher', 'reviewer', 'admin'] },
+  {
+    to: '/sweeps/new',
+    label: 'New sweep',
+    text: 'Scan a model over a grid or a random design.',
+    icon: IconPlus,
+    roles: ['researcher', 'admin'],
+  },
+  {
+    to: '/catalogue',
+    label: 'Catalogue',
+    text: 'Find sweeps by model, status, owner or tag.',
+    icon: IconStack2,
+    roles: ['researcher', 'reviewer', 'admin'],
+  },
+  {
+    to: '/single-point',
+    label: 'Single point',
+    text: 'Evaluate one parameter set and read its validity flags.',
+    icon: IconTarget,
+    roles: ['researcher', 'reviewer', 'admin'],
+  },
+  {
+    to: '/datasets',
+    label: 'Datasets',
+    text: 'Upload measured profiles as CSV with units.',
+    icon: IconDatabase,
+    roles: ['researcher', 'admin'],
+  },
+  {
+    to: '/fits',
+    label: 'Fits',
+    text: 'Fit scaling laws with standard errors.',
+    icon: IconMathFunction,
+    roles: ['researcher', 'reviewer', 'admin'],
+  },
 ];
 
 /** A short list of sweeps from the catalogue, each linking to its page. */
-function SweepCard({ title, query, empty, testId }: { title: string; query: Record<string, string | number>; empty: string; testId: string }) {
+function SweepCard({
+  title,
+  query,
+  empty,
+  testId,
+}: {
+  title: string;
+  query: Record<string, string | number>;
+  empty: string;
+  testId: string;
+}) {
   const { data, isLoading } = useSweepList({ pageSize: 5, ...query });
-  const params = new URLSearchParams(Object.entries(query).filter(([k]) => k !== 'pageSize').map(([k, v]) => [k, String(v)]));
+  const params = new URLSearchParams(
+    Object.entries(query)
+      .filter(([k]) => k !== 'pageSize')
+      .map(([k, v]) => [k, String(v)]),
+  );
   return (
     <Card withBorder padding="md" radius="md" data-testid={testId}>
       <Group justify="space-between" mb="xs">
@@ -60,7 +105,14 @@ function SweepCard({ title, query, empty, testId }: { title: string; query: Reco
             <Anchor component={Link} to={`/sweeps/${s.id}`} fz="sm" truncate>
               {s.name}
             </Anchor>
-            <StatusBadge status={s.status} suffix={s.status === 'running' || s.status === 'queued' ? `${Math.floor(s.progress.fraction * 100)} %` : undefined} />
+            <StatusBadge
+              status={s.status}
+              suffix={
+                s.status === 'running' || s.status === 'queued'
+                  ? `${Math.floor(s.progress.fraction * 100)} %`
+                  : undefined
+              }
+            />
           </Group>
         ))}
       </Stack>
@@ -76,8 +128,15 @@ interface QueueStatus {
 }
 
 function AdminGlance() {
-  const queue = useQuery({ queryKey: queryKeys.admin.queue(), queryFn: ({ signal }) => api.get<QueueStatus>('/admin/queue', undefined, signal), refetchInterval: 5000 });
-  const users = useQuery({ queryKey: queryKeys.admin.users({ pageSize: 1 }), queryFn: ({ signal }) => api.get<Page<unknown>>('/admin/users', { pageSize: 1 }, signal) });
+  const queue = useQuery({
+    queryKey: queryKeys.admin.queue(),
+    queryFn: ({ signal }) => api.get<QueueStatus>('/admin/queue', undefined, signal),
+    refetchInterval: 5000,
+  });
+  const users = useQuery({
+    queryKey: queryKeys.admin.users({ pageSize: 1 }),
+    queryFn: ({ signal }) => api.get<Page<unknown>>('/admin/users', { pageSize: 1 }, signal),
+  });
   const c = queue.data?.counts ?? {};
   const cells: [string, number | undefined][] = [
     ['Chunks waiting', queue.data ? (c.waiting ?? 0) + (c.prioritized ?? 0) + (c.delayed ?? 0) : undefined],
@@ -96,7 +155,11 @@ function AdminGlance() {
           Admin
         </Anchor>
       </Group>
-      {queue.error ? <Text fz="sm" c="red">{(queue.error as Error).message}</Text> : null}
+      {queue.error ? (
+        <Text fz="sm" c="red">
+          {(queue.error as Error).message}
+        </Text>
+      ) : null}
       <SimpleGrid cols={{ base: 2, sm: 5 }}>
         {cells.map(([label, n]) => (
           <div key={label}>
@@ -111,7 +174,8 @@ function AdminGlance() {
       </SimpleGrid>
       {queue.data ? (
         <Text fz="xs" c="dimmed" mt="xs">
-          Queue {queue.data.paused ? 'paused' : 'running'} · {queue.data.mode === 'embedded' ? 'in-process' : queue.data.mode} mode
+          Queue {queue.data.paused ? 'paused' : 'running'} ·{' '}
+          {queue.data.mode === 'embedded' ? 'in-process' : queue.data.mode} mode
         </Text>
       ) : null}
     </Card>
@@ -143,7 +207,15 @@ export default function DashboardPage() {
 
       <SimpleGrid cols={{ base: 1, sm: 2, lg: 3 }} spacing="md">
         {shortcuts.map((s) => (
-          <Card key={s.to} withBorder padding="md" radius="md" component={Link} to={s.to} aria-label={`${s.label}: ${s.text}`}>
+          <Card
+            key={s.to}
+            withBorder
+            padding="md"
+            radius="md"
+            component={Link}
+            to={s.to}
+            aria-label={`${s.label}: ${s.text}`}
+          >
             <Group gap="sm" wrap="nowrap" align="flex-start">
               <s.icon size={22} stroke={1.6} color="var(--mantine-color-anchor)" aria-hidden />
               <div>
@@ -161,13 +233,33 @@ export default function DashboardPage() {
 
       {me.role === 'reviewer' ? (
         <SimpleGrid cols={{ base: 1, md: 2 }} spacing="md">
-          <SweepCard title="Recently archived" testId="recent-archived" query={{ scope: 'archived', sort: 'finishedAt:desc' }} empty="No sweep has been archived yet. Archived sweeps appear here for download." />
-          <SweepCard title="Shared with me" testId="shared-with-me" query={{ scope: 'shared', sort: 'createdAt:desc' }} empty="Nobody has shared a sweep with you yet." />
+          <SweepCard
+            title="Recently archived"
+            testId="recent-archived"
+            query={{ scope: 'archived', sort: 'finishedAt:desc' }}
+            empty="No sweep has been archived yet. Archived sweeps appear here for download."
+          />
+          <SweepCard
+            title="Shared with me"
+            testId="shared-with-me"
+            query={{ scope: 'shared', sort: 'createdAt:desc' }}
+            empty="Nobody has shared a sweep with you yet."
+          />
         </SimpleGrid>
       ) : (
         <SimpleGrid cols={{ base: 1, md: 2 }} spacing="md">
-          <SweepCard title="Running now" testId="running-work" query={{ scope: 'mine', status: 'queued,running', sort: 'createdAt:desc' }} empty="Nothing of yours is queued or running. Start one from New sweep." />
-          <SweepCard title="Recent sweeps" testId="recent-sweeps" query={{ scope: 'mine', sort: 'createdAt:desc' }} empty="You have not run a sweep yet. New sweep walks you through the first one." />
+          <SweepCard
+            title="Running now"
+            testId="running-work"
+            query={{ scope: 'mine', status: 'queued,running', sort: 'createdAt:desc' }}
+            empty="Nothing of yours is queued or running. Start one from New sweep."
+          />
+          <SweepCard
+            title="Recent sweeps"
+            testId="recent-sweeps"
+            query={{ scope: 'mine', sort: 'createdAt:desc' }}
+            empty="You have not run a sweep yet. New sweep walks you through the first one."
+          />
         </SimpleGrid>
       )}
 

@@ -32,7 +32,11 @@ export default function DatasetPage() {
   if (dataset.isError) {
     const notFound = dataset.error instanceof ApiError && dataset.error.status === 404;
     return (
-      <EmptyState icon={IconDatabaseOff} title={notFound ? 'Dataset not found' : 'Cannot load the dataset'} actions={<Button onClick={() => navigate('/datasets')}>All datasets</Button>}>
+      <EmptyState
+        icon={IconDatabaseOff}
+        title={notFound ? 'Dataset not found' : 'Cannot load the dataset'}
+        actions={<Button onClick={() => navigate('/datasets')}>All datasets</Button>}
+      >
         {notFound ? 'It does not exist, was deleted, or is not shared with you.' : (dataset.error as Error).message}
       </EmptyState>
     );
@@ -41,7 +45,9 @@ export default function DatasetPage() {
   const d = dataset.data;
   const mayManage = !!me && (me.role === 'admin' || Number(me.id) === d.owner.id);
   // Fits read the stored (canonical) values, so the columns carry their canonical units.
-  const fitColumns = d.columns.filter((c) => c.kind === 'number').map((c) => ({ name: c.name, unit: c.canonicalUnit, kind: c.kind }));
+  const fitColumns = d.columns
+    .filter((c) => c.kind === 'number')
+    .map((c) => ({ name: c.name, unit: c.canonicalUnit, kind: c.kind }));
 
   return (
     <>
@@ -50,21 +56,36 @@ export default function DatasetPage() {
         description={`${formatCount(d.rows)} rows · uploaded by ${d.owner.name} on ${new Date(d.createdAt).toLocaleString()}${d.fileName ? ` · ${d.fileName}` : ''}`}
         actions={
           <Group gap="xs">
-            <Button leftSection={<IconDownload size={16} />} onClick={() => exportZip.mutate()} loading={exportZip.isPending} data-testid="dataset-export">
+            <Button
+              leftSection={<IconDownload size={16} />}
+              onClick={() => exportZip.mutate()}
+              loading={exportZip.isPending}
+              data-testid="dataset-export"
+            >
               Download zipped CSV
             </Button>
             {mayManage ? (
-              <Button variant="default" color="red" leftSection={<IconTrash size={16} />} onClick={() => setConfirmDelete(true)}>
+              <Button
+                variant="default"
+                color="red"
+                leftSection={<IconTrash size={16} />}
+                onClick={() => setConfirmDelete(true)}
+              >
                 Delete
               </Button>
             ) : null}
           </Group>
         }
       />
-      {exportZip.error ? <Alert color="red" mb="sm">{(exportZip.error as Error).message}</Alert> : null}
+      {exportZip.error ? (
+        <Alert color="red" mb="sm">
+          {(exportZip.error as Error).message}
+        </Alert>
+      ) : null}
       <Stack gap="xs" mb="md">
         <Text size="sm" c="dimmed">
-          Numbers are stored and shown in canonical units (SI, temperatures in eV); the unit given at upload is kept beside it.
+          Numbers are stored and shown in canonical units (SI, temperatures in eV); the unit given at upload is kept
+          beside it.
         </Text>
         <ArchiveDigest sha256={d.sha256} testId="dataset-sha256" />
       </Stack>
@@ -81,9 +102,15 @@ export default function DatasetPage() {
                 <Table.Tr>
                   <Table.Th style={{ textAlign: 'right' }}>#</Table.Th>
                   {d.columns.map((c) => (
-                    <Table.Th key={c.name} style={{ textAlign: c.kind === 'number' ? 'right' : 'left' }} title={c.unit && c.unit !== c.canonicalUnit ? `uploaded in ${c.unit}` : undefined}>
+                    <Table.Th
+                      key={c.name}
+                      style={{ textAlign: c.kind === 'number' ? 'right' : 'left' }}
+                      title={c.unit && c.unit !== c.canonicalUnit ? `uploaded in ${c.unit}` : undefined}
+                    >
                       {c.name}
-                      {c.kind === 'number' && prettyUnit(c.canonicalUnit) ? <Text span c="dimmed" fz="xs">{` [${prettyUnit(c.canonicalUnit)}]`}</Text> : null}
+                      {c.kind === 'number' && prettyUnit(c.canonicalUnit) ? (
+                        <Text span c="dimmed" fz="xs">{` [${prettyUnit(c.canonicalUnit)}]`}</Text>
+                      ) : null}
                     </Table.Th>
                   ))}
                 </Table.Tr>
@@ -94,7 +121,11 @@ export default function DatasetPage() {
                     <Table.Td style={{ textAlign: 'right', fontVariantNumeric: 'tabular-nums' }}>{r.row + 1}</Table.Td>
                     {d.columns.map((c, j) => (
                       <Table.Td key={c.name} style={{ textAlign: c.kind === 'number' ? 'right' : 'left' }}>
-                        {c.kind === 'number' ? <Num value={r.cells[j] as number | null} align="right" /> : String(r.cells[j] ?? '')}
+                        {c.kind === 'number' ? (
+                          <Num value={r.cells[j] as number | null} align="right" />
+                        ) : (
+                          String(r.cells[j] ?? '')
+                        )}
                       </Table.Td>
                     ))}
                   </Table.Tr>
@@ -102,7 +133,9 @@ export default function DatasetPage() {
               </Table.Tbody>
             </Table>
           </ScrollArea>
-          {d.rows > PAGE_SIZE ? <Pagination mt="sm" value={page} onChange={setPage} total={Math.ceil(d.rows / PAGE_SIZE)} /> : null}
+          {d.rows > PAGE_SIZE ? (
+            <Pagination mt="sm" value={page} onChange={setPage} total={Math.ceil(d.rows / PAGE_SIZE)} />
+          ) : null}
         </Tabs.Panel>
         <Tabs.Panel value="plot" pt="md">
           <Suspense fallback={<Loader />}>
@@ -115,11 +148,20 @@ export default function DatasetPage() {
       </Tabs>
       <Modal opened={confirmDelete} onClose={() => setConfirmDelete(false)} title="Delete this dataset?" centered>
         <Stack gap="sm">
-          <Text size="sm">Its {formatCount(d.rows)} rows are removed. Fits made from it keep their results but can no longer be re-run.</Text>
+          <Text size="sm">
+            Its {formatCount(d.rows)} rows are removed. Fits made from it keep their results but can no longer be
+            re-run.
+          </Text>
           {remove.error ? <Alert color="red">{(remove.error as Error).message}</Alert> : null}
           <Group justify="flex-end">
-            <Button variant="default" onClick={() => setConfirmDelete(false)}>Keep it</Button>
-            <Button color="red" loading={remove.isPending} onClick={() => remove.mutate(d.id, { onSuccess: () => navigate('/datasets') })}>
+            <Button variant="default" onClick={() => setConfirmDelete(false)}>
+              Keep it
+            </Button>
+            <Button
+              color="red"
+              loading={remove.isPending}
+              onClick={() => remove.mutate(d.id, { onSuccess: () => navigate('/datasets') })}
+            >
               Delete
             </Button>
           </Group>

@@ -29,15 +29,30 @@ export default function DatasetsPage() {
 
   return (
     <>
-      <PageHeader title="Datasets" description="Measured data uploaded as CSV, with a unit for every column; a source for fits and plot overlays." actions={empty ? undefined : uploadButton} />
+      <PageHeader
+        title="Datasets"
+        description="Measured data uploaded as CSV, with a unit for every column; a source for fits and plot overlays."
+        actions={empty ? undefined : uploadButton}
+      />
       {empty ? (
         <EmptyState icon={IconDatabase} title="No datasets uploaded yet" actions={uploadButton}>
-          Upload a CSV with a header row (for example probe potential in V and density in cm⁻³), give each column its unit, and the rows become a source for fits beside
-          sweep results. Rows that do not parse are reported with their line and column; nothing is stored from a rejected file.
+          Upload a CSV with a header row (for example probe potential in V and density in cm⁻³), give each column its
+          unit, and the rows become a source for fits beside sweep results. Rows that do not parse are reported with
+          their line and column; nothing is stored from a rejected file.
         </EmptyState>
       ) : (
         <Stack gap="sm">
-          <TextInput leftSection={<IconSearch size={16} />} placeholder="Search by name or file name" value={text} onChange={(e) => { setText(e.currentTarget.value); setPage(1); }} maw={360} aria-label="Search datasets" />
+          <TextInput
+            leftSection={<IconSearch size={16} />}
+            placeholder="Search by name or file name"
+            value={text}
+            onChange={(e) => {
+              setText(e.currentTarget.value);
+              setPage(1);
+            }}
+            maw={360}
+            aria-label="Search datasets"
+          />
           <Table striped highlightOnHover withTableBorder fz="sm" data-testid="datasets-table">
             <Table.Thead>
               <Table.Tr>
@@ -56,22 +71,40 @@ export default function DatasetsPage() {
                     <Anchor component={Link} to={`/datasets/${d.id}`}>
                       {d.name}
                     </Anchor>
-                    {d.fileName ? <Text size="xs" c="dimmed">{d.fileName}</Text> : null}
+                    {d.fileName ? (
+                      <Text size="xs" c="dimmed">
+                        {d.fileName}
+                      </Text>
+                    ) : null}
                   </Table.Td>
-                  <Table.Td style={{ textAlign: 'right', fontVariantNumeric: 'tabular-nums' }}>{formatCount(d.rows)}</Table.Td>
+                  <Table.Td style={{ textAlign: 'right', fontVariantNumeric: 'tabular-nums' }}>
+                    {formatCount(d.rows)}
+                  </Table.Td>
                   <Table.Td>
                     <Group gap={4}>
                       {d.columns.map((c) => (
                         <Badge key={c.name} variant="light" color={c.kind === 'number' ? 'tide' : 'gray'} tt="none">
                           {c.name}
-                          {c.kind === 'number' && c.canonicalUnit && c.canonicalUnit !== '1' ? ` [${prettyUnit(c.canonicalUnit)}]` : c.kind === 'text' ? ' (text)' : ''}
+                          {c.kind === 'number' && c.canonicalUnit && c.canonicalUnit !== '1'
+                            ? ` [${prettyUnit(c.canonicalUnit)}]`
+                            : c.kind === 'text'
+                              ? ' (text)'
+                              : ''}
                         </Badge>
                       ))}
                     </Group>
                   </Table.Td>
                   <Table.Td>{d.owner.name}</Table.Td>
-                  <Table.Td>{d.visibility === 'group' ? 'Group' : d.sharedWith.length ? `Shared with ${d.sharedWith.length}` : 'Private'}</Table.Td>
-                  <Table.Td>{new Date(d.createdAt).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' })}</Table.Td>
+                  <Table.Td>
+                    {d.visibility === 'group'
+                      ? 'Group'
+                      : d.sharedWith.length
+                        ? `Shared with ${d.sharedWith.length}`
+                        : 'Private'}
+                  </Table.Td>
+                  <Table.Td>
+                    {new Date(d.createdAt).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' })}
+                  </Table.Td>
                 </Table.Tr>
               ))}
               {list.isSuccess && items.length === 0 ? (
@@ -85,12 +118,24 @@ export default function DatasetsPage() {
               ) : null}
             </Table.Tbody>
           </Table>
-          {list.data && list.data.total > PAGE_SIZE ? <Pagination value={page} onChange={setPage} total={Math.ceil(list.data.total / PAGE_SIZE)} /> : null}
-          {list.isError ? <Text c="red" size="sm">{(list.error as Error).message}</Text> : null}
+          {list.data && list.data.total > PAGE_SIZE ? (
+            <Pagination value={page} onChange={setPage} total={Math.ceil(list.data.total / PAGE_SIZE)} />
+          ) : null}
+          {list.isError ? (
+            <Text c="red" size="sm">
+              {(list.error as Error).message}
+            </Text>
+          ) : null}
         </Stack>
       )}
       <Modal opened={uploading} onClose={() => setUploading(false)} title="Upload a dataset" size="xl">
-        <DatasetUpload onCancel={() => setUploading(false)} onUploaded={(r) => { setUploading(false); navigate(`/datasets/${r.id}`); }} />
+        <DatasetUpload
+          onCancel={() => setUploading(false)}
+          onUploaded={(r) => {
+            setUploading(false);
+            navigate(`/datasets/${r.id}`);
+          }}
+        />
       </Modal>
     </>
   );

@@ -30,7 +30,10 @@ interface ArchivedSummary {
  * Archived sweeps through the catalogue's `scope=archived`; a server without that scope answers
  * 400, and the page falls back to `status=archived`.
  */
-async function fetchArchived(query: { page: number; pageSize: number; q?: string }, signal?: AbortSignal): Promise<Page<ArchivedSummary>> {
+async function fetchArchived(
+  query: { page: number; pageSize: number; q?: string },
+  signal?: AbortSignal,
+): Promise<Page<ArchivedSummary>> {
   try {
     return await api.get<Page<ArchivedSummary>>('/sweeps', { ...query, scope: 'archived' }, signal);
   } catch (err) {
@@ -44,7 +47,10 @@ function ArchivedRow({ s }: { s: ArchivedSummary }) {
   const detail = useSweep(s.id);
   const archive = s.archive ?? detail.data?.archive;
   const [got, setGot] = useState<DownloadedFile | null>(null);
-  const download = useMutation({ mutationFn: () => downloadZip(`/sweeps/${s.id}/export`, `sweep-${s.id}.zip`), onSuccess: setGot });
+  const download = useMutation({
+    mutationFn: () => downloadZip(`/sweeps/${s.id}/export`, `sweep-${s.id}.zip`),
+    onSuccess: setGot,
+  });
   const archivedAt = archive?.archivedAt ?? s.archivedAt ?? null;
   const verified = got?.sha256 && archive ? got.sha256 === archive.sha256 : null;
   return (
@@ -57,22 +63,46 @@ function ArchivedRow({ s }: { s: ArchivedSummary }) {
           {s.model} · {formatCount(s.points)} points · {s.owner.name}
         </Text>
       </Table.Td>
-      <Table.Td style={{ whiteSpace: 'nowrap' }}>{archivedAt ? new Date(archivedAt).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' }) : '—'}</Table.Td>
-      <Table.Td>{archive ? <ArchiveDigest sha256={archive.sha256} bytes={archive.bytes} /> : detail.isLoading ? <Loader size="xs" /> : '—'}</Table.Td>
+      <Table.Td style={{ whiteSpace: 'nowrap' }}>
+        {archivedAt ? new Date(archivedAt).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' }) : '—'}
+      </Table.Td>
+      <Table.Td>
+        {archive ? (
+          <ArchiveDigest sha256={archive.sha256} bytes={archive.bytes} />
+        ) : detail.isLoading ? (
+          <Loader size="xs" />
+        ) : (
+          '—'
+        )}
+      </Table.Td>
       <Table.Td>
         <Stack gap={4} align="flex-start">
-          <Button size="xs" leftSection={<IconDownload size={14} />} onClick={() => download.mutate()} loading={download.isPending} data-testid="download-archive">
+          <Button
+            size="xs"
+            leftSection={<IconDownload size={14} />}
+            onClick={() => download.mutate()}
+            loading={download.isPending}
+            data-testid="download-archive"
+          >
             Download
           </Button>
           {got ? (
             <Group gap={4} wrap="nowrap" data-testid="download-verified">
               {verified === false ? <IconShieldX size={14} aria-hidden /> : <IconShieldCheck size={14} aria-hidden />}
               <Text size="xs">
-                {verified === true ? 'SHA-256 matches' : verified === false ? 'SHA-256 differs: download again' : `Saved ${got.fileName}`}
+                {verified === true
+                  ? 'SHA-256 matches'
+                  : verified === false
+                    ? 'SHA-256 differs: download again'
+                    : `Saved ${got.fileName}`}
               </Text>
             </Group>
           ) : null}
-          {download.error ? <Text size="xs" c="red">{(download.error as Error).message}</Text> : null}
+          {download.error ? (
+            <Text size="xs" c="red">
+              {(download.error as Error).message}
+            </Text>
+          ) : null}
         </Stack>
       </Table.Td>
     </Table.Tr>
@@ -93,14 +123,36 @@ export default function DownloadsPage() {
   const items = list.data?.items ?? [];
   return (
     <>
-      <PageHeader title="Downloads" description="Archived sweeps: each is a frozen zipped CSV with a manifest; the SHA-256 lets you check the file you received." />
+      <PageHeader
+        title="Downloads"
+        description="Archived sweeps: each is a frozen zipped CSV with a manifest; the SHA-256 lets you check the file you received."
+      />
       {list.isSuccess && list.data.total === 0 && !q ? (
-        <EmptyState icon={IconArchive} title="No archived sweeps yet" actions={<Button component={Link} to="/catalogue" variant="light">Open the catalogue</Button>}>
-          When a researcher archives a completed sweep it appears here with the SHA-256 of its export. Sweeps shared with you that are not archived are in the catalogue.
+        <EmptyState
+          icon={IconArchive}
+          title="No archived sweeps yet"
+          actions={
+            <Button component={Link} to="/catalogue" variant="light">
+              Open the catalogue
+            </Button>
+          }
+        >
+          When a researcher archives a completed sweep it appears here with the SHA-256 of its export. Sweeps shared
+          with you that are not archived are in the catalogue.
         </EmptyState>
       ) : (
         <Stack gap="sm">
-          <TextInput leftSection={<IconSearch size={16} />} placeholder="Search archived sweeps" value={text} onChange={(e) => { setText(e.currentTarget.value); setPage(1); }} maw={360} aria-label="Search archived sweeps" />
+          <TextInput
+            leftSection={<IconSearch size={16} />}
+            placeholder="Search archived sweeps"
+            value={text}
+            onChange={(e) => {
+              setText(e.currentTarget.value);
+              setPage(1);
+            }}
+            maw={360}
+            aria-label="Search archived sweeps"
+          />
           {list.isError ? <Alert color="red">{(list.error as Error).message}</Alert> : null}
           <Table withTableBorder fz="sm" data-testid="downloads-table">
             <Table.Thead>
@@ -112,17 +164,23 @@ export default function DownloadsPage() {
               </Table.Tr>
             </Table.Thead>
             <Table.Tbody>
-              {items.map((s) => <ArchivedRow key={s.id} s={s} />)}
+              {items.map((s) => (
+                <ArchivedRow key={s.id} s={s} />
+              ))}
               {list.isSuccess && items.length === 0 ? (
                 <Table.Tr>
                   <Table.Td colSpan={4}>
-                    <Text size="sm" c="dimmed" ta="center" py="md">No archived sweep matches “{q}”.</Text>
+                    <Text size="sm" c="dimmed" ta="center" py="md">
+                      No archived sweep matches “{q}”.
+                    </Text>
                   </Table.Td>
                 </Table.Tr>
               ) : null}
             </Table.Tbody>
           </Table>
-          {list.data && list.data.total > PAGE_SIZE ? <Pagination value={page} onChange={setPage} total={Math.ceil(list.data.total / PAGE_SIZE)} /> : null}
+          {list.data && list.data.total > PAGE_SIZE ? (
+            <Pagination value={page} onChange={setPage} total={Math.ceil(list.data.total / PAGE_SIZE)} />
+          ) : null}
         </Stack>
       )}
     </>

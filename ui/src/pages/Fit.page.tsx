@@ -14,22 +14,40 @@ export default function FitPage() {
     <>
       <PageHeader
         title={`Fit ${id}`}
-        description={f ? (
-          <>
-            On{' '}
-            <Anchor component={Link} to={f.source.kind === 'sweep' ? `/sweeps/${f.source.id}` : `/datasets/${f.source.id}`}>
-              {f.source.kind} {f.source.id}{f.source.name ? ` · ${f.source.name}` : ''}
-            </Anchor>
-          </>
-        ) : 'A saved fit'}
-        actions={<Button component={Link} to="/fits" variant="default" leftSection={<IconArrowLeft size={16} />}>All fits</Button>}
+        description={
+          f ? (
+            <>
+              On{' '}
+              <Anchor
+                component={Link}
+                to={f.source.kind === 'sweep' ? `/sweeps/${f.source.id}` : `/datasets/${f.source.id}`}
+              >
+                {f.source.kind} {f.source.id}
+                {f.source.name ? ` · ${f.source.name}` : ''}
+              </Anchor>
+            </>
+          ) : (
+            'A saved fit'
+          )
+        }
+        actions={
+          <Button component={Link} to="/fits" variant="default" leftSection={<IconArrowLeft size={16} />}>
+            All fits
+          </Button>
+        }
       />
-      {q.error ? <Alert color="red" variant="light" title="Fit not available">{(q.error as Error).message}</Alert> : null}
+      {q.error ? (
+        <Alert color="red" variant="light" title="Fit not available">
+          {(q.error as Error).message}
+        </Alert>
+      ) : null}
       {f ? (
         <Stack gap="md">
           <FitDetail fit={f} />
           <div>
-            <Text fz="sm" fw={500} mb={4}>Request</Text>
+            <Text fz="sm" fw={500} mb={4}>
+              Request
+            </Text>
             <Code block>{JSON.stringify(f.request, null, 2)}</Code>
           </div>
         </Stack>

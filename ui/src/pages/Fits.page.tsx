@@ -30,14 +30,25 @@ function NewFit() {
   };
   return (
     <Paper withBorder p="md" radius="sm" mb="lg">
-      <Title order={2} fz="h4" mb="sm">New fit</Title>
-      <SourcePicker kind={kind} id={id} onKind={(k) => { setKind(k); }} onId={choose} />
+      <Title order={2} fz="h4" mb="sm">
+        New fit
+      </Title>
+      <SourcePicker
+        kind={kind}
+        id={id}
+        onKind={(k) => {
+          setKind(k);
+        }}
+        onId={choose}
+      />
       {id !== null && columns ? (
         <div style={{ marginTop: 16 }}>
           <FitsPanel key={`${kind}-${id}`} source={{ kind, id }} columns={columns} />
         </div>
       ) : (
-        <Text fz="sm" c="dimmed" mt="sm">Choose a finished sweep or an uploaded dataset; its numeric columns become the y and x choices.</Text>
+        <Text fz="sm" c="dimmed" mt="sm">
+          Choose a finished sweep or an uploaded dataset; its numeric columns become the y and x choices.
+        </Text>
       )}
     </Paper>
   );
@@ -47,10 +58,16 @@ export default function FitsPage() {
   const session = useSession();
   const canFit = session?.user.role === 'admin' || session?.user.role === 'researcher';
   const params = { page: 1, pageSize: 1 };
-  const any = useQuery({ queryKey: queryKeys.fits.list(params), queryFn: ({ signal }) => fitsApi.list(params, signal) });
+  const any = useQuery({
+    queryKey: queryKeys.fits.list(params),
+    queryFn: ({ signal }) => fitsApi.list(params, signal),
+  });
   return (
     <>
-      <PageHeader title="Fits" description="Reduced models fitted to sweep results or datasets, with standard errors and 95 % intervals." />
+      <PageHeader
+        title="Fits"
+        description="Reduced models fitted to sweep results or datasets, with standard errors and 95 % intervals."
+      />
       {canFit ? <NewFit /> : null}
       {any.data && any.data.total === 0 ? (
         <EmptyState
@@ -58,18 +75,26 @@ export default function FitsPage() {
           title="No fits saved yet"
           actions={
             <>
-              <Button component={Link} to="/catalogue" variant="light">Pick a sweep to fit</Button>
-              {canFit ? <Button component={Link} to="/datasets" variant="default">Upload measurements</Button> : null}
+              <Button component={Link} to="/catalogue" variant="light">
+                Pick a sweep to fit
+              </Button>
+              {canFit ? (
+                <Button component={Link} to="/datasets" variant="default">
+                  Upload measurements
+                </Button>
+              ) : null}
             </>
           }
         >
-          Fit a power law, an exponential (Boltzmann) form, the polytropic relation or your own expression to a sweep's points or
-          an uploaded dataset, and read each parameter with its standard error, R², RMSE and a residual plot. Saved fits of every
-          source you can see are listed here.
+          Fit a power law, an exponential (Boltzmann) form, the polytropic relation or your own expression to a sweep's
+          points or an uploaded dataset, and read each parameter with its standard error, R², RMSE and a residual plot.
+          Saved fits of every source you can see are listed here.
         </EmptyState>
       ) : (
         <Stack gap="xs">
-          <Title order={2} fz="h4">All fits you can see</Title>
+          <Title order={2} fz="h4">
+            All fits you can see
+          </Title>
           <SavedFits showSource />
         </Stack>
       )}

@@ -15,8 +15,8 @@ export default function NotFoundPage() {
         </Button>
       }
     >
-      Nothing in Driftgrid lives at {pathname}. The link may be old, or the page may belong to a later release; the left rail
-      lists every area there is.
+      Nothing in Driftgrid lives at {pathname}. The link may be old, or the page may belong to a later release; the left
+      rail lists every area there is.
     </EmptyState>
   );
 }

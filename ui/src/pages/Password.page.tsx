@@ -24,7 +24,12 @@ export default function PasswordPage() {
       setRepeat('');
     },
     onError: (err) => {
-      if (err instanceof ApiError) setErrors({ current: err.detailFor('current'), next: err.detailFor('next'), form: err.details.length ? undefined : err.message });
+      if (err instanceof ApiError)
+        setErrors({
+          current: err.detailFor('current'),
+          next: err.detailFor('next'),
+          form: err.details.length ? undefined : err.message,
+        });
       else setErrors({ form: 'The password could not be changed' });
     },
   });
@@ -44,13 +49,48 @@ export default function PasswordPage() {
   return (
     <>
       <PageHeader title="Password" description="Change the password you sign in with." />
-      <Paper withBorder p="md" maw={460} component="form" onSubmit={onSubmit} onKeyDown={ctrlEnter(submit)} noValidate aria-label="Change password">
+      <Paper
+        withBorder
+        p="md"
+        maw={460}
+        component="form"
+        onSubmit={onSubmit}
+        onKeyDown={ctrlEnter(submit)}
+        noValidate
+        aria-label="Change password"
+      >
         <Stack gap="sm">
-          <PasswordInput label="Current password" value={current} onChange={(e) => setCurrent(e.currentTarget.value)} error={errors.current} autoComplete="current-password" required />
-          <PasswordInput label="New password" description="At least 10 characters; a few unrelated words work well." value={next} onChange={(e) => setNext(e.currentTarget.value)} error={errors.next} autoComplete="new-password" required />
-          <PasswordInput label="New password again" value={repeat} onChange={(e) => setRepeat(e.currentTarget.value)} error={errors.repeat} autoComplete="new-password" required />
-          <Button type="submit" loading={change.isPending}>Change password</Button>
-          <Text fz="xs" c="dimmed">Ctrl+Enter submits. Forgot it? Sign out and use “reset password” on the sign-in page.</Text>
+          <PasswordInput
+            label="Current password"
+            value={current}
+            onChange={(e) => setCurrent(e.currentTarget.value)}
+            error={errors.current}
+            autoComplete="current-password"
+            required
+          />
+          <PasswordInput
+            label="New password"
+            description="At least 10 characters; a few unrelated words work well."
+            value={next}
+            onChange={(e) => setNext(e.currentTarget.value)}
+            error={errors.next}
+            autoComplete="new-password"
+            required
+          />
+          <PasswordInput
+            label="New password again"
+            value={repeat}
+            onChange={(e) => setRepeat(e.currentTarget.value)}
+            error={errors.repeat}
+            autoComplete="new-password"
+            required
+          />
+          <Button type="submit" loading={change.isPending}>
+            Change password
+          </Button>
+          <Text fz="xs" c="dimmed">
+            Ctrl+Enter submits. Forgot it? Sign out and use “reset password” on the sign-in page.
+          </Text>
           {errors.form ? <Alert color="red">{errors.form}</Alert> : null}
           {change.isSuccess ? <Alert color="green">{change.data.message}.</Alert> : null}
         </Stack>

@@ -47,7 +47,9 @@ afterEach(() => {
 
 describe('SignInPage', () => {
   it('shows the server message in an alert when the password is wrong', async () => {
-    fetchMock.mockResolvedValueOnce(jsonResponse(401, { statusCode: 401, error: 'Unauthorized', message: 'Email or password is wrong' }));
+    fetchMock.mockResolvedValueOnce(
+      jsonResponse(401, { statusCode: 401, error: 'Unauthorized', message: 'Email or password is wrong' }),
+    );
     renderAt('/sign-in');
     fill('researcher@example.com', 'not-the-password');
     fireEvent.click(screen.getByRole('button', { name: 'Sign in' }));
@@ -67,7 +69,10 @@ describe('SignInPage', () => {
 
   it('stores the session and returns to the page the user came from', async () => {
     fetchMock.mockResolvedValueOnce(
-      jsonResponse(201, { accessToken: 'tok-123', user: { id: 2, email: 'researcher@example.com', name: 'Rosa Researcher', role: 'researcher' } }),
+      jsonResponse(201, {
+        accessToken: 'tok-123',
+        user: { id: 2, email: 'researcher@example.com', name: 'Rosa Researcher', role: 'researcher' },
+      }),
     );
     const router = renderAt(`/sign-in?next=${encodeURIComponent('/sweeps/new')}`);
     fill('  researcher@example.com ', 'driftgrid-demo');
@@ -83,7 +88,9 @@ describe('SignInPage', () => {
   });
 
   it('ignores a next parameter that points off-site', async () => {
-    fetchMock.mockResolvedValueOnce(jsonResponse(201, { accessToken: 't', user: { id: 1, email: 'a@example.com', name: 'A', role: 'admin' } }));
+    fetchMock.mockResolvedValueOnce(
+      jsonResponse(201, { accessToken: 't', user: { id: 1, email: 'a@example.com', name: 'A', role: 'admin' } }),
+    );
     const router = renderAt(`/sign-in?next=${encodeURIComponent('//elsewhere.test/x')}`);
     fill('a@example.com', 'pw');
     fireEvent.click(screen.getByRole('button', { name: 'Sign in' }));
@@ -99,7 +106,7 @@ describe('SignInPage', () => {
     expect(fetchMock).not.toHaveBeenCalled();
   });
 
-  it('submits with Enter: the button is the form\'s submit button', () => {
+  it("submits with Enter: the button is the form's submit button", () => {
     renderAt('/sign-in');
     const button = screen.getByRole('button', { name: 'Sign in' });
     expect(button.getAttribute('type')).toBe('submit');
@@ -111,6 +118,8 @@ describe('SignInPage', () => {
     renderAt('/sign-in');
     fill('a@example.com', 'pw');
     fireEvent.click(screen.getByRole('button', { name: 'Sign in' }));
-    await waitFor(() => expect(screen.getByTestId('signin-error').textContent).toMatch(/Cannot reach the Driftgrid server/));
+    await waitFor(() =>
+      expect(screen.getByTestId('signin-error').textContent).toMatch(/Cannot reach the Driftgrid server/),
+    );
   });
 });

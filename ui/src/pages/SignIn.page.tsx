@@ -1,4 +1,17 @@
-import { Alert, Anchor, Box, Button, Center, Group, Paper, PasswordInput, Stack, Text, TextInput, Title } from '@mantine/core';
+import {
+  Alert,
+  Anchor,
+  Box,
+  Button,
+  Center,
+  Group,
+  Paper,
+  PasswordInput,
+  Stack,
+  Text,
+  TextInput,
+  Title,
+} from '@mantine/core';
 import { IconAlertCircle, IconClock } from '@tabler/icons-react';
 import { useEffect, useState, type FormEvent } from 'react';
 import { Link, Navigate, useNavigate, useSearchParams } from 'react-router-dom';
@@ -75,12 +88,23 @@ export default function SignInPage() {
                   </Text>
                 </div>
                 {expired && !loginMutation.isError ? (
-                  <Alert color="iris" variant="light" icon={<IconClock size={18} aria-hidden />} data-testid="session-expired">
+                  <Alert
+                    color="iris"
+                    variant="light"
+                    icon={<IconClock size={18} aria-hidden />}
+                    data-testid="session-expired"
+                  >
                     Your session ended. Sign in again to return to the page you were on; unsaved form input is kept.
                   </Alert>
                 ) : null}
                 {loginMutation.isError ? (
-                  <Alert color="rust" variant="light" role="alert" data-testid="signin-error" icon={<IconAlertCircle size={18} aria-hidden />}>
+                  <Alert
+                    color="rust"
+                    variant="light"
+                    role="alert"
+                    data-testid="signin-error"
+                    icon={<IconAlertCircle size={18} aria-hidden />}
+                  >
                     {messageOf(loginMutation.error)}
                   </Alert>
                 ) : null}

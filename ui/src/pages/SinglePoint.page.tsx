@@ -64,7 +64,9 @@ export default function SinglePointPage() {
       />
       <Stack gap="md">
         <Group gap="sm" align="center">
-          <Text fz="sm" fw={500} id="model-picker-label">Model</Text>
+          <Text fz="sm" fw={500} id="model-picker-label">
+            Model
+          </Text>
           <SegmentedControl
             aria-labelledby="model-picker-label"
             data-testid="model-picker"
@@ -72,16 +74,28 @@ export default function SinglePointPage() {
             onChange={(id) => setDraft((d) => ({ ...d, model: id }))}
             data={models.map((m) => ({ value: m.id, label: m.title }))}
           />
-          <Badge variant="light" color="gray" ff="monospace">{model.id} v{model.version}</Badge>
+          <Badge variant="light" color="gray" ff="monospace">
+            {model.id} v{model.version}
+          </Badge>
         </Group>
-        <Text fz="sm" c="dimmed">{model.summary}</Text>
+        <Text fz="sm" c="dimmed">
+          {model.summary}
+        </Text>
         <Grid gutter="lg">
           <Grid.Col span={{ base: 12, md: 5 }}>
             <Paper withBorder p="md" radius="sm">
-              <Title order={2} fz="h4" mb="sm">Inputs</Title>
+              <Title order={2} fz="h4" mb="sm">
+                Inputs
+              </Title>
               <SimpleGrid cols={1} spacing="sm">
                 {model.inputs.map((spec) => (
-                  <QuantityInput key={spec.name} spec={spec} value={text[spec.name] ?? ''} onChange={(v) => setText(spec.name, v)} error={fieldErrors[spec.name]} />
+                  <QuantityInput
+                    key={spec.name}
+                    spec={spec}
+                    value={text[spec.name] ?? ''}
+                    onChange={(v) => setText(spec.name, v)}
+                    error={fieldErrors[spec.name]}
+                  />
                 ))}
               </SimpleGrid>
             </Paper>
@@ -94,7 +108,13 @@ export default function SinglePointPage() {
                   <OutputsTable outputs={model.outputs} values={ev.result.outputs} />
                 </>
               ) : (
-                <Alert color="red" variant="light" icon={<IconAlertCircle size={18} />} title="Fix the highlighted inputs" data-testid="inputs-invalid">
+                <Alert
+                  color="red"
+                  variant="light"
+                  icon={<IconAlertCircle size={18} />}
+                  title="Fix the highlighted inputs"
+                  data-testid="inputs-invalid"
+                >
                   The outputs appear as soon as every input is a valid value in its allowed range.
                 </Alert>
               )}
@@ -103,7 +123,9 @@ export default function SinglePointPage() {
         </Grid>
         {ev.profile ? (
           <Paper withBorder p="md" radius="sm">
-            <Title order={2} fz="h4" mb="sm">Radial profiles</Title>
+            <Title order={2} fz="h4" mb="sm">
+              Radial profiles
+            </Title>
             <ProfilePlot profile={ev.profile} a_m={ev.inputs.a_m!} />
           </Paper>
         ) : null}

@@ -1,4 +1,21 @@
-import { Alert, Badge, Button, Card, Code, Group, MultiSelect, Progress, SegmentedControl, SimpleGrid, Skeleton, Stack, Table, Tabs, Text, Title } from '@mantine/core';
+import {
+  Alert,
+  Badge,
+  Button,
+  Card,
+  Code,
+  Group,
+  MultiSelect,
+  Progress,
+  SegmentedControl,
+  SimpleGrid,
+  Skeleton,
+  Stack,
+  Table,
+  Tabs,
+  Text,
+  Title,
+} from '@mantine/core';
 import { IconAlertTriangle, IconChartDots3, IconPlayerStop } from '@tabler/icons-react';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { getModel, type DirectoryUser } from '@driftgrid/domain';
@@ -29,7 +46,8 @@ function inputUnit(model: string, name: string): string {
 // echarts is heavy: the plot loads with its tab.
 const SweepPlot = lazy(() => import('../components/SweepPlot/SweepPlot.js').then((m) => ({ default: m.SweepPlot })));
 
-const dateText = (iso: string | null) => (iso ? new Date(iso).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'medium' }) : '—');
+const dateText = (iso: string | null) =>
+  iso ? new Date(iso).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'medium' }) : '—';
 
 function duration(ms: number): string {
   if (ms < 1000) return `${Math.round(ms)} ms`;
@@ -38,7 +56,8 @@ function duration(ms: number): string {
 }
 
 function axisText(a: NonNullable<SweepView['definition']['axes']>[number]): string {
-  if (a.kind === 'list') return `list of ${a.values?.length ?? 0}: ${(a.values ?? []).join(', ')}${a.unit ? ` ${a.unit}` : ''}`;
+  if (a.kind === 'list')
+    return `list of ${a.values?.length ?? 0}: ${(a.values ?? []).join(', ')}${a.unit ? ` ${a.unit}` : ''}`;
   return `${a.kind}, ${a.min} to ${a.max}${a.unit ? ` ${a.unit}` : ''}, ${a.count ?? '?'} values`;
 }
 
@@ -53,7 +72,12 @@ function FlagsSummary({ sweep }: { sweep: SweepView }) {
   }, [sweep.model]);
   const done = sweep.progress.done;
   const { invalidPoints, byFlag } = sweep.flagsSummary;
-  if (done === 0) return <Text fz="sm" c="dimmed">No points stored yet.</Text>;
+  if (done === 0)
+    return (
+      <Text fz="sm" c="dimmed">
+        No points stored yet.
+      </Text>
+    );
   return (
     <Stack gap={6} data-testid="flags-summary">
       <Text fz="sm">
@@ -92,7 +116,9 @@ function SharePanel({ sweep }: { sweep: SweepView }) {
     mutationFn: () => api.put<SweepView>(`/sweeps/${sweep.id}/sharing`, { visibility, userIds: users.map(Number) }),
     onSuccess: (s) => qc.setQueryData(queryKeys.sweeps.detail(sweep.id), s),
   });
-  const options = (directory.data?.items ?? []).filter((u) => u.id !== sweep.owner.id).map((u) => ({ value: String(u.id), label: `${u.name} · ${u.role}` }));
+  const options = (directory.data?.items ?? [])
+    .filter((u) => u.id !== sweep.owner.id)
+    .map((u) => ({ value: String(u.id), label: `${u.name} · ${u.role}` }));
   return (
     <Stack gap="xs">
       <SegmentedControl
@@ -105,13 +131,30 @@ function SharePanel({ sweep }: { sweep: SweepView }) {
         ]}
         aria-label="Who may read this sweep"
       />
-      <MultiSelect label="Share read-only with" placeholder="Pick people" data={options} value={users} onChange={setUsers} searchable clearable disabled={visibility === 'group'} />
-      {save.error ? <Text c="red" fz="sm">{(save.error as Error).message}</Text> : null}
+      <MultiSelect
+        label="Share read-only with"
+        placeholder="Pick people"
+        data={options}
+        value={users}
+        onChange={setUsers}
+        searchable
+        clearable
+        disabled={visibility === 'group'}
+      />
+      {save.error ? (
+        <Text c="red" fz="sm">
+          {(save.error as Error).message}
+        </Text>
+      ) : null}
       <Group>
         <Button size="xs" onClick={() => save.mutate()} loading={save.isPending}>
           Save sharing
         </Button>
-        {save.isSuccess ? <Text fz="xs" c="dimmed">Saved.</Text> : null}
+        {save.isSuccess ? (
+          <Text fz="xs" c="dimmed">
+            Saved.
+          </Text>
+        ) : null}
       </Group>
     </Stack>
   );
@@ -132,13 +175,26 @@ function Overview({ sweep, canManage }: { sweep: SweepView; canManage: boolean }
         <Title order={2} fz="h4" mb="xs">
           Progress
         </Title>
-        <Progress value={pct} size="lg" animated={active} aria-label={`${pct} % of the points computed`} data-testid="sweep-progress" />
+        <Progress
+          value={pct}
+          size="lg"
+          animated={active}
+          aria-label={`${pct} % of the points computed`}
+          data-testid="sweep-progress"
+        />
         <Group justify="space-between" mt={6}>
           <Text fz="sm" className="dg-num">
             {formatCount(sweep.progress.done)} of {formatCount(sweep.progress.total)} points · {pct} %
           </Text>
           {canManage && active ? (
-            <Button size="xs" color="rust" variant="light" leftSection={<IconPlayerStop size={14} />} onClick={() => cancel.mutate()} loading={cancel.isPending}>
+            <Button
+              size="xs"
+              color="rust"
+              variant="light"
+              leftSection={<IconPlayerStop size={14} />}
+              onClick={() => cancel.mutate()}
+              loading={cancel.isPending}
+            >
               Cancel sweep
             </Button>
           ) : null}
@@ -148,7 +204,11 @@ function Overview({ sweep, canManage }: { sweep: SweepView; canManage: boolean }
             {sweep.error}
           </Alert>
         ) : null}
-        {cancel.error ? <Text c="red" fz="sm">{(cancel.error as Error).message}</Text> : null}
+        {cancel.error ? (
+          <Text c="red" fz="sm">
+            {(cancel.error as Error).message}
+          </Text>
+        ) : null}
         <Title order={3} fz="h5" mt="md" mb={4}>
           Validity
         </Title>
@@ -159,21 +219,67 @@ function Overview({ sweep, canManage }: { sweep: SweepView; canManage: boolean }
         <Title order={2} fz="h4" mb="xs">
           Definition
         </Title>
-        {d.description ? <Text fz="sm" mb="xs">{d.description}</Text> : null}
+        {d.description ? (
+          <Text fz="sm" mb="xs">
+            {d.description}
+          </Text>
+        ) : null}
         <Table fz="sm" withRowBorders={false} verticalSpacing={2}>
           <Table.Tbody>
-            <Table.Tr><Table.Td c="dimmed" w={130}>Model</Table.Td><Table.Td>{sweep.model} (version {sweep.provenance.modelVersion})</Table.Td></Table.Tr>
-            <Table.Tr><Table.Td c="dimmed">Sampling</Table.Td><Table.Td>{d.sampling?.kind ?? 'grid'}{d.sampling?.samples ? `, ${formatCount(d.sampling.samples)} samples` : ''}{d.sampling?.seed !== undefined ? `, seed ${d.sampling.seed}` : ''}</Table.Td></Table.Tr>
+            <Table.Tr>
+              <Table.Td c="dimmed" w={130}>
+                Model
+              </Table.Td>
+              <Table.Td>
+                {sweep.model} (version {sweep.provenance.modelVersion})
+              </Table.Td>
+            </Table.Tr>
+            <Table.Tr>
+              <Table.Td c="dimmed">Sampling</Table.Td>
+              <Table.Td>
+                {d.sampling?.kind ?? 'grid'}
+                {d.sampling?.samples ? `, ${formatCount(d.sampling.samples)} samples` : ''}
+                {d.sampling?.seed !== undefined ? `, seed ${d.sampling.seed}` : ''}
+              </Table.Td>
+            </Table.Tr>
             {(d.axes ?? []).map((a) => (
-              <Table.Tr key={a.param}><Table.Td c="dimmed">Swept {a.param}</Table.Td><Table.Td>{axisText(a)}</Table.Td></Table.Tr>
+              <Table.Tr key={a.param}>
+                <Table.Td c="dimmed">Swept {a.param}</Table.Td>
+                <Table.Td>{axisText(a)}</Table.Td>
+              </Table.Tr>
             ))}
             {Object.entries(d.fixed ?? {}).map(([k, v]) => (
-              <Table.Tr key={k}><Table.Td c="dimmed">Fixed {k}</Table.Td><Table.Td>{typeof v === 'number' ? <Num value={v} unit={inputUnit(sweep.model, k)} /> : <Code>{String(v)}</Code>}</Table.Td></Table.Tr>
+              <Table.Tr key={k}>
+                <Table.Td c="dimmed">Fixed {k}</Table.Td>
+                <Table.Td>
+                  {typeof v === 'number' ? (
+                    <Num value={v} unit={inputUnit(sweep.model, k)} />
+                  ) : (
+                    <Code>{String(v)}</Code>
+                  )}
+                </Table.Td>
+              </Table.Tr>
             ))}
             {(d.derived ?? []).map((x) => (
-              <Table.Tr key={x.name}><Table.Td c="dimmed">Derived {x.name}</Table.Td><Table.Td><Code>{x.expr}</Code></Table.Td></Table.Tr>
+              <Table.Tr key={x.name}>
+                <Table.Td c="dimmed">Derived {x.name}</Table.Td>
+                <Table.Td>
+                  <Code>{x.expr}</Code>
+                </Table.Td>
+              </Table.Tr>
             ))}
-            <Table.Tr><Table.Td c="dimmed">Tags</Table.Td><Table.Td>{sweep.tags.length ? sweep.tags.map((t) => <Badge key={t} size="sm" variant="default" tt="none" mr={4}>{t}</Badge>) : '—'}</Table.Td></Table.Tr>
+            <Table.Tr>
+              <Table.Td c="dimmed">Tags</Table.Td>
+              <Table.Td>
+                {sweep.tags.length
+                  ? sweep.tags.map((t) => (
+                      <Badge key={t} size="sm" variant="default" tt="none" mr={4}>
+                        {t}
+                      </Badge>
+                    ))
+                  : '—'}
+              </Table.Td>
+            </Table.Tr>
           </Table.Tbody>
         </Table>
       </Card>
@@ -184,23 +290,60 @@ function Overview({ sweep, canManage }: { sweep: SweepView; canManage: boolean }
         </Title>
         <Table fz="sm" withRowBorders={false} verticalSpacing={2}>
           <Table.Tbody>
-            <Table.Tr><Table.Td c="dimmed" w={130}>Owner</Table.Td><Table.Td>{sweep.owner.name}</Table.Td></Table.Tr>
-            <Table.Tr><Table.Td c="dimmed">Created</Table.Td><Table.Td>{dateText(sweep.createdAt)}</Table.Td></Table.Tr>
-            <Table.Tr><Table.Td c="dimmed">Started</Table.Td><Table.Td>{dateText(sweep.startedAt)}</Table.Td></Table.Tr>
-            <Table.Tr><Table.Td c="dimmed">Finished</Table.Td><Table.Td>{dateText(sweep.finishedAt)}</Table.Td></Table.Tr>
-            <Table.Tr><Table.Td c="dimmed">Compute time</Table.Td><Table.Td>{duration(sweep.provenance.computeMs)} (summed over chunks)</Table.Td></Table.Tr>
-            <Table.Tr><Table.Td c="dimmed">App version</Table.Td><Table.Td>{sweep.provenance.appVersion}</Table.Td></Table.Tr>
-            <Table.Tr><Table.Td c="dimmed">Chunks</Table.Td><Table.Td>{formatCount(sweep.chunks)}</Table.Td></Table.Tr>
+            <Table.Tr>
+              <Table.Td c="dimmed" w={130}>
+                Owner
+              </Table.Td>
+              <Table.Td>{sweep.owner.name}</Table.Td>
+            </Table.Tr>
+            <Table.Tr>
+              <Table.Td c="dimmed">Created</Table.Td>
+              <Table.Td>{dateText(sweep.createdAt)}</Table.Td>
+            </Table.Tr>
+            <Table.Tr>
+              <Table.Td c="dimmed">Started</Table.Td>
+              <Table.Td>{dateText(sweep.startedAt)}</Table.Td>
+            </Table.Tr>
+            <Table.Tr>
+              <Table.Td c="dimmed">Finished</Table.Td>
+              <Table.Td>{dateText(sweep.finishedAt)}</Table.Td>
+            </Table.Tr>
+            <Table.Tr>
+              <Table.Td c="dimmed">Compute time</Table.Td>
+              <Table.Td>{duration(sweep.provenance.computeMs)} (summed over chunks)</Table.Td>
+            </Table.Tr>
+            <Table.Tr>
+              <Table.Td c="dimmed">App version</Table.Td>
+              <Table.Td>{sweep.provenance.appVersion}</Table.Td>
+            </Table.Tr>
+            <Table.Tr>
+              <Table.Td c="dimmed">Chunks</Table.Td>
+              <Table.Td>{formatCount(sweep.chunks)}</Table.Td>
+            </Table.Tr>
           </Table.Tbody>
         </Table>
         {sweep.provenance.workers.length ? (
           <Table fz="sm" mt="sm" striped aria-label="Workers">
             <Table.Thead>
-              <Table.Tr><Table.Th>Worker (host:pid)</Table.Th><Table.Th ta="right">Chunks</Table.Th><Table.Th ta="right">Points</Table.Th></Table.Tr>
+              <Table.Tr>
+                <Table.Th>Worker (host:pid)</Table.Th>
+                <Table.Th ta="right">Chunks</Table.Th>
+                <Table.Th ta="right">Points</Table.Th>
+              </Table.Tr>
             </Table.Thead>
             <Table.Tbody>
               {sweep.provenance.workers.map((w) => (
-                <Table.Tr key={w.id}><Table.Td><Code>{w.id}</Code></Table.Td><Table.Td ta="right" className="dg-num">{formatCount(w.chunks)}</Table.Td><Table.Td ta="right" className="dg-num">{formatCount(w.points)}</Table.Td></Table.Tr>
+                <Table.Tr key={w.id}>
+                  <Table.Td>
+                    <Code>{w.id}</Code>
+                  </Table.Td>
+                  <Table.Td ta="right" className="dg-num">
+                    {formatCount(w.chunks)}
+                  </Table.Td>
+                  <Table.Td ta="right" className="dg-num">
+                    {formatCount(w.points)}
+                  </Table.Td>
+                </Table.Tr>
               ))}
             </Table.Tbody>
           </Table>
@@ -232,8 +375,18 @@ export default function SweepPage() {
   if (error || !sweep) {
     const notFound = error instanceof ApiError && (error.status === 404 || error.status === 400);
     return (
-      <EmptyState icon={IconChartDots3} title={notFound ? `No sweep ${id} for you` : 'The sweep could not be loaded'} actions={<Button component={Link} to="/catalogue" variant="light">Back to the catalogue</Button>}>
-        {notFound ? 'It does not exist, or it is private to its owner. Ask the owner to share it, or pick one from the catalogue.' : (error as Error | null)?.message}
+      <EmptyState
+        icon={IconChartDots3}
+        title={notFound ? `No sweep ${id} for you` : 'The sweep could not be loaded'}
+        actions={
+          <Button component={Link} to="/catalogue" variant="light">
+            Back to the catalogue
+          </Button>
+        }
+      >
+        {notFound
+          ? 'It does not exist, or it is private to its owner. Ask the owner to share it, or pick one from the catalogue.'
+          : (error as Error | null)?.message}
       </EmptyState>
     );
   }
@@ -251,7 +404,11 @@ export default function SweepPage() {
         title={sweep.name}
         description={
           <Group gap="xs" component="span">
-            <StatusBadge status={sweep.status} suffix={ACTIVE.includes(sweep.status) ? `${Math.floor(sweep.progress.fraction * 100)} %` : undefined} data-testid="sweep-status" />
+            <StatusBadge
+              status={sweep.status}
+              suffix={ACTIVE.includes(sweep.status) ? `${Math.floor(sweep.progress.fraction * 100)} %` : undefined}
+              data-testid="sweep-status"
+            />
             <span>
               {sweep.model} · {formatCount(sweep.points)} points · {sweep.owner.name}
             </span>
@@ -272,7 +429,13 @@ export default function SweepPage() {
         <Tabs.Panel value="results">
           <ResultsTable sweepId={sweep.id} columns={sweep.columns} flagNames={flagBits} />
           <Text fz="xs" c="dimmed" mt="xs">
-            Values show 4 significant figures; hover a value for full precision. Units: {sweep.columns.filter((c) => prettyUnit(c.unit)).slice(0, 3).map((c) => `${c.name} in ${prettyUnit(c.unit)}`).join(', ')}…
+            Values show 4 significant figures; hover a value for full precision. Units:{' '}
+            {sweep.columns
+              .filter((c) => prettyUnit(c.unit))
+              .slice(0, 3)
+              .map((c) => `${c.name} in ${prettyUnit(c.unit)}`)
+              .join(', ')}
+            …
           </Text>
         </Tabs.Panel>
         <Tabs.Panel value="plots">

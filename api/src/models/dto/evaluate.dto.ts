@@ -8,7 +8,12 @@ import { z } from 'zod';
 export const evaluateRequestSchema = z
   .object({
     inputs: z
-      .record(z.string(), z.union([z.number(), z.string().trim().min(1, 'must not be empty').max(200)], { error: 'must be a number or a string such as "10 eV"' }))
+      .record(
+        z.string(),
+        z.union([z.number(), z.string().trim().min(1, 'must not be empty').max(200)], {
+          error: 'must be a number or a string such as "10 eV"',
+        }),
+      )
       .default({}),
     thresholds: z.record(z.string(), z.number({ error: 'must be a finite number' })).optional(),
   })

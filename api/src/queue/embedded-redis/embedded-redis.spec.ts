@@ -69,9 +69,18 @@ describe('Lua-to-Redis reply conversion (Redis docs)', () => {
 
 describe('cjson and cmsgpack', () => {
   it('round-trips JSON with null and nested arrays', async () => {
-    expect(await ev('local t = cjson.decode(ARGV[1]) return {t.a, t.b[2], tostring(t.c == cjson.null)}', [], ['{"a":1700000000001,"b":[1,2],"c":null}']))
-      .toEqual([1700000000001, 2, 'true']);
-    expect(JSON.parse(await ev('return cjson.encode({a=1.5, b={1,2,3}, c={}})'))).toEqual({ a: 1.5, b: [1, 2, 3], c: {} });
+    expect(
+      await ev(
+        'local t = cjson.decode(ARGV[1]) return {t.a, t.b[2], tostring(t.c == cjson.null)}',
+        [],
+        ['{"a":1700000000001,"b":[1,2],"c":null}'],
+      ),
+    ).toEqual([1700000000001, 2, 'true']);
+    expect(JSON.parse(await ev('return cjson.encode({a=1.5, b={1,2,3}, c={}})'))).toEqual({
+      a: 1.5,
+      b: [1, 2, 3],
+      c: {},
+    });
   });
   it('unpacks msgpack Buffers given as arguments', async () => {
     // {"a":1,"b":"hi","ts":1700000000000.0} encoded by hand per the msgpack spec:
@@ -79,7 +88,11 @@ describe('cjson and cmsgpack', () => {
     const ts = Buffer.alloc(8);
     ts.writeDoubleBE(1700000000000);
     const packed = Buffer.concat([Buffer.from('83a16101a162a26869a27473cb', 'hex'), ts]);
-    expect(await ev('local t = cmsgpack.unpack(ARGV[1]) return {t.a, t.b, tostring(t.ts)}', [], [packed])).toEqual([1, 'hi', '1700000000000']);
+    expect(await ev('local t = cmsgpack.unpack(ARGV[1]) return {t.a, t.b, tostring(t.ts)}', [], [packed])).toEqual([
+      1,
+      'hi',
+      '1700000000000',
+    ]);
   });
 });
 

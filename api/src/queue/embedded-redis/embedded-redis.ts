@@ -28,7 +28,23 @@ const mockCommands: Record<string, SyncCommand> = (() => {
 /* eslint-enable @typescript-eslint/no-explicit-any */
 
 /** Commands whose Redis reply is a status (+OK); scripts receive those as {ok=...}. */
-const STATUS_COMMANDS = new Set(['set', 'mset', 'hmset', 'rename', 'ltrim', 'lset', 'flushdb', 'flushall', 'select', 'setex', 'psetex', 'restore', 'watch', 'unwatch', 'discard']);
+const STATUS_COMMANDS = new Set([
+  'set',
+  'mset',
+  'hmset',
+  'rename',
+  'ltrim',
+  'lset',
+  'flushdb',
+  'flushall',
+  'select',
+  'setex',
+  'psetex',
+  'restore',
+  'watch',
+  'unwatch',
+  'discard',
+]);
 
 export class ConnectionClosedError extends Error {
   constructor() {
@@ -109,15 +125,22 @@ export class EmbeddedRedis extends MockClass {
 
   private installCommand(cmd: string, impl: SyncCommand, lowerName = cmd): void {
     const self = this as unknown as Record<string, unknown>;
-    const make = (asBuffer: boolean) => (...raw: unknown[]) => {
-      const callback = typeof raw[raw.length - 1] === 'function' ? (raw.pop() as (e: unknown, r?: unknown) => void) : undefined;
-      const promise = new Promise<unknown>((resolve) => {
-        if (this.status === 'end') throw new ConnectionClosedError();
-        resolve(impl.apply(this, flattenArgs(raw)));
-      }).then((r) => (asBuffer ? toBufferReply(r) : r));
-      if (callback) promise.then((r) => callback(null, r), (e) => callback(e));
-      return promise;
-    };
+    const make =
+      (asBuffer: boolean) =>
+      (...raw: unknown[]) => {
+        const callback =
+          typeof raw[raw.length - 1] === 'function' ? (raw.pop() as (e: unknown, r?: unknown) => void) : undefined;
+        const promise = new Promise<unknown>((resolve) => {
+          if (this.status === 'end') throw new ConnectionClosedError();
+          resolve(impl.apply(this, flattenArgs(raw)));
+        }).then((r) => (asBuffer ? toBufferReply(r) : r));
+        if (callback)
+          promise.then(
+            (r) => callback(null, r),
+            (e) => callback(e),
+          );
+        return promise;
+      };
     self[cmd] = make(false);
     self[`${cmd}Buffer`] = make(true);
     void lowerName;
@@ -158,7 +181,9 @@ export class EmbeddedRedis extends MockClass {
       return engine.run(sha, args.slice(0, n), args.slice(n), (c, a) => this.runForScript(c, a));
     };
     this.installCommand(name, run);
-    (this as unknown as { customCommands: Record<string, unknown> }).customCommands[name] = (this as unknown as Record<string, unknown>)[name];
+    (this as unknown as { customCommands: Record<string, unknown> }).customCommands[name] = (
+      this as unknown as Record<string, unknown>
+    )[name];
   }
 
   duplicate(override?: Record<string, unknown>): EmbeddedRedis {
@@ -167,12 +192,18 @@ export class EmbeddedRedis extends MockClass {
   }
 
   pipeline(commands: Array<[string, ...unknown[]]> = []): ReturnType<Redis['pipeline']> {
-    return createPipeline(this as unknown as Record<string, unknown>, commands.map(([c, ...a]) => [c, a])) as ReturnType<Redis['pipeline']>;
+    return createPipeline(
+      this as unknown as Record<string, unknown>,
+      commands.map(([c, ...a]) => [c, a]),
+    ) as ReturnType<Redis['pipeline']>;
   }
 
   multi(commands: Array<[string, ...unknown[]]> | { pipeline?: boolean } = []): ReturnType<Redis['multi']> {
     const list = Array.isArray(commands) ? commands : [];
-    return createPipeline(this as unknown as Record<string, unknown>, list.map(([c, ...a]) => [c, a])) as ReturnType<Redis['multi']>;
+    return createPipeline(
+      this as unknown as Record<string, unknown>,
+      list.map(([c, ...a]) => [c, a]),
+    ) as ReturnType<Redis['multi']>;
   }
 
   connect(): Promise<void> {
@@ -314,26 +345,34 @@ function bzpopmin(this: EmbeddedRedis, ...args: Arg[]): Promise<[string, string,
     return null;
   };
   const events = (this as unknown as { context: MockContext }).context.modifiedKeyEvents;
-  return this.waitFor(pop, (wake) => {
-    const listener = (key: string) => {
-      if (keys.includes(key)) wake();
-    };
-    events.on('modified', listener);
-    return () => events.off('modified', listener);
-  }, timeoutSec * 1000);
+  return this.waitFor(
+    pop,
+    (wake) => {
+      const listener = (key: string) => {
+        if (keys.includes(key)) wake();
+      };
+      events.on('modified', listener);
+      return () => events.off('modified', listener);
+    },
+    timeoutSec * 1000,
+  );
 }
 
 function xread(this: EmbeddedRedis, ...args: Arg[]): Promise<unknown> {
   const host = this.streamHost();
   const req = streams.resolveDollar(host, streams.parseXread(args));
   if (req.block === null) return Promise.resolve(streams.readStreams(host, req));
-  return this.waitFor(() => streams.readStreams(host, req), (wake) => {
-    const names = req.streams.map((s) => `stream:${s.key}`);
-    for (const n of names) this.store.events.on(n, wake);
-    return () => {
-      for (const n of names) this.store.events.off(n, wake);
-    };
-  }, req.block);
+  return this.waitFor(
+    () => streams.readStreams(host, req),
+    (wake) => {
+      const names = req.streams.map((s) => `stream:${s.key}`);
+      for (const n of names) this.store.events.on(n, wake);
+      return () => {
+        for (const n of names) this.store.events.off(n, wake);
+      };
+    },
+    req.block,
+  );
 }
 
 function evalScript(this: EmbeddedRedis, script: Arg, numKeys: Arg, ...args: Arg[]): unknown {
@@ -379,5 +418,8 @@ const OVERRIDES: Record<string, SyncCommand> = {
 
 /** True for connections made by createEmbeddedRedis (also through BullMQ's proxy). */
 export function isEmbeddedRedisInstance(conn: unknown): conn is EmbeddedRedis {
-  return conn instanceof EmbeddedRedis || (typeof conn === 'object' && conn !== null && (conn as { isEmbeddedRedis?: unknown }).isEmbeddedRedis === true);
+  return (
+    conn instanceof EmbeddedRedis ||
+    (typeof conn === 'object' && conn !== null && (conn as { isEmbeddedRedis?: unknown }).isEmbeddedRedis === true)
+  );
 }

@@ -38,7 +38,10 @@ function installPatch(): void {
   if (lobject.__driftgridDoubles) return;
   const origStr2num = lobject.luaO_str2num;
   const origTostring = lobject.luaO_tostring;
-  lobject.luaO_str2num = function str2num(s: Uint8Array, o: { ttisinteger(): boolean; value: number; setfltvalue(n: number): void }): number {
+  lobject.luaO_str2num = function str2num(
+    s: Uint8Array,
+    o: { ttisinteger(): boolean; value: number; setfltvalue(n: number): void },
+  ): number {
     const r = origStr2num(s, o);
     if (depth === 0 || r === 0 || !o.ttisinteger()) return r;
     // Integer result: redo hex literals as doubles (fengari wraps them at 32 bits), and
@@ -54,7 +57,10 @@ function installPatch(): void {
     }
     return r;
   };
-  lobject.luaO_tostring = function tostring(L: unknown, obj: { ttisfloat(): boolean; value: number; setsvalue(ts: unknown): void }): void {
+  lobject.luaO_tostring = function tostring(
+    L: unknown,
+    obj: { ttisfloat(): boolean; value: number; setsvalue(ts: unknown): void },
+  ): void {
     if (depth === 0 || !obj.ttisfloat()) return origTostring(L, obj);
     obj.setsvalue(lstring.luaS_bless(L, new TextEncoder().encode(formatLuaNumber(obj.value))));
   };

@@ -139,7 +139,10 @@ export class LuaEngine {
         lua.lua_setupvalue(L, -2, 1); // the chunk's _ENV
         const status = lua.lua_pcall(L, 0, 1, 0);
         if (status !== lua.LUA_OK) {
-          const msg = lua.lua_type(L, -1) === lua.LUA_TTABLE ? String((toReply(L, -1) as Error).message ?? 'error') : toText(L, -1);
+          const msg =
+            lua.lua_type(L, -1) === lua.LUA_TTABLE
+              ? String((toReply(L, -1) as Error).message ?? 'error')
+              : toText(L, -1);
           throw new ScriptReplyError(msg.startsWith('ERR') ? msg : `ERR user_script: ${msg} script: ${sha}`);
         }
         const reply = toReply(L, -1);
@@ -154,7 +157,8 @@ export class LuaEngine {
 
   private redisCall(L: L, protectedCall: boolean): number {
     const n = lua.lua_gettop(L);
-    if (n === 0) return lauxlib.luaL_error(L, encoder.encode('Please specify at least one argument for this redis lib call'));
+    if (n === 0)
+      return lauxlib.luaL_error(L, encoder.encode('Please specify at least one argument for this redis lib call'));
     const args: Array<string | Buffer> = [];
     for (let i = 1; i <= n; i++) {
       const t = lua.lua_type(L, i);

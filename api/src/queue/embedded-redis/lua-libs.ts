@@ -159,36 +159,68 @@ class MsgpackReader {
     if (b >= 0xa0 && b <= 0xbf) return this.pushRaw(L, b & 0x1f);
     const v = this.view;
     switch (b) {
-      case 0xc0: return lua.lua_pushnil(L);
-      case 0xc2: return lua.lua_pushboolean(L, false);
-      case 0xc3: return lua.lua_pushboolean(L, true);
-      case 0xc4: case 0xd9: return this.pushRaw(L, v.getUint8(this.need(1)));
-      case 0xc5: case 0xda: return this.pushRaw(L, v.getUint16(this.need(2)));
-      case 0xc6: case 0xdb: return this.pushRaw(L, v.getUint32(this.need(4)));
-      case 0xca: return lua.lua_pushnumber(L, v.getFloat32(this.need(4)));
-      case 0xcb: return lua.lua_pushnumber(L, v.getFloat64(this.need(8)));
-      case 0xcc: return lua.lua_pushnumber(L, v.getUint8(this.need(1)));
-      case 0xcd: return lua.lua_pushnumber(L, v.getUint16(this.need(2)));
-      case 0xce: return lua.lua_pushnumber(L, v.getUint32(this.need(4)));
-      case 0xcf: return lua.lua_pushnumber(L, Number(v.getBigUint64(this.need(8))));
-      case 0xd0: return lua.lua_pushnumber(L, v.getInt8(this.need(1)));
-      case 0xd1: return lua.lua_pushnumber(L, v.getInt16(this.need(2)));
-      case 0xd2: return lua.lua_pushnumber(L, v.getInt32(this.need(4)));
-      case 0xd3: return lua.lua_pushnumber(L, Number(v.getBigInt64(this.need(8))));
-      case 0xdc: return this.pushArray(L, v.getUint16(this.need(2)));
-      case 0xdd: return this.pushArray(L, v.getUint32(this.need(4)));
-      case 0xde: return this.pushMap(L, v.getUint16(this.need(2)));
-      case 0xdf: return this.pushMap(L, v.getUint32(this.need(4)));
+      case 0xc0:
+        return lua.lua_pushnil(L);
+      case 0xc2:
+        return lua.lua_pushboolean(L, false);
+      case 0xc3:
+        return lua.lua_pushboolean(L, true);
+      case 0xc4:
+      case 0xd9:
+        return this.pushRaw(L, v.getUint8(this.need(1)));
+      case 0xc5:
+      case 0xda:
+        return this.pushRaw(L, v.getUint16(this.need(2)));
+      case 0xc6:
+      case 0xdb:
+        return this.pushRaw(L, v.getUint32(this.need(4)));
+      case 0xca:
+        return lua.lua_pushnumber(L, v.getFloat32(this.need(4)));
+      case 0xcb:
+        return lua.lua_pushnumber(L, v.getFloat64(this.need(8)));
+      case 0xcc:
+        return lua.lua_pushnumber(L, v.getUint8(this.need(1)));
+      case 0xcd:
+        return lua.lua_pushnumber(L, v.getUint16(this.need(2)));
+      case 0xce:
+        return lua.lua_pushnumber(L, v.getUint32(this.need(4)));
+      case 0xcf:
+        return lua.lua_pushnumber(L, Number(v.getBigUint64(this.need(8))));
+      case 0xd0:
+        return lua.lua_pushnumber(L, v.getInt8(this.need(1)));
+      case 0xd1:
+        return lua.lua_pushnumber(L, v.getInt16(this.need(2)));
+      case 0xd2:
+        return lua.lua_pushnumber(L, v.getInt32(this.need(4)));
+      case 0xd3:
+        return lua.lua_pushnumber(L, Number(v.getBigInt64(this.need(8))));
+      case 0xdc:
+        return this.pushArray(L, v.getUint16(this.need(2)));
+      case 0xdd:
+        return this.pushArray(L, v.getUint32(this.need(4)));
+      case 0xde:
+        return this.pushMap(L, v.getUint16(this.need(2)));
+      case 0xdf:
+        return this.pushMap(L, v.getUint32(this.need(4)));
       // Extensions carry no Lua meaning; like cmsgpack, hand the payload over as bytes.
-      case 0xd4: return this.pushExt(L, 1);
-      case 0xd5: return this.pushExt(L, 2);
-      case 0xd6: return this.pushExt(L, 4);
-      case 0xd7: return this.pushExt(L, 8);
-      case 0xd8: return this.pushExt(L, 16);
-      case 0xc7: return this.pushExt(L, v.getUint8(this.need(1)));
-      case 0xc8: return this.pushExt(L, v.getUint16(this.need(2)));
-      case 0xc9: return this.pushExt(L, v.getUint32(this.need(4)));
-      default: throw new Error(`cmsgpack.unpack: bad type byte 0x${b.toString(16)}`);
+      case 0xd4:
+        return this.pushExt(L, 1);
+      case 0xd5:
+        return this.pushExt(L, 2);
+      case 0xd6:
+        return this.pushExt(L, 4);
+      case 0xd7:
+        return this.pushExt(L, 8);
+      case 0xd8:
+        return this.pushExt(L, 16);
+      case 0xc7:
+        return this.pushExt(L, v.getUint8(this.need(1)));
+      case 0xc8:
+        return this.pushExt(L, v.getUint16(this.need(2)));
+      case 0xc9:
+        return this.pushExt(L, v.getUint32(this.need(4)));
+      default:
+        throw new Error(`cmsgpack.unpack: bad type byte 0x${b.toString(16)}`);
     }
   }
   private pushRaw(L: L, n: number): void {
@@ -211,7 +243,8 @@ class MsgpackReader {
     for (let i = 0; i < n; i++) {
       this.push(L);
       this.push(L);
-      if (lua.lua_type(L, -2) === lua.LUA_TNIL) lua.lua_pop(L, 2); // nil keys cannot be stored
+      if (lua.lua_type(L, -2) === lua.LUA_TNIL)
+        lua.lua_pop(L, 2); // nil keys cannot be stored
       else lua.lua_rawset(L, -3);
     }
   }

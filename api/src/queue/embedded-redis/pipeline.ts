@@ -6,7 +6,10 @@
 
 type Method = (...args: unknown[]) => Promise<unknown>;
 
-export function createPipeline(client: Record<string | symbol, unknown>, queued: Array<[string, unknown[]]> = []): unknown {
+export function createPipeline(
+  client: Record<string | symbol, unknown>,
+  queued: Array<[string, unknown[]]> = [],
+): unknown {
   const batch: Array<[string, unknown[]]> = [...queued];
   const own: Record<string | symbol, unknown> = {};
   const exec = (callback?: (err: Error | null, res?: unknown) => void): Promise<Array<[Error | null, unknown]>> => {
@@ -22,7 +25,11 @@ export function createPipeline(client: Record<string | symbol, unknown>, queued:
       }
     });
     const all = Promise.all(replies);
-    if (callback) all.then((r) => callback(null, r), (e: Error) => callback(e));
+    if (callback)
+      all.then(
+        (r) => callback(null, r),
+        (e: Error) => callback(e),
+      );
     return all;
   };
   const proxy: unknown = new Proxy(own, {

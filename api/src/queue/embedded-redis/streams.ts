@@ -178,10 +178,12 @@ export function xlen(host: StreamHost, key: string): number {
 export function xdel(host: StreamHost, key: string, ...ids: Arg[]): number {
   const state = getStream(host, key);
   if (!state) return 0;
-  const wanted = new Set(ids.map((id) => {
-    const [ms, seq] = parseId(String(id), 0);
-    return `${ms}-${seq}`;
-  }));
+  const wanted = new Set(
+    ids.map((id) => {
+      const [ms, seq] = parseId(String(id), 0);
+      return `${ms}-${seq}`;
+    }),
+  );
   const before = state.entries.length;
   state.entries = state.entries.filter((e) => !wanted.has(e.id));
   return before - state.entries.length;

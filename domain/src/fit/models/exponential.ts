@@ -25,7 +25,7 @@ export function compileExponential(input: FitInput, data: CheckedData): Compiled
     for (let i = 0; i < n; i++) {
       const e = Math.exp(x[i]! * inv);
       jac[i] = e;
-      jac[n + i] = (-a * e * x[i]! * inv) * inv;
+      jac[n + i] = -a * e * x[i]! * inv * inv;
     }
   };
   return { paramNames: names, start, min, max, n, evaluate, jacobian };
@@ -38,7 +38,10 @@ function logLinearGuess(x: Float64Array, y: Float64Array, n: number, input: FitI
   const given = input.params ?? {};
   if (!positive && !negative) {
     if (given.A !== undefined && given.s !== undefined) return { A: given.A, s: given.s };
-    validationFail('y', 'exponential start values come from ln y, so y must keep one sign and be non-zero; otherwise give params A and s');
+    validationFail(
+      'y',
+      'exponential start values come from ln y, so y must keep one sign and be non-zero; otherwise give params A and s',
+    );
   }
   if (n < 2) validationFail('y', `too few points: ${n} point(s) for 2 parameter(s)`);
   const a = new Float64Array(2 * n);

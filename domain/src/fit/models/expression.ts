@@ -11,15 +11,67 @@ const math = create(all, { predictable: true });
  * imports, parses or evaluates (import, createUnit, evaluate, parse, simplify …) is reachable.
  */
 const FUNCTIONS = new Set([
-  'exp', 'expm1', 'log', 'log10', 'log2', 'log1p', 'sqrt', 'cbrt', 'nthRoot', 'pow', 'square', 'cube',
-  'abs', 'sign', 'min', 'max', 'hypot', 'floor', 'ceil', 'round', 'mod',
-  'sin', 'cos', 'tan', 'sec', 'csc', 'cot', 'asin', 'acos', 'atan', 'atan2',
-  'sinh', 'cosh', 'tanh', 'asinh', 'acosh', 'atanh', 'erf',
+  'exp',
+  'expm1',
+  'log',
+  'log10',
+  'log2',
+  'log1p',
+  'sqrt',
+  'cbrt',
+  'nthRoot',
+  'pow',
+  'square',
+  'cube',
+  'abs',
+  'sign',
+  'min',
+  'max',
+  'hypot',
+  'floor',
+  'ceil',
+  'round',
+  'mod',
+  'sin',
+  'cos',
+  'tan',
+  'sec',
+  'csc',
+  'cot',
+  'asin',
+  'acos',
+  'atan',
+  'atan2',
+  'sinh',
+  'cosh',
+  'tanh',
+  'asinh',
+  'acosh',
+  'atanh',
+  'erf',
 ]);
 const OPERATORS = new Set([
-  'add', 'subtract', 'multiply', 'divide', 'pow', 'unaryMinus', 'unaryPlus', 'mod',
-  'dotMultiply', 'dotDivide', 'dotPow', 'smaller', 'larger', 'smallerEq', 'largerEq', 'equal', 'unequal',
-  'and', 'or', 'not', 'xor',
+  'add',
+  'subtract',
+  'multiply',
+  'divide',
+  'pow',
+  'unaryMinus',
+  'unaryPlus',
+  'mod',
+  'dotMultiply',
+  'dotDivide',
+  'dotPow',
+  'smaller',
+  'larger',
+  'smallerEq',
+  'largerEq',
+  'equal',
+  'unequal',
+  'and',
+  'or',
+  'not',
+  'xor',
 ]);
 const CONSTANTS = new Set(['pi', 'PI', 'e', 'E', 'tau']);
 export const MAX_EXPRESSION_LENGTH = 2000;
@@ -31,8 +83,10 @@ export interface ParsedExpression {
 
 /** Parses and checks an expression; every rejected construct is named in the error details. */
 export function parseExpression(expr: string): ParsedExpression {
-  if (typeof expr !== 'string' || expr.trim() === '') validationFail('expr', 'an expression is required for model "expression"');
-  if (expr.length > MAX_EXPRESSION_LENGTH) validationFail('expr', `is ${expr.length} characters long; the limit is ${MAX_EXPRESSION_LENGTH}`);
+  if (typeof expr !== 'string' || expr.trim() === '')
+    validationFail('expr', 'an expression is required for model "expression"');
+  if (expr.length > MAX_EXPRESSION_LENGTH)
+    validationFail('expr', `is ${expr.length} characters long; the limit is ${MAX_EXPRESSION_LENGTH}`);
   let node: MathNode;
   try {
     node = math.parse(expr);
@@ -44,7 +98,8 @@ export function parseExpression(expr: string): ParsedExpression {
   node.traverse((nd, _path, parent) => {
     switch (nd.type) {
       case 'ConstantNode':
-        if (typeof (nd as unknown as { value: unknown }).value !== 'number') problems.push(`only numeric constants are allowed (found ${nd.toString()})`);
+        if (typeof (nd as unknown as { value: unknown }).value !== 'number')
+          problems.push(`only numeric constants are allowed (found ${nd.toString()})`);
         return;
       case 'ParenthesisNode':
       case 'ConditionalNode':
@@ -58,7 +113,8 @@ export function parseExpression(expr: string): ParsedExpression {
       case 'FunctionNode': {
         const fnNode = (nd as unknown as { fn: MathNode }).fn;
         const name = fnNode.type === 'SymbolNode' ? (fnNode as unknown as { name: string }).name : undefined;
-        if (!name || !FUNCTIONS.has(name)) problems.push(`function ${name ?? fnNode.toString()} is not allowed (allowed: ${[...FUNCTIONS].join(', ')})`);
+        if (!name || !FUNCTIONS.has(name))
+          problems.push(`function ${name ?? fnNode.toString()} is not allowed (allowed: ${[...FUNCTIONS].join(', ')})`);
         return;
       }
       case 'SymbolNode': {
@@ -67,12 +123,17 @@ export function parseExpression(expr: string): ParsedExpression {
         return;
       }
       default:
-        problems.push(`${nd.type} is not allowed (assignments, indexing, matrices, ranges, strings and units are not part of a fit expression)`);
+        problems.push(
+          `${nd.type} is not allowed (assignments, indexing, matrices, ranges, strings and units are not part of a fit expression)`,
+        );
     }
   });
   if (problems.length > 0) {
     const unique = [...new Set(problems)];
-    throw new ValidationError(`expr: ${unique.join('; ')}`, unique.map((message) => ({ path: 'expr', message })));
+    throw new ValidationError(
+      `expr: ${unique.join('; ')}`,
+      unique.map((message) => ({ path: 'expr', message })),
+    );
   }
   const compiled = node.compile();
   return { symbols, evaluate: (scope) => compiled.evaluate(scope) };
@@ -84,18 +145,24 @@ export function compileExpression(input: FitInput, data: CheckedData): CompiledM
   const given = input.params ?? {};
   const names = Object.keys(given);
   const details: ErrorDetail[] = [];
-  const unknown = [...parsed.symbols].filter((s) => !data.xNames.includes(s) && !Object.hasOwn(given, s) && !CONSTANTS.has(s));
+  const unknown = [...parsed.symbols].filter(
+    (s) => !data.xNames.includes(s) && !Object.hasOwn(given, s) && !CONSTANTS.has(s),
+  );
   if (unknown.length > 0) {
     details.push({
       path: 'expr',
       message: `unknown symbol(s) ${unknown.join(', ')}: each must be an x column (${data.xNames.join(', ')}) or a parameter with a start value in params`,
     });
   }
-  if (names.length === 0) details.push({ path: 'params', message: 'give every parameter of the expression a start value, e.g. { "b1": 1 }' });
+  if (names.length === 0)
+    details.push({ path: 'params', message: 'give every parameter of the expression a start value, e.g. { "b1": 1 }' });
   for (const name of names) {
-    if (data.xNames.includes(name)) details.push({ path: `params.${name}`, message: 'is also an x column; rename one of them' });
-    else if (!parsed.symbols.has(name)) details.push({ path: `params.${name}`, message: 'does not appear in expr, so it cannot be fitted' });
-    if (!Number.isFinite(given[name])) details.push({ path: `params.${name}`, message: `start value must be a finite number, got ${given[name]}` });
+    if (data.xNames.includes(name))
+      details.push({ path: `params.${name}`, message: 'is also an x column; rename one of them' });
+    else if (!parsed.symbols.has(name))
+      details.push({ path: `params.${name}`, message: 'does not appear in expr, so it cannot be fitted' });
+    if (!Number.isFinite(given[name]))
+      details.push({ path: `params.${name}`, message: `start value must be a finite number, got ${given[name]}` });
   }
   if (details.length > 0) throw new ValidationError(details.map((d) => `${d.path}: ${d.message}`).join('; '), details);
 

@@ -29,7 +29,8 @@ export function fitsScale(input: FitInput, y: Float64Array): boolean {
  * Points past the cutoff (1 + z ≤ 0) have zero density.
  */
 export function compilePolytropic(input: FitInput, data: CheckedData): CompiledModel {
-  if (data.x.length !== 1) validationFail('x', `polytropic takes exactly one x column (the potential φ), got ${data.x.length}`);
+  if (data.x.length !== 1)
+    validationFail('x', `polytropic takes exactly one x column (the potential φ), got ${data.x.length}`);
   checkParamNames(input, ['gamma', 'Te_eV', 'n0']);
   const { n, y } = data;
   const phi = data.x[0]!;

@@ -65,7 +65,8 @@ function logLinearStart(logX: Float64Array[], y: Float64Array, n: number, xNames
   logX.forEach((col, k) => a.set(col, (k + 1) * n));
   const b = new Float64Array(n);
   for (let i = 0; i < n; i++) b[i] = Math.log(y[i]!);
-  if (n < p) validationFail('y', `too few points: ${n} point(s) for ${p} parameter(s); a fit needs more points than parameters`);
+  if (n < p)
+    validationFail('y', `too few points: ${n} point(s) for ${p} parameter(s); a fit needs more points than parameters`);
   const sol = solveLeastSquares(a, n, p, b);
   if (!sol) {
     validationFail(

@@ -49,9 +49,14 @@ describe('grid mixed-radix indexing', () => {
   it('round-trips random indices of random grids (property test)', () => {
     fc.assert(
       fc.property(
-        fc.array(fc.integer({ min: 1, max: 10000 }), { minLength: 1, maxLength: 6 }).chain((radices) =>
-          fc.tuple(fc.constant(radices), fc.integer({ min: 0, max: Math.min(Number.MAX_SAFE_INTEGER, gridSize(radices)) - 1 })),
-        ),
+        fc
+          .array(fc.integer({ min: 1, max: 10000 }), { minLength: 1, maxLength: 6 })
+          .chain((radices) =>
+            fc.tuple(
+              fc.constant(radices),
+              fc.integer({ min: 0, max: Math.min(Number.MAX_SAFE_INTEGER, gridSize(radices)) - 1 }),
+            ),
+          ),
         ([radices, i]) => {
           const d = gridDigits(i, radices);
           return gridIndex(d, radices) === i && Array.from(d).every((x, a) => x >= 0 && x < radices[a]!);

@@ -12,7 +12,11 @@ export function gridSize(radices: readonly number[]): number {
 }
 
 /** Digits (one per axis) of grid point `index`, written into `out`. */
-export function gridDigits(index: number, radices: readonly number[], out: Int32Array = new Int32Array(radices.length)): Int32Array {
+export function gridDigits(
+  index: number,
+  radices: readonly number[],
+  out: Int32Array = new Int32Array(radices.length),
+): Int32Array {
   if (!Number.isInteger(index) || index < 0 || index >= gridSize(radices)) {
     throw new RangeError(`grid index ${index} outside 0..${gridSize(radices) - 1}`);
   }
@@ -31,7 +35,8 @@ export function gridIndex(digits: ArrayLike<number>, radices: readonly number[])
   for (let a = 0; a < radices.length; a++) {
     const d = digits[a]!;
     const r = radices[a]!;
-    if (!Number.isInteger(d) || d < 0 || d >= r) throw new RangeError(`grid digit ${d} of axis ${a} outside 0..${r - 1}`);
+    if (!Number.isInteger(d) || d < 0 || d >= r)
+      throw new RangeError(`grid digit ${d} of axis ${a} outside 0..${r - 1}`);
     index = index * r + d;
   }
   return index;

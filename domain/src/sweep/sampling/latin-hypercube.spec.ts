@@ -20,7 +20,12 @@ describe('latin hypercube', () => {
   // Defining property of an LHS (McKay, Beckman & Conover 1979): projected on any axis, each of the
   // n equal strata holds exactly one of the n points.
   it('puts exactly one sample in each stratum of each axis', () => {
-    for (const [n, dims] of [[1, 1], [10, 3], [997, 4], [4096, 2]] as const) {
+    for (const [n, dims] of [
+      [1, 1],
+      [10, 3],
+      [997, 4],
+      [4096, 2],
+    ] as const) {
       const lhs = new LatinHypercube(n, dims, 42);
       for (let d = 0; d < dims; d++) {
         const counts = new Uint32Array(n);

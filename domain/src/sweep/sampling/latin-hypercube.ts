@@ -26,7 +26,8 @@ export class LatinHypercube {
     if (!Number.isInteger(samples) || samples < 1 || samples > MAX_LHS_SAMPLES) {
       throw new RangeError(`latin-hypercube samples ${samples} outside 1..${MAX_LHS_SAMPLES}`);
     }
-    if (!Number.isSafeInteger(seed) || seed < 0) throw new RangeError(`latin-hypercube seed ${seed} must be a non-negative integer`);
+    if (!Number.isSafeInteger(seed) || seed < 0)
+      throw new RangeError(`latin-hypercube seed ${seed} must be a non-negative integer`);
     this.perms = [];
     this.jitterKeys = [];
     for (let a = 0; a < dims; a++) {

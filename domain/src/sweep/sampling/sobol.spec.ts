@@ -37,7 +37,10 @@ describe('Sobol sequence (Joe & Kuo new-joe-kuo-6.21201 direction numbers)', () 
         const n = 2 ** k;
         const counts = new Uint32Array(n);
         for (let i = 0; i < n; i++) counts[Math.floor(sobolCoordinate(i, dim) * n)]! += 1;
-        expect(counts.every((c) => c === 1), `dim ${dim + 1}, k ${k}`).toBe(true);
+        expect(
+          counts.every((c) => c === 1),
+          `dim ${dim + 1}, k ${k}`,
+        ).toBe(true);
       }
       // Any block of 2^k consecutive points starting at a multiple of 2^k has the same property.
       const n = 256;
@@ -59,7 +62,10 @@ describe('Sobol sequence (Joe & Kuo new-joe-kuo-6.21201 direction numbers)', () 
         const b = Math.floor(sobolCoordinate(i, 1) * 2 ** (m - j));
         counts[a * 2 ** (m - j) + b]! += 1;
       }
-      expect(counts.every((c) => c === 1), `j = ${j}`).toBe(true);
+      expect(
+        counts.every((c) => c === 1),
+        `j = ${j}`,
+      ).toBe(true);
     }
   });
 

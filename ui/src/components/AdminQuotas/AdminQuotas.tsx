@@ -19,14 +19,28 @@ function errorsOf(err: unknown): Partial<Record<QuotaKey | 'form', string>> {
   return out;
 }
 
-function QuotaFields({ draft, setDraft, errors, placeholder }: { draft: Draft; setDraft: (d: Draft) => void; errors: Partial<Record<string, string>>; placeholder?: Partial<Quota> }) {
+function QuotaFields({
+  draft,
+  setDraft,
+  errors,
+  placeholder,
+}: {
+  draft: Draft;
+  setDraft: (d: Draft) => void;
+  errors: Partial<Record<string, string>>;
+  placeholder?: Partial<Quota>;
+}) {
   return (
     <SimpleGrid cols={{ base: 1, sm: 2, lg: 4 }}>
       {QUOTA_KEYS.map((k) => (
         <NumberInput
           key={k}
           label={QUOTA_LABELS[k].label}
-          rightSection={<Text fz="xs" c="dimmed" pr={6}>{QUOTA_LABELS[k].unit}</Text>}
+          rightSection={
+            <Text fz="xs" c="dimmed" pr={6}>
+              {QUOTA_LABELS[k].unit}
+            </Text>
+          }
           rightSectionWidth={60}
           thousandSeparator=","
           min={0}
@@ -57,18 +71,46 @@ function RoleDefaultForm({ role, quota }: { role: Role; quota: Quota }) {
     onError: (e) => setErrors(errorsOf(e)),
   });
   return (
-    <Paper withBorder p="md" component="form" onSubmit={(e) => { e.preventDefault(); save.mutate(); }} onKeyDown={ctrlEnter(() => save.mutate())} aria-label={`Quota defaults for ${role}`}>
-      <Group justify="space-between" mb="xs"><Title order={3} fz="h5" tt="capitalize">{role}</Title><Button type="submit" size="xs" loading={save.isPending}>Save {role} defaults</Button></Group>
-      {role === 'reviewer' ? <Text fz="xs" c="dimmed" mb="xs">Reviewers cannot create sweeps whatever these numbers say; keep them at 0.</Text> : null}
+    <Paper
+      withBorder
+      p="md"
+      component="form"
+      onSubmit={(e) => {
+        e.preventDefault();
+        save.mutate();
+      }}
+      onKeyDown={ctrlEnter(() => save.mutate())}
+      aria-label={`Quota defaults for ${role}`}
+    >
+      <Group justify="space-between" mb="xs">
+        <Title order={3} fz="h5" tt="capitalize">
+          {role}
+        </Title>
+        <Button type="submit" size="xs" loading={save.isPending}>
+          Save {role} defaults
+        </Button>
+      </Group>
+      {role === 'reviewer' ? (
+        <Text fz="xs" c="dimmed" mb="xs">
+          Reviewers cannot create sweeps whatever these numbers say; keep them at 0.
+        </Text>
+      ) : null}
       <QuotaFields draft={draft} setDraft={setDraft} errors={errors} />
-      {errors.form ? <Alert color="red" mt="sm">{errors.form}</Alert> : null}
+      {errors.form ? (
+        <Alert color="red" mt="sm">
+          {errors.form}
+        </Alert>
+      ) : null}
     </Paper>
   );
 }
 
 function UserOverrideForm({ defaults }: { defaults: Record<Role, Quota> }) {
   const qc = useQueryClient();
-  const users = useQuery({ queryKey: queryKeys.admin.users({ pageSize: 1000 }), queryFn: () => accountsApi.users({ pageSize: 1000 }) });
+  const users = useQuery({
+    queryKey: queryKeys.admin.users({ pageSize: 1000 }),
+    queryFn: () => accountsApi.users({ pageSize: 1000 }),
+  });
   const doc = useQuery({ queryKey: queryKeys.admin.quotas(), queryFn: accountsApi.quotas });
   const [userId, setUserId] = useState<string | null>(null);
   const [draft, setDraft] = useState<Draft>({});
@@ -81,32 +123,65 @@ function UserOverrideForm({ defaults }: { defaults: Record<Role, Quota> }) {
   const save = useMutation({
     mutationFn: () => {
       // An empty field clears the override for that limit (back to the role default).
-      const patch = Object.fromEntries(QUOTA_KEYS.map((k) => [k, draft[k] === '' || draft[k] === undefined ? null : draft[k]]));
+      const patch = Object.fromEntries(
+        QUOTA_KEYS.map((k) => [k, draft[k] === '' || draft[k] === undefined ? null : draft[k]]),
+      );
       return accountsApi.putUserQuota(Number(userId), patch);
     },
     onMutate: () => setErrors({}),
     onSuccess: (d) => qc.setQueryData(queryKeys.admin.quotas(), d),
     onError: (e) => setErrors(errorsOf(e)),
   });
-  const submit = () => { if (userId) save.mutate(); else setErrors({ user: 'Choose a user first' }); };
+  const submit = () => {
+    if (userId) save.mutate();
+    else setErrors({ user: 'Choose a user first' });
+  };
   return (
-    <Paper withBorder p="md" component="form" onSubmit={(e) => { e.preventDefault(); submit(); }} onKeyDown={ctrlEnter(submit)} aria-label="Per-user override">
-      <Title order={3} fz="h5" mb="xs">Per-user override</Title>
+    <Paper
+      withBorder
+      p="md"
+      component="form"
+      onSubmit={(e) => {
+        e.preventDefault();
+        submit();
+      }}
+      onKeyDown={ctrlEnter(submit)}
+      aria-label="Per-user override"
+    >
+      <Title order={3} fz="h5" mb="xs">
+        Per-user override
+      </Title>
       <Select
         label="User"
         searchable
         placeholder="Pick a user"
-        data={(users.data?.items ?? []).map((u) => ({ value: String(u.id), label: `${u.name} <${u.email}> (${u.role})` }))}
+        data={(users.data?.items ?? []).map((u) => ({
+          value: String(u.id),
+          label: `${u.name} <${u.email}> (${u.role})`,
+        }))}
         value={userId}
         onChange={setUserId}
         error={errors.user}
         mb="sm"
         maw={480}
       />
-      <QuotaFields draft={draft} setDraft={setDraft} errors={errors} placeholder={user ? defaults[user.role] : undefined} />
-      <Text fz="xs" c="dimmed" mt="xs">Leave a field empty to use the role default. Lowering a limit never deletes data; it only refuses new sweeps.</Text>
-      <Button type="submit" mt="sm" loading={save.isPending} disabled={!userId}>Save override</Button>
-      {errors.form ? <Alert color="red" mt="sm">{errors.form}</Alert> : null}
+      <QuotaFields
+        draft={draft}
+        setDraft={setDraft}
+        errors={errors}
+        placeholder={user ? defaults[user.role] : undefined}
+      />
+      <Text fz="xs" c="dimmed" mt="xs">
+        Leave a field empty to use the role default. Lowering a limit never deletes data; it only refuses new sweeps.
+      </Text>
+      <Button type="submit" mt="sm" loading={save.isPending} disabled={!userId}>
+        Save override
+      </Button>
+      {errors.form ? (
+        <Alert color="red" mt="sm">
+          {errors.form}
+        </Alert>
+      ) : null}
     </Paper>
   );
 }
@@ -120,28 +195,67 @@ export function AdminQuotas() {
     onSuccess: (d) => qc.setQueryData(queryKeys.admin.quotas(), d),
   });
   if (doc.error) return <Alert color="red">{doc.error.message}</Alert>;
-  if (!doc.data) return <Text c="dimmed" fz="sm">Loading quotas…</Text>;
-  const show = (v: number | null) => (v === null ? <Text span c="dimmed" fz="xs">role default</Text> : formatCount(v));
+  if (!doc.data)
+    return (
+      <Text c="dimmed" fz="sm">
+        Loading quotas…
+      </Text>
+    );
+  const show = (v: number | null) =>
+    v === null ? (
+      <Text span c="dimmed" fz="xs">
+        role default
+      </Text>
+    ) : (
+      formatCount(v)
+    );
   return (
     <>
-      <Title order={2} fz="h4" mb="sm">Role defaults</Title>
+      <Title order={2} fz="h4" mb="sm">
+        Role defaults
+      </Title>
       <SimpleGrid cols={1} spacing="sm" mb="lg">
-        {ROLES.map((r) => <RoleDefaultForm key={r} role={r} quota={doc.data.defaults[r]} />)}
+        {ROLES.map((r) => (
+          <RoleDefaultForm key={r} role={r} quota={doc.data.defaults[r]} />
+        ))}
       </SimpleGrid>
       <UserOverrideForm defaults={doc.data.defaults} />
-      <Title order={2} fz="h4" mt="lg" mb="sm">Overrides in force</Title>
+      <Title order={2} fz="h4" mt="lg" mb="sm">
+        Overrides in force
+      </Title>
       {doc.data.overrides.length === 0 ? (
-        <Text c="dimmed" fz="sm">No user has an override; everyone has their role’s defaults.</Text>
+        <Text c="dimmed" fz="sm">
+          No user has an override; everyone has their role’s defaults.
+        </Text>
       ) : (
         <Table.ScrollContainer minWidth={720}>
           <Table striped>
-            <Table.Thead><Table.Tr><Table.Th>User</Table.Th>{QUOTA_KEYS.map((k) => <Table.Th key={k}>{QUOTA_LABELS[k].label}</Table.Th>)}<Table.Th /></Table.Tr></Table.Thead>
+            <Table.Thead>
+              <Table.Tr>
+                <Table.Th>User</Table.Th>
+                {QUOTA_KEYS.map((k) => (
+                  <Table.Th key={k}>{QUOTA_LABELS[k].label}</Table.Th>
+                ))}
+                <Table.Th />
+              </Table.Tr>
+            </Table.Thead>
             <Table.Tbody>
               {doc.data.overrides.map((o) => (
                 <Table.Tr key={o.userId}>
-                  <Table.Td><Text fz="sm">{o.name}</Text><Text fz="xs" c="dimmed">{o.email} · {o.role}</Text></Table.Td>
-                  {QUOTA_KEYS.map((k) => <Table.Td key={k}>{show(o[k])}</Table.Td>)}
-                  <Table.Td><Button size="xs" variant="subtle" onClick={() => clear.mutate(o.userId)}>Clear</Button></Table.Td>
+                  <Table.Td>
+                    <Text fz="sm">{o.name}</Text>
+                    <Text fz="xs" c="dimmed">
+                      {o.email} · {o.role}
+                    </Text>
+                  </Table.Td>
+                  {QUOTA_KEYS.map((k) => (
+                    <Table.Td key={k}>{show(o[k])}</Table.Td>
+                  ))}
+                  <Table.Td>
+                    <Button size="xs" variant="subtle" onClick={() => clear.mutate(o.userId)}>
+                      Clear
+                    </Button>
+                  </Table.Td>
                 </Table.Tr>
               ))}
             </Table.Tbody>

@@ -18,11 +18,15 @@ export function AdminUsers() {
   const [page, setPage] = useState(1);
   const [rowError, setRowError] = useState<{ id: number; message: string } | null>(null);
   const filters = { q, role, page };
-  const list = useQuery({ queryKey: queryKeys.admin.users(filters), queryFn: () => accountsApi.users({ ...filters, pageSize: PAGE_SIZE }) });
+  const list = useQuery({
+    queryKey: queryKeys.admin.users(filters),
+    queryFn: () => accountsApi.users({ ...filters, pageSize: PAGE_SIZE }),
+  });
   const patch = useMutation({
     mutationFn: (v: { id: number; patch: { role?: Role; active?: boolean } }) => accountsApi.patchUser(v.id, v.patch),
     onMutate: () => setRowError(null),
-    onError: (err, v) => setRowError({ id: v.id, message: err instanceof ApiError ? err.message : 'The change could not be saved' }),
+    onError: (err, v) =>
+      setRowError({ id: v.id, message: err instanceof ApiError ? err.message : 'The change could not be saved' }),
     onSuccess: () => {
       void qc.invalidateQueries({ queryKey: ['admin', 'users'] });
       void qc.invalidateQueries({ queryKey: ['admin', 'audit'] });
@@ -32,9 +36,17 @@ export function AdminUsers() {
   const rows = (list.data?.items ?? []).map((u: AdminUser) => (
     <Table.Tr key={u.id} data-testid={`user-row-${u.id}`}>
       <Table.Td>
-        <Text fz="sm" fw={500}>{u.name}</Text>
-        <Text fz="xs" c="dimmed">{u.email}</Text>
-        {rowError?.id === u.id ? <Text fz="xs" c="red" role="alert">{rowError.message}</Text> : null}
+        <Text fz="sm" fw={500}>
+          {u.name}
+        </Text>
+        <Text fz="xs" c="dimmed">
+          {u.email}
+        </Text>
+        {rowError?.id === u.id ? (
+          <Text fz="xs" c="red" role="alert">
+            {rowError.message}
+          </Text>
+        ) : null}
       </Table.Td>
       <Table.Td>
         <Select
@@ -54,35 +66,74 @@ export function AdminUsers() {
           label={u.active ? 'Active' : 'Deactivated'}
           onChange={(e) => patch.mutate({ id: u.id, patch: { active: e.currentTarget.checked } })}
         />
-        {u.locked ? <Badge color="yellow" variant="light" mt={4}>locked a few minutes</Badge> : null}
+        {u.locked ? (
+          <Badge color="yellow" variant="light" mt={4}>
+            locked a few minutes
+          </Badge>
+        ) : null}
       </Table.Td>
-      <Table.Td><Text fz="xs">{formatWhen(u.createdAt)}</Text></Table.Td>
+      <Table.Td>
+        <Text fz="xs">{formatWhen(u.createdAt)}</Text>
+      </Table.Td>
     </Table.Tr>
   ));
 
   return (
     <>
       <Group mb="sm" gap="sm" wrap="wrap">
-        <TextInput placeholder="Search by e-mail or name" value={search} onChange={(e) => { setSearch(e.currentTarget.value); setPage(1); }} w={280} aria-label="Search users" />
+        <TextInput
+          placeholder="Search by e-mail or name"
+          value={search}
+          onChange={(e) => {
+            setSearch(e.currentTarget.value);
+            setPage(1);
+          }}
+          w={280}
+          aria-label="Search users"
+        />
         <Select
           placeholder="Any role"
           aria-label="Filter by role"
           data={ROLES.map((r) => ({ value: r, label: r }))}
           value={role || null}
-          onChange={(v) => { setRole((v ?? '') as Role | ''); setPage(1); }}
+          onChange={(v) => {
+            setRole((v ?? '') as Role | '');
+            setPage(1);
+          }}
           clearable
           w={160}
         />
-        {search || role ? <Button variant="subtle" onClick={() => { setSearch(''); setRole(''); }}>Clear filters</Button> : null}
+        {search || role ? (
+          <Button
+            variant="subtle"
+            onClick={() => {
+              setSearch('');
+              setRole('');
+            }}
+          >
+            Clear filters
+          </Button>
+        ) : null}
       </Group>
-      <Text fz="xs" c="dimmed" mb="xs">The last active admin can be neither demoted nor deactivated: make someone else an admin first.</Text>
+      <Text fz="xs" c="dimmed" mb="xs">
+        The last active admin can be neither demoted nor deactivated: make someone else an admin first.
+      </Text>
       {list.error ? <Alert color="red">{list.error.message}</Alert> : null}
       {list.data && list.data.items.length === 0 ? (
-        <Text c="dimmed" fz="sm" py="lg" ta="center">No user matches these filters. Invite people from the Invitations tab.</Text>
+        <Text c="dimmed" fz="sm" py="lg" ta="center">
+          No user matches these filters. Invite people from the Invitations tab.
+        </Text>
       ) : (
         <Table.ScrollContainer minWidth={640}>
           <Table striped verticalSpacing="xs">
-            <Table.Thead><Table.Tr><Table.Th>User</Table.Th><Table.Th>Role</Table.Th><Table.Th>Status</Table.Th><Table.Th>Created</Table.Th></Table.Tr></Table.Thead>
+            <Table.Thead>
+              <Table.Tr>
+                <Table.Th>User</Table.Th>
+                <Table.Th>Role</Table.Th>
+                <Table.Th>Status</Table.Th>
+                <Table.Th>Created</Table.Th>
+              </Table.Tr>
+            </Table.Thead>
             <Table.Tbody>{rows}</Table.Tbody>
           </Table>
         </Table.ScrollContainer>

@@ -4,7 +4,8 @@ import type { DatasetColumn } from '@driftgrid/domain';
 import { formatNumber, prettyUnit } from '../../lib/format.js';
 import { useDatasetSeries } from './datasetsApi.js';
 
-const axisName = (c: { name: string; unit: string }) => (prettyUnit(c.unit) ? `${c.name} [${prettyUnit(c.unit)}]` : c.name);
+const axisName = (c: { name: string; unit: string }) =>
+  prettyUnit(c.unit) ? `${c.name} [${prettyUnit(c.unit)}]` : c.name;
 
 /** A quick scatter of two numeric columns (canonical units), echarts loaded on first draw. */
 export function DatasetScatter({ datasetId, columns }: { datasetId: number; columns: DatasetColumn[] }) {
@@ -27,7 +28,9 @@ export function DatasetScatter({ datasetId, columns }: { datasetId: number; colu
       if (disposed || !ref.current) return;
       chart = init(ref.current, scheme === 'dark' ? 'dark' : undefined);
       const text = scheme === 'dark' ? '#d5dde3' : '#27323a';
-      const pts = data.points.x.map((v, i) => [v, data.points.y[i]]).filter(([a, b]) => (!logX || a > 0) && (!logY || b > 0));
+      const pts = data.points.x
+        .map((v, i) => [v, data.points.y[i]])
+        .filter(([a, b]) => (!logX || a > 0) && (!logY || b > 0));
       chart.setOption({
         backgroundColor: 'transparent',
         animation: false,
@@ -38,9 +41,25 @@ export function DatasetScatter({ datasetId, columns }: { datasetId: number; colu
           formatter: (p: { value: [number, number] }) =>
             `${data.x.name} = ${formatNumber(p.value[0])} ${prettyUnit(data.x.unit)}<br/>${data.y.name} = ${formatNumber(p.value[1])} ${prettyUnit(data.y.unit)}`,
         },
-        xAxis: { type: logX ? 'log' : 'value', name: axisName(data.x), nameLocation: 'middle', nameGap: 32, scale: true, axisLabel: { formatter: (v: number) => formatNumber(v, 3) } },
-        yAxis: { type: logY ? 'log' : 'value', name: axisName(data.y), nameLocation: 'middle', nameGap: 62, scale: true, axisLabel: { formatter: (v: number) => formatNumber(v, 3) } },
-        series: [{ type: 'scatter', symbolSize: 6, data: pts, itemStyle: { color: '#1f6f8b' }, large: pts.length > 5000 }],
+        xAxis: {
+          type: logX ? 'log' : 'value',
+          name: axisName(data.x),
+          nameLocation: 'middle',
+          nameGap: 32,
+          scale: true,
+          axisLabel: { formatter: (v: number) => formatNumber(v, 3) },
+        },
+        yAxis: {
+          type: logY ? 'log' : 'value',
+          name: axisName(data.y),
+          nameLocation: 'middle',
+          nameGap: 62,
+          scale: true,
+          axisLabel: { formatter: (v: number) => formatNumber(v, 3) },
+        },
+        series: [
+          { type: 'scatter', symbolSize: 6, data: pts, itemStyle: { color: '#1f6f8b' }, large: pts.length > 5000 },
+        ],
       });
       window.addEventListener('resize', onResize);
     });
@@ -52,7 +71,11 @@ export function DatasetScatter({ datasetId, columns }: { datasetId: number; colu
   }, [series.data, scheme, logX, logY]);
 
   if (numeric.length === 0) {
-    return <Text size="sm" c="dimmed">This dataset has no numeric columns to plot.</Text>;
+    return (
+      <Text size="sm" c="dimmed">
+        This dataset has no numeric columns to plot.
+      </Text>
+    );
   }
   const options = numeric.map((c) => ({ value: c.name, label: axisName({ name: c.name, unit: c.canonicalUnit }) }));
   return (
@@ -64,10 +87,16 @@ export function DatasetScatter({ datasetId, columns }: { datasetId: number; colu
           <Select label="y" data={options} value={y} onChange={setY} allowDeselect={false} w={220} />
           <Switch label="log y" checked={logY} onChange={(e) => setLogY(e.currentTarget.checked)} />
         </Group>
-        <div ref={ref} style={{ width: '100%', height: 340 }} role="img" aria-label={`Scatter plot of ${y} against ${x}`} />
+        <div
+          ref={ref}
+          style={{ width: '100%', height: 340 }}
+          role="img"
+          aria-label={`Scatter plot of ${y} against ${x}`}
+        />
         {series.data ? (
           <Text size="xs" c="dimmed">
-            {series.data.n} of {series.data.total} points with both values{series.data.n < series.data.total ? ' (thinned evenly)' : ''}.
+            {series.data.n} of {series.data.total} points with both values
+            {series.data.n < series.data.total ? ' (thinned evenly)' : ''}.
           </Text>
         ) : null}
       </Stack>

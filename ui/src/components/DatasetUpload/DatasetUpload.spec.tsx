@@ -8,10 +8,16 @@ const CSV = 'r_cm,phi_V,n,probe\n0,0,1e12,tip-A\n0.5,-0.075,9.7531e11,tip-A\n1,-
 
 function mount(response: { status: number; body: unknown }) {
   const sent: FormData[] = [];
-  vi.stubGlobal('fetch', vi.fn(async (_url: string, init?: RequestInit) => {
-    sent.push(init?.body as FormData);
-    return new Response(JSON.stringify(response.body), { status: response.status, headers: { 'content-type': 'application/json' } });
-  }));
+  vi.stubGlobal(
+    'fetch',
+    vi.fn(async (_url: string, init?: RequestInit) => {
+      sent.push(init?.body as FormData);
+      return new Response(JSON.stringify(response.body), {
+        status: response.status,
+        headers: { 'content-type': 'application/json' },
+      });
+    }),
+  );
   const onUploaded = vi.fn();
   const qc = new QueryClient({ defaultOptions: { mutations: { retry: false } } });
   const view = render(
@@ -35,7 +41,10 @@ afterEach(() => vi.unstubAllGlobals());
 
 describe('DatasetUpload', () => {
   it('previews the first rows, guesses units from names, and sends the unit map', async () => {
-    const { sent, onUploaded, view } = mount({ status: 201, body: { id: 4, name: 'argon-probe', rows: 3, columns: [] } });
+    const { sent, onUploaded, view } = mount({
+      status: 201,
+      body: { id: 4, name: 'argon-probe', rows: 3, columns: [] },
+    });
     await drop(view);
     expect(screen.getByTestId('dataset-preview').textContent).toContain('tip-A');
     expect((screen.getByLabelText('Unit of phi_V') as HTMLInputElement).value).toBe('V');
@@ -53,8 +62,13 @@ describe('DatasetUpload', () => {
     const { view } = mount({
       status: 400,
       body: {
-        statusCode: 400, error: 'Bad Request', message: 'The file has 1 problem; first at line 4, column n',
-        details: [{ path: 'file', line: 4, column: 'n', message: '"oops" is not a number' }, { path: 'units.probe', column: 'probe', message: 'unknown unit "tip"' }],
+        statusCode: 400,
+        error: 'Bad Request',
+        message: 'The file has 1 problem; first at line 4, column n',
+        details: [
+          { path: 'file', line: 4, column: 'n', message: '"oops" is not a number' },
+          { path: 'units.probe', column: 'probe', message: 'unknown unit "tip"' },
+        ],
       },
     });
     await drop(view);

@@ -1,5 +1,17 @@
 import '@mantine/dropzone/styles.css';
-import { Alert, Badge, Button, Group, Paper, ScrollArea, SegmentedControl, Stack, Table, Text, TextInput } from '@mantine/core';
+import {
+  Alert,
+  Badge,
+  Button,
+  Group,
+  Paper,
+  ScrollArea,
+  SegmentedControl,
+  Stack,
+  Table,
+  Text,
+  TextInput,
+} from '@mantine/core';
 import { Dropzone } from '@mantine/dropzone';
 import { IconAlertTriangle, IconFileSpreadsheet, IconUpload, IconX } from '@tabler/icons-react';
 import { useState } from 'react';
@@ -27,7 +39,13 @@ const baseName = (file: File) => file.name.replace(/\.[^.]*$/, '');
  * column (checked by the server with mathjs on submit), then the upload. Server problems are shown
  * per line and column.
  */
-export function DatasetUpload({ onUploaded, onCancel }: { onUploaded: (r: DatasetUploadResult) => void; onCancel?: () => void }) {
+export function DatasetUpload({
+  onUploaded,
+  onCancel,
+}: {
+  onUploaded: (r: DatasetUploadResult) => void;
+  onCancel?: () => void;
+}) {
   const [file, setFile] = useState<File | null>(null);
   const [preview, setPreview] = useState<CsvPreview | null>(null);
   const [units, setUnits] = useState<Record<string, string>>({});
@@ -53,7 +71,8 @@ export function DatasetUpload({ onUploaded, onCancel }: { onUploaded: (r: Datase
 
   const error = upload.error instanceof ApiError ? upload.error : null;
   const rowDetails: ApiErrorDetail[] = error?.details.filter((d) => d.line !== undefined) ?? [];
-  const unitError = (col: string) => error?.details.find((d) => d.path === `units.${col}`)?.message ?? (units[col] ? unitProblem(units[col]) : null);
+  const unitError = (col: string) =>
+    error?.details.find((d) => d.path === `units.${col}`)?.message ?? (units[col] ? unitProblem(units[col]) : null);
   const localProblems = preview ? preview.header.some((h) => units[h] && unitProblem(units[h])) : false;
 
   const submit = () => {
@@ -83,9 +102,12 @@ export function DatasetUpload({ onUploaded, onCancel }: { onUploaded: (r: Datase
             <IconFileSpreadsheet size={40} stroke={1.5} />
           </Dropzone.Idle>
           <div>
-            <Text fw={500}>{file ? `${file.name} (${formatBytes(file.size)})` : 'Drop a CSV here, or click to choose one'}</Text>
+            <Text fw={500}>
+              {file ? `${file.name} (${formatBytes(file.size)})` : 'Drop a CSV here, or click to choose one'}
+            </Text>
             <Text size="sm" c="dimmed">
-              A header row, comma-separated, up to {formatBytes(UPLOAD_HINT_BYTES)} and 200,000 rows. Rows are read in full on the server.
+              A header row, comma-separated, up to {formatBytes(UPLOAD_HINT_BYTES)} and 200,000 rows. Rows are read in
+              full on the server.
             </Text>
           </div>
         </Group>
@@ -100,16 +122,34 @@ export function DatasetUpload({ onUploaded, onCancel }: { onUploaded: (r: Datase
         <Paper withBorder p="md">
           <Stack gap="sm">
             <Group grow align="flex-start">
-              <TextInput label="Name" description="Shown in lists and fits" value={name} onChange={(e) => setName(e.currentTarget.value)} maxLength={200} error={error?.detailFor('name')} />
+              <TextInput
+                label="Name"
+                description="Shown in lists and fits"
+                value={name}
+                onChange={(e) => setName(e.currentTarget.value)}
+                maxLength={200}
+                error={error?.detailFor('name')}
+              />
               <div>
-                <Text size="sm" fw={500}>Visibility</Text>
-                <Text size="xs" c="dimmed" mb={4}>Group: everyone signed in may read it</Text>
-                <SegmentedControl value={visibility} onChange={(v) => setVisibility(v as 'private' | 'group')} data={[{ value: 'private', label: 'Private' }, { value: 'group', label: 'Group' }]} />
+                <Text size="sm" fw={500}>
+                  Visibility
+                </Text>
+                <Text size="xs" c="dimmed" mb={4}>
+                  Group: everyone signed in may read it
+                </Text>
+                <SegmentedControl
+                  value={visibility}
+                  onChange={(v) => setVisibility(v as 'private' | 'group')}
+                  data={[
+                    { value: 'private', label: 'Private' },
+                    { value: 'group', label: 'Group' },
+                  ]}
+                />
               </div>
             </Group>
             <Text size="sm" c="dimmed">
-              Give each numeric column its unit as measured (V, cm^-3, eV, K, G, m/s …); values are stored in canonical units (SI, temperatures in eV). Leave it empty for a
-              dimensionless number or a text column.
+              Give each numeric column its unit as measured (V, cm^-3, eV, K, G, m/s …); values are stored in canonical
+              units (SI, temperatures in eV). Leave it empty for a dimensionless number or a text column.
             </Text>
             <ScrollArea>
               <Table striped withTableBorder withColumnBorders fz="sm" data-testid="dataset-preview">
@@ -119,7 +159,9 @@ export function DatasetUpload({ onUploaded, onCancel }: { onUploaded: (r: Datase
                       <Table.Th key={`${h}-${j}`} miw={140} style={{ verticalAlign: 'top' }}>
                         <Stack gap={4}>
                           <Group gap={6} wrap="nowrap">
-                            <Text fw={600} size="sm">{h || `(column ${j + 1})`}</Text>
+                            <Text fw={600} size="sm">
+                              {h || `(column ${j + 1})`}
+                            </Text>
                             <Badge size="xs" variant="light" color={looksNumeric(preview, j) ? 'tide' : 'gray'}>
                               {looksNumeric(preview, j) ? 'number' : 'text'}
                             </Badge>
@@ -145,7 +187,13 @@ export function DatasetUpload({ onUploaded, onCancel }: { onUploaded: (r: Datase
                   {preview.rows.map((r, i) => (
                     <Table.Tr key={i}>
                       {preview.header.map((_, j) => (
-                        <Table.Td key={j} style={{ fontVariantNumeric: 'tabular-nums', textAlign: looksNumeric(preview, j) ? 'right' : 'left' }}>
+                        <Table.Td
+                          key={j}
+                          style={{
+                            fontVariantNumeric: 'tabular-nums',
+                            textAlign: looksNumeric(preview, j) ? 'right' : 'left',
+                          }}
+                        >
                           {r[j] ?? ''}
                         </Table.Td>
                       ))}
@@ -159,7 +207,12 @@ export function DatasetUpload({ onUploaded, onCancel }: { onUploaded: (r: Datase
             </Text>
 
             {error ? (
-              <Alert color="red" icon={<IconAlertTriangle size={18} />} title={error.status === 413 ? 'Too large' : 'The server refused the file'} data-testid="upload-error">
+              <Alert
+                color="red"
+                icon={<IconAlertTriangle size={18} />}
+                title={error.status === 413 ? 'Too large' : 'The server refused the file'}
+                data-testid="upload-error"
+              >
                 <Text size="sm">{error.message}</Text>
                 {rowDetails.length ? (
                   <Table mt="xs" fz="xs" withTableBorder data-testid="upload-error-rows">
@@ -190,7 +243,13 @@ export function DatasetUpload({ onUploaded, onCancel }: { onUploaded: (r: Datase
                   Cancel
                 </Button>
               ) : null}
-              <Button leftSection={<IconUpload size={16} />} onClick={submit} loading={upload.isPending} disabled={localProblems} title="Ctrl+Enter">
+              <Button
+                leftSection={<IconUpload size={16} />}
+                onClick={submit}
+                loading={upload.isPending}
+                disabled={localProblems}
+                title="Ctrl+Enter"
+              >
                 Upload dataset
               </Button>
             </Group>

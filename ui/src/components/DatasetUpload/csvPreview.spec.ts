@@ -5,7 +5,10 @@ describe('parseCsvPreview', () => {
   it('reads a header and the first rows, with RFC 4180 quotes', () => {
     const p = parseCsvPreview('\ufeffr,phi,note\r\n0,0,"tip ""A"", left"\n0.5,-0.075,"two\nlines"\n', 10);
     expect(p.header).toEqual(['r', 'phi', 'note']);
-    expect(p.rows).toEqual([['0', '0', 'tip "A", left'], ['0.5', '-0.075', 'two\nlines']]);
+    expect(p.rows).toEqual([
+      ['0', '0', 'tip "A", left'],
+      ['0.5', '-0.075', 'two\nlines'],
+    ]);
     expect(p.truncated).toBe(false);
   });
 

@@ -45,7 +45,11 @@ export function parseCsvPreview(text: string, maxRows = 10): CsvPreview {
   const atEnd = i >= src.length;
   if (atEnd && (field !== '' || record.length)) endRecord();
   const [header = [], ...rows] = records;
-  return { header: header.map((h) => h.trim()), rows: rows.slice(0, maxRows), truncated: !atEnd || rows.length > maxRows };
+  return {
+    header: header.map((h) => h.trim()),
+    rows: rows.slice(0, maxRows),
+    truncated: !atEnd || rows.length > maxRows,
+  };
 }
 
 /** Whether the preview's cells of column j look numeric (the server decides on the whole file). */

@@ -18,7 +18,10 @@ export function useDatasetList(query: { page: number; pageSize: number; q?: stri
 }
 
 export function useDataset(id: string | number) {
-  return useQuery({ queryKey: queryKeys.datasets.detail(id), queryFn: ({ signal }) => api.get<DatasetView>(`/datasets/${id}`, undefined, signal) });
+  return useQuery({
+    queryKey: queryKeys.datasets.detail(id),
+    queryFn: ({ signal }) => api.get<DatasetView>(`/datasets/${id}`, undefined, signal),
+  });
 }
 
 export function useDatasetRows(id: string | number, page: number, pageSize: number) {

@@ -24,7 +24,11 @@ export function EmptyState({ icon: Glyph, title, children, actions }: EmptyState
       <Text c="dimmed" component="div" fz="sm" style={{ lineHeight: 1.55 }}>
         {children}
       </Text>
-      {actions ? <div style={{ marginTop: 8, display: 'flex', gap: 8, flexWrap: 'wrap', justifyContent: 'center' }}>{actions}</div> : null}
+      {actions ? (
+        <div style={{ marginTop: 8, display: 'flex', gap: 8, flexWrap: 'wrap', justifyContent: 'center' }}>
+          {actions}
+        </div>
+      ) : null}
     </Stack>
   );
 }

@@ -10,11 +10,25 @@ const SHA = 'ab'.repeat(32);
 
 function sweep(patch: Partial<SweepView> = {}): SweepView {
   return {
-    id: 7, name: 'Argon column scan', model: 'cross-field', status: 'completed', points: 35,
-    progress: { done: 35, total: 35, fraction: 1 }, chunks: 1, definition: {}, columns: [], tags: [],
-    owner: { id: 2, name: 'Ruth Researcher', email: 'researcher@example.com' }, visibility: 'private', sharedWith: [],
-    createdAt: '2026-01-01T00:00:00.000Z', startedAt: null, finishedAt: '2026-01-01T00:01:00.000Z', error: null,
-    flagsSummary: { invalidPoints: 0, byFlag: {} }, provenance: { modelVersion: '1.0.0', appVersion: '0.1.0', computeMs: 1, workers: [] },
+    id: 7,
+    name: 'Argon column scan',
+    model: 'cross-field',
+    status: 'completed',
+    points: 35,
+    progress: { done: 35, total: 35, fraction: 1 },
+    chunks: 1,
+    definition: {},
+    columns: [],
+    tags: [],
+    owner: { id: 2, name: 'Ruth Researcher', email: 'researcher@example.com' },
+    visibility: 'private',
+    sharedWith: [],
+    createdAt: '2026-01-01T00:00:00.000Z',
+    startedAt: null,
+    finishedAt: '2026-01-01T00:01:00.000Z',
+    error: null,
+    flagsSummary: { invalidPoints: 0, byFlag: {} },
+    provenance: { modelVersion: '1.0.0', appVersion: '0.1.0', computeMs: 1, workers: [] },
     ...patch,
   };
 }
@@ -26,19 +40,27 @@ function Host() {
 }
 
 function mount(me: { id: number; role: string }, current: SweepView, archived?: SweepView) {
-  setSession({ accessToken: 'test-token', user: { id: me.id, email: 'x@example.com', name: 'X', role: me.role as 'researcher' } });
+  setSession({
+    accessToken: 'test-token',
+    user: { id: me.id, email: 'x@example.com', name: 'X', role: me.role as 'researcher' },
+  });
   const calls: { url: string; method: string }[] = [];
-  vi.stubGlobal('fetch', vi.fn(async (url: string, init?: RequestInit) => {
-    calls.push({ url, method: init?.method ?? 'GET' });
-    const json = (body: unknown) => new Response(JSON.stringify(body), { status: 200, headers: { 'content-type': 'application/json' } });
-    if (url.startsWith('/api/auth/me')) return json({ id: me.id, email: 'x@example.com', name: 'X', role: me.role, quota: {}, usage: {} });
-    if (url === '/api/sweeps/7/archive' && init?.method === 'POST') {
-      current = archived!;
-      return json(archived);
-    }
-    if (url === '/api/sweeps/7') return json(current);
-    return new Response('{}', { status: 404 });
-  }));
+  vi.stubGlobal(
+    'fetch',
+    vi.fn(async (url: string, init?: RequestInit) => {
+      calls.push({ url, method: init?.method ?? 'GET' });
+      const json = (body: unknown) =>
+        new Response(JSON.stringify(body), { status: 200, headers: { 'content-type': 'application/json' } });
+      if (url.startsWith('/api/auth/me'))
+        return json({ id: me.id, email: 'x@example.com', name: 'X', role: me.role, quota: {}, usage: {} });
+      if (url === '/api/sweeps/7/archive' && init?.method === 'POST') {
+        current = archived!;
+        return json(archived);
+      }
+      if (url === '/api/sweeps/7') return json(current);
+      return new Response('{}', { status: 404 });
+    }),
+  );
   const qc = new QueryClient({ defaultOptions: { queries: { retry: false } } });
   render(
     <MantineProvider env="test">
@@ -55,7 +77,10 @@ afterEach(() => vi.unstubAllGlobals());
 
 describe('ExportActions', () => {
   it('lets the owner archive a completed sweep after a confirmation that says it freezes the sweep', async () => {
-    const archived = sweep({ status: 'archived', archive: { sha256: SHA, bytes: 5120, archivedAt: '2026-01-02T00:00:00.000Z' } });
+    const archived = sweep({
+      status: 'archived',
+      archive: { sha256: SHA, bytes: 5120, archivedAt: '2026-01-02T00:00:00.000Z' },
+    });
     const calls = mount({ id: 2, role: 'researcher' }, sweep(), archived);
     fireEvent.click(await screen.findByTestId('archive-open'));
     expect((await screen.findByText(/Archiving freezes the sweep/)).textContent).toMatch(/cannot be undone/);
@@ -67,7 +92,10 @@ describe('ExportActions', () => {
   });
 
   it('offers no archive action to a reviewer, and shows the digest of an archived sweep', async () => {
-    mount({ id: 3, role: 'reviewer' }, sweep({ status: 'archived', archive: { sha256: SHA, bytes: 100, archivedAt: '2026-01-02T00:00:00.000Z' } }));
+    mount(
+      { id: 3, role: 'reviewer' },
+      sweep({ status: 'archived', archive: { sha256: SHA, bytes: 100, archivedAt: '2026-01-02T00:00:00.000Z' } }),
+    );
     expect((await screen.findByTestId('archive-sha256')).textContent).toBe(SHA);
     expect(screen.getByTestId('export-download')).toBeTruthy();
     expect(screen.queryByTestId('archive-open')).toBeNull();

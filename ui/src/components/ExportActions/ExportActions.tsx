@@ -34,7 +34,11 @@ export function ExportActions({ sweep }: { sweep: SweepView }) {
       qc.setQueryData(queryKeys.sweeps.detail(sweep.id), s);
       void qc.invalidateQueries({ queryKey: queryKeys.sweeps.all() });
       setConfirming(false);
-      notifications.show({ title: 'Sweep archived', message: `${sweep.name} is frozen; its export has a SHA-256.`, icon: <IconLock size={16} /> });
+      notifications.show({
+        title: 'Sweep archived',
+        message: `${sweep.name} is frozen; its export has a SHA-256.`,
+        icon: <IconLock size={16} />,
+      });
     },
   });
 
@@ -44,11 +48,22 @@ export function ExportActions({ sweep }: { sweep: SweepView }) {
   return (
     <Stack gap="sm" data-testid="export-actions">
       <Group gap="sm">
-        <Button leftSection={<IconDownload size={16} />} onClick={() => download.mutate()} loading={download.isPending} disabled={!canExport} data-testid="export-download">
+        <Button
+          leftSection={<IconDownload size={16} />}
+          onClick={() => download.mutate()}
+          loading={download.isPending}
+          disabled={!canExport}
+          data-testid="export-download"
+        >
           Download zipped CSV
         </Button>
         {mayManage && sweep.status === 'completed' ? (
-          <Button variant="light" leftSection={<IconArchive size={16} />} onClick={() => setConfirming(true)} data-testid="archive-open">
+          <Button
+            variant="light"
+            leftSection={<IconArchive size={16} />}
+            onClick={() => setConfirming(true)}
+            data-testid="archive-open"
+          >
             Archive…
           </Button>
         ) : null}
@@ -59,7 +74,8 @@ export function ExportActions({ sweep }: { sweep: SweepView }) {
         </Text>
       ) : (
         <Text size="sm" c="dimmed">
-          results.csv (full precision), columns.csv (name, unit, meaning), manifest.json (definition, versions, SHA-256, fits) and README.txt (flags and cautions).
+          results.csv (full precision), columns.csv (name, unit, meaning), manifest.json (definition, versions, SHA-256,
+          fits) and README.txt (flags and cautions).
         </Text>
       )}
       {download.error ? (
@@ -73,7 +89,8 @@ export function ExportActions({ sweep }: { sweep: SweepView }) {
           <Group gap={6}>
             <IconLock size={16} aria-hidden />
             <Text size="sm">
-              Archived {sweep.archive.archivedAt ? new Date(sweep.archive.archivedAt).toLocaleString() : ''}: the sweep and its export are frozen.
+              Archived {sweep.archive.archivedAt ? new Date(sweep.archive.archivedAt).toLocaleString() : ''}: the sweep
+              and its export are frozen.
             </Text>
           </Group>
           <ArchiveDigest sha256={sweep.archive.sha256} bytes={sweep.archive.bytes} />
@@ -95,8 +112,9 @@ export function ExportActions({ sweep }: { sweep: SweepView }) {
       <Modal opened={confirming} onClose={() => setConfirming(false)} title="Archive this sweep?" centered>
         <Stack gap="sm">
           <Text size="sm">
-            Archiving freezes the sweep: its definition, rows and the fits attached so far can no longer be changed or deleted. The zipped CSV is built once, stored with its
-            SHA-256, and every later download is that same file. Everyone signed in, reviewers included, can then find and download it. This cannot be undone.
+            Archiving freezes the sweep: its definition, rows and the fits attached so far can no longer be changed or
+            deleted. The zipped CSV is built once, stored with its SHA-256, and every later download is that same file.
+            Everyone signed in, reviewers included, can then find and download it. This cannot be undone.
           </Text>
           <Text size="sm" c="dimmed">
             Fits made after archiving are kept as usual but are not added to the frozen zip.
@@ -110,7 +128,12 @@ export function ExportActions({ sweep }: { sweep: SweepView }) {
             <Button variant="default" onClick={() => setConfirming(false)}>
               Keep it open
             </Button>
-            <Button leftSection={<IconArchive size={16} />} onClick={() => archive.mutate()} loading={archive.isPending} data-testid="archive-confirm">
+            <Button
+              leftSection={<IconArchive size={16} />}
+              onClick={() => archive.mutate()}
+              loading={archive.isPending}
+              data-testid="archive-confirm"
+            >
               Freeze and archive
             </Button>
           </Group>

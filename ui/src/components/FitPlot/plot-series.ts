@@ -38,7 +38,16 @@ export function fitPlotSeries(plot: FitPlotData, yName: string): FitPlotSeries {
     }
     fitted.sort((a, b) => a[0] - b[0]);
     const logOk = observed.every(([x, y]) => x > 0 && y > 0) && fitted.every(([, y]) => y > 0);
-    return { kind: 'curve', xLabel: plot.xNames[0]!, yLabel: yName, observed, fitted, residuals, residualXLabel: plot.xNames[0]!, logOk };
+    return {
+      kind: 'curve',
+      xLabel: plot.xNames[0]!,
+      yLabel: yName,
+      observed,
+      fitted,
+      residuals,
+      residualXLabel: plot.xNames[0]!,
+      logOk,
+    };
   }
   const negative = plot.y.every((v) => !ok(v) || v < 0);
   const sign = negative ? -1 : 1;
@@ -56,7 +65,21 @@ export function fitPlotSeries(plot: FitPlotData, yName: string): FitPlotSeries {
     if (ok(plot.residuals[i])) residuals.push([f, plot.residuals[i]!]);
   }
   const label = negative ? `|${yName}|` : yName;
-  const fitted: Pair[] = observed.length ? [[lo, lo], [hi, hi]] : [];
+  const fitted: Pair[] = observed.length
+    ? [
+        [lo, lo],
+        [hi, hi],
+      ]
+    : [];
   const logOk = observed.every(([a, b]) => a > 0 && b > 0);
-  return { kind: 'parity', xLabel: `observed ${label}`, yLabel: `predicted ${label}`, observed, fitted, residuals, residualXLabel: `predicted ${yName}`, logOk };
+  return {
+    kind: 'parity',
+    xLabel: `observed ${label}`,
+    yLabel: `predicted ${label}`,
+    observed,
+    fitted,
+    residuals,
+    residualXLabel: `predicted ${yName}`,
+    logOk,
+  };
 }

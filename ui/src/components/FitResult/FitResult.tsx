@@ -16,8 +16,12 @@ function paramLabel(name: string): string {
 function Stat({ label, children, testId }: { label: string; children: React.ReactNode; testId?: string }) {
   return (
     <div data-testid={testId}>
-      <Text fz="xs" c="dimmed">{label}</Text>
-      <Text fz="sm" component="div">{children}</Text>
+      <Text fz="xs" c="dimmed">
+        {label}
+      </Text>
+      <Text fz="sm" component="div">
+        {children}
+      </Text>
     </div>
   );
 }
@@ -39,14 +43,25 @@ export function FitResult({ fit }: { fit: FitView }) {
           </Text>
           <FitStatus fit={fit} />
         </Group>
-        {live ? <Text fz="sm" c="dimmed">This fit runs in the background; the result appears here when it is done.</Text> : null}
+        {live ? (
+          <Text fz="sm" c="dimmed">
+            This fit runs in the background; the result appears here when it is done.
+          </Text>
+        ) : null}
         {fit.error && !fit.parameters ? (
-          <Alert color="red" variant="light" icon={<IconAlertTriangle size={16} />} title="The fit failed">{fit.error}</Alert>
+          <Alert color="red" variant="light" icon={<IconAlertTriangle size={16} />} title="The fit failed">
+            {fit.error}
+          </Alert>
         ) : null}
         {fit.parameters ? (
           <>
             {fit.converged === false ? (
-              <Alert color="orange" variant="light" icon={<IconAlertTriangle size={16} />} title="Not converged — do not use these values">
+              <Alert
+                color="orange"
+                variant="light"
+                icon={<IconAlertTriangle size={16} />}
+                title="Not converged — do not use these values"
+              >
                 {fit.message}
               </Alert>
             ) : null}
@@ -61,10 +76,22 @@ export function FitResult({ fit }: { fit: FitView }) {
               </Table.Thead>
               <Table.Tbody>
                 {fit.parameters.map((p) => (
-                  <Table.Tr key={p.name} data-testid={`fit-param-${p.name}`} data-value={String(p.value)} data-stderr={String(p.stdError)}>
+                  <Table.Tr
+                    key={p.name}
+                    data-testid={`fit-param-${p.name}`}
+                    data-value={String(p.value)}
+                    data-stderr={String(p.stdError)}
+                  >
                     <Table.Td>
-                      <Text fz="sm" ff="monospace" span>{p.name}</Text>
-                      {paramLabel(p.name) !== p.name ? <Text fz="xs" c="dimmed" span> — {paramLabel(p.name)}</Text> : null}
+                      <Text fz="sm" ff="monospace" span>
+                        {p.name}
+                      </Text>
+                      {paramLabel(p.name) !== p.name ? (
+                        <Text fz="xs" c="dimmed" span>
+                          {' '}
+                          — {paramLabel(p.name)}
+                        </Text>
+                      ) : null}
                     </Table.Td>
                     <Table.Td ta="right">
                       <Num value={p.value} sig={6} /> ± <Num value={p.stdError} sig={3} />
@@ -74,7 +101,9 @@ export function FitResult({ fit }: { fit: FitView }) {
                         <>
                           <Num value={p.ci95.low} sig={6} /> … <Num value={p.ci95.high} sig={6} />
                         </>
-                      ) : '—'}
+                      ) : (
+                        '—'
+                      )}
                     </Table.Td>
                     <Table.Td>{p.unit === '1' ? 'dimensionless' : p.unit ? prettyUnit(p.unit) : '—'}</Table.Td>
                   </Table.Tr>
@@ -84,23 +113,48 @@ export function FitResult({ fit }: { fit: FitView }) {
             <SimpleGrid cols={{ base: 2, sm: 4 }} spacing="sm">
               <Stat label="Converged" testId="fit-converged">
                 <Group gap={4} wrap="nowrap">
-                  {fit.converged ? <IconCircleCheck size={16} color="var(--mantine-color-moss-6)" aria-hidden /> : <IconAlertTriangle size={16} color="var(--mantine-color-rust-6)" aria-hidden />}
+                  {fit.converged ? (
+                    <IconCircleCheck size={16} color="var(--mantine-color-moss-6)" aria-hidden />
+                  ) : (
+                    <IconAlertTriangle size={16} color="var(--mantine-color-rust-6)" aria-hidden />
+                  )}
                   {fit.converged ? 'Yes' : 'No'}
                 </Group>
               </Stat>
-              <Stat label="R²" testId="fit-r2"><Num value={fit.r2} sig={8} /></Stat>
-              <Stat label="RMSE"><Num value={fit.rmse} /></Stat>
-              <Stat label="Residual standard deviation"><Num value={fit.residualSd} /></Stat>
-              {fit.chi2red !== undefined ? <Stat label="Reduced χ²"><Num value={fit.chi2red} /></Stat> : null}
-              <Stat label="Degrees of freedom"><Num value={fit.dof} /></Stat>
-              <Stat label="Iterations"><Num value={fit.iterations} /></Stat>
-              <Stat label="Points used" testId="fit-n"><Num value={fit.n} /></Stat>
-              <Stat label="Rows dropped (missing values)" testId="fit-dropped"><Num value={fit.dropped} /></Stat>
+              <Stat label="R²" testId="fit-r2">
+                <Num value={fit.r2} sig={8} />
+              </Stat>
+              <Stat label="RMSE">
+                <Num value={fit.rmse} />
+              </Stat>
+              <Stat label="Residual standard deviation">
+                <Num value={fit.residualSd} />
+              </Stat>
+              {fit.chi2red !== undefined ? (
+                <Stat label="Reduced χ²">
+                  <Num value={fit.chi2red} />
+                </Stat>
+              ) : null}
+              <Stat label="Degrees of freedom">
+                <Num value={fit.dof} />
+              </Stat>
+              <Stat label="Iterations">
+                <Num value={fit.iterations} />
+              </Stat>
+              <Stat label="Points used" testId="fit-n">
+                <Num value={fit.n} />
+              </Stat>
+              <Stat label="Rows dropped (missing values)" testId="fit-dropped">
+                <Num value={fit.dropped} />
+              </Stat>
             </SimpleGrid>
             <Text fz="xs" c="dimmed">
-              {fit.message}. Intervals: value ± t·(standard error), t = <Num value={fit.confidence?.t} sig={5} /> the Student-t quantile for
-              {' '}{fit.dof} degrees of freedom. Standard errors from s²·(JᵀJ)⁻¹{fit.chi2red !== undefined ? ' scaled by the reduced χ² (weighted fit)' : ''}.
-              {fit.signRestored ? ' y is negative everywhere: the power law was fitted to |y| and C carries the sign.' : ''}
+              {fit.message}. Intervals: value ± t·(standard error), t = <Num value={fit.confidence?.t} sig={5} /> the
+              Student-t quantile for {fit.dof} degrees of freedom. Standard errors from s²·(JᵀJ)⁻¹
+              {fit.chi2red !== undefined ? ' scaled by the reduced χ² (weighted fit)' : ''}.
+              {fit.signRestored
+                ? ' y is negative everywhere: the power law was fitted to |y| and C carries the sign.'
+                : ''}
             </Text>
           </>
         ) : null}

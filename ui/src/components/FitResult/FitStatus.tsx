@@ -3,10 +3,20 @@ import { IconAlertTriangle, IconCircleCheck, IconHourglass, IconPlayerPlay, type
 import type { FitView } from './fit-types.js';
 
 const LOOK: Record<string, { label: string; icon: Icon; color: string; meaning: string }> = {
-  queued: { label: 'Queued', icon: IconHourglass, color: 'iris', meaning: 'Waiting to run (long fits run off the request)' },
+  queued: {
+    label: 'Queued',
+    icon: IconHourglass,
+    color: 'iris',
+    meaning: 'Waiting to run (long fits run off the request)',
+  },
   running: { label: 'Running', icon: IconPlayerPlay, color: 'tide', meaning: 'The optimiser is working' },
   completed: { label: 'Converged', icon: IconCircleCheck, color: 'moss', meaning: 'The fit converged' },
-  failed: { label: 'Not converged', icon: IconAlertTriangle, color: 'rust', meaning: 'The fit stopped without converging, or failed' },
+  failed: {
+    label: 'Not converged',
+    icon: IconAlertTriangle,
+    color: 'rust',
+    meaning: 'The fit stopped without converging, or failed',
+  },
 };
 
 /** Fit status in words plus an icon (SPEC §12: never colour alone). */
@@ -17,7 +27,18 @@ export function FitStatus({ fit }: { fit: Pick<FitView, 'status' | 'progress' | 
   const Glyph = look.icon;
   const live = fit.status === 'queued' || fit.status === 'running';
   return (
-    <Badge variant="light" color={look.color} radius="sm" tt="none" fw={500} leftSection={<Glyph size={13} stroke={2} aria-hidden />} title={look.meaning} style={{ flexShrink: 0, overflow: 'visible' }} data-testid="fit-status" data-status={fit.status}>
+    <Badge
+      variant="light"
+      color={look.color}
+      radius="sm"
+      tt="none"
+      fw={500}
+      leftSection={<Glyph size={13} stroke={2} aria-hidden />}
+      title={look.meaning}
+      style={{ flexShrink: 0, overflow: 'visible' }}
+      data-testid="fit-status"
+      data-status={fit.status}
+    >
       {live ? `${label} · ${Math.round(fit.progress * 100)} %` : label}
     </Badge>
   );

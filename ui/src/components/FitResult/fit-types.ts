@@ -57,8 +57,10 @@ export type FitCreated = FitView | { id: number; status: 'queued'; progress: num
 export const fitsApi = {
   create: (body: FitRequestBody) => api.post<FitCreated>('/fits', body),
   get: (id: number | string, signal?: AbortSignal) => api.get<FitView>(`/fits/${id}`, undefined, signal),
-  list: (q: { sourceKind?: FitSourceKind; sourceId?: number; page?: number; pageSize?: number }, signal?: AbortSignal) =>
-    api.get<Page<FitView>>('/fits', q, signal),
+  list: (
+    q: { sourceKind?: FitSourceKind; sourceId?: number; page?: number; pageSize?: number },
+    signal?: AbortSignal,
+  ) => api.get<Page<FitView>>('/fits', q, signal),
 };
 
 export const LIVE_FIT = new Set(['queued', 'running']);

@@ -1,4 +1,18 @@
-import { ActionIcon, Alert, Button, Checkbox, Group, MultiSelect, Paper, Select, SimpleGrid, Stack, Text, TextInput, Textarea } from '@mantine/core';
+import {
+  ActionIcon,
+  Alert,
+  Button,
+  Checkbox,
+  Group,
+  MultiSelect,
+  Paper,
+  Select,
+  SimpleGrid,
+  Stack,
+  Text,
+  TextInput,
+  Textarea,
+} from '@mantine/core';
 import { IconMathFunction, IconPlus, IconTrash } from '@tabler/icons-react';
 import { useMemo, useState, type KeyboardEvent } from 'react';
 import { ApiError } from '../../api/client.js';
@@ -13,10 +27,26 @@ export interface FitColumn {
 }
 
 const MODELS: { value: FitModel; label: string; hint: string }[] = [
-  { value: 'power-law', label: 'Power law  y = C·∏ xₖ^aₖ', hint: 'Parameters C and exp_<column>; start from a log–log least-squares fit. A y of one sign (negative everywhere) is fitted as |y| with the sign on C.' },
-  { value: 'exponential', label: 'Exponential  y = A·exp(x/s)', hint: 'The Boltzmann form: with x = φ in V, the fitted s is Te in eV.' },
-  { value: 'polytropic', label: 'Polytropic  n/n₀ against φ', hint: 'n/n₀ = [1 + ((γ−1)/γ)·φ/Te]^(1/(γ−1)); fits γ and Te (eV), γ = 1 is the Boltzmann relation.' },
-  { value: 'expression', label: 'Expression (your own model)', hint: 'A mathjs expression over the x columns with named parameters, e.g. A * exp(phi_V / T) with A = 1, T = 4.' },
+  {
+    value: 'power-law',
+    label: 'Power law  y = C·∏ xₖ^aₖ',
+    hint: 'Parameters C and exp_<column>; start from a log–log least-squares fit. A y of one sign (negative everywhere) is fitted as |y| with the sign on C.',
+  },
+  {
+    value: 'exponential',
+    label: 'Exponential  y = A·exp(x/s)',
+    hint: 'The Boltzmann form: with x = φ in V, the fitted s is Te in eV.',
+  },
+  {
+    value: 'polytropic',
+    label: 'Polytropic  n/n₀ against φ',
+    hint: 'n/n₀ = [1 + ((γ−1)/γ)·φ/Te]^(1/(γ−1)); fits γ and Te (eV), γ = 1 is the Boltzmann relation.',
+  },
+  {
+    value: 'expression',
+    label: 'Expression (your own model)',
+    hint: 'A mathjs expression over the x columns with named parameters, e.g. A * exp(phi_V / T) with A = 1, T = 4.',
+  },
 ];
 
 /** Columns a fit can use: numbers only (not the flag mask or text). */
@@ -34,7 +64,11 @@ function option(c: FitColumn) {
  * Errors appear beside their fields, from the form's own checks or the server's details; Ctrl+Enter runs.
  */
 export function FitBuilder({
-  source, columns, pending, error, onSubmit,
+  source,
+  columns,
+  pending,
+  error,
+  onSubmit,
 }: {
   source: { kind: FitSourceKind; id: number };
   columns: FitColumn[];
@@ -53,7 +87,10 @@ export function FitBuilder({
   const options = numeric.filter((c) => c.name !== 'valid' && c.kind !== 'index').map(option);
   const apiErr = error instanceof ApiError ? error : null;
   const serverFor = (prefix: string) =>
-    apiErr?.details.filter((d) => d.path === prefix || d.path?.startsWith(`${prefix}.`)).map((d) => d.message).join('; ') || undefined;
+    apiErr?.details
+      .filter((d) => d.path === prefix || d.path?.startsWith(`${prefix}.`))
+      .map((d) => d.message)
+      .join('; ') || undefined;
   const fieldError = (key: string) => local[key] ?? serverFor(key);
   const single = SINGLE_X.has(s.model);
   const hint = MODELS.find((m) => m.value === s.model)!.hint;
@@ -75,74 +112,198 @@ export function FitBuilder({
   };
 
   return (
-    <Paper withBorder p="md" radius="sm" component="form" noValidate aria-label="Fit builder" data-testid="fit-builder"
-      onSubmit={(e) => { e.preventDefault(); submit(); }} onKeyDown={onKeyDown}>
+    <Paper
+      withBorder
+      p="md"
+      radius="sm"
+      component="form"
+      noValidate
+      aria-label="Fit builder"
+      data-testid="fit-builder"
+      onSubmit={(e) => {
+        e.preventDefault();
+        submit();
+      }}
+      onKeyDown={onKeyDown}
+    >
       <Stack gap="sm">
         <Select
-          label="Model" data-testid="fit-model" allowDeselect={false} value={s.model}
+          label="Model"
+          data-testid="fit-model"
+          allowDeselect={false}
+          value={s.model}
           data={MODELS.map((m) => ({ value: m.value, label: m.label }))}
-          onChange={(v) => update({ model: (v ?? 'power-law') as FitModel, x: SINGLE_X.has((v ?? '') as FitModel) ? s.x.slice(0, 1) : s.x })}
+          onChange={(v) =>
+            update({
+              model: (v ?? 'power-law') as FitModel,
+              x: SINGLE_X.has((v ?? '') as FitModel) ? s.x.slice(0, 1) : s.x,
+            })
+          }
           description={hint}
         />
         <SimpleGrid cols={{ base: 1, sm: 2 }} spacing="sm">
-          <Select label="y (the column to fit)" data-testid="fit-y" searchable placeholder="Choose a column" data={options} value={s.y}
-            onChange={(v) => update({ y: v })} error={fieldError('y')} />
+          <Select
+            label="y (the column to fit)"
+            data-testid="fit-y"
+            searchable
+            placeholder="Choose a column"
+            data={options}
+            value={s.y}
+            onChange={(v) => update({ y: v })}
+            error={fieldError('y')}
+          />
           {single ? (
-            <Select label="x" data-testid="fit-x" searchable placeholder="Choose a column" data={options.filter((o) => o.value !== s.y)}
-              value={s.x[0] ?? null} onChange={(v) => update({ x: v ? [v] : [] })} error={fieldError('x')} />
+            <Select
+              label="x"
+              data-testid="fit-x"
+              searchable
+              placeholder="Choose a column"
+              data={options.filter((o) => o.value !== s.y)}
+              value={s.x[0] ?? null}
+              onChange={(v) => update({ x: v ? [v] : [] })}
+              error={fieldError('x')}
+            />
           ) : (
-            <MultiSelect label="x (one or more inputs)" data-testid="fit-x" searchable placeholder="Choose columns" data={options.filter((o) => o.value !== s.y)}
-              value={s.x} onChange={(v) => update({ x: v })} error={fieldError('x')} />
+            <MultiSelect
+              label="x (one or more inputs)"
+              data-testid="fit-x"
+              searchable
+              placeholder="Choose columns"
+              data={options.filter((o) => o.value !== s.y)}
+              value={s.x}
+              onChange={(v) => update({ x: v })}
+              error={fieldError('x')}
+            />
           )}
         </SimpleGrid>
         {s.model === 'expression' ? (
-          <TextInput label="Expression" data-testid="fit-expr" placeholder="A * exp(phi_V / T)" value={s.expr}
-            description="mathjs syntax over the x columns; every other name is a parameter." ff="monospace"
-            onChange={(e) => update({ expr: e.currentTarget.value })} error={fieldError('expr')} />
+          <TextInput
+            label="Expression"
+            data-testid="fit-expr"
+            placeholder="A * exp(phi_V / T)"
+            value={s.expr}
+            description="mathjs syntax over the x columns; every other name is a parameter."
+            ff="monospace"
+            onChange={(e) => update({ expr: e.currentTarget.value })}
+            error={fieldError('expr')}
+          />
         ) : null}
-        <Textarea label={s.model === 'expression' ? 'Start values' : 'Start values (optional)'} data-testid="fit-params" autosize minRows={1} maxRows={4}
-          placeholder={s.model === 'expression' ? 'A = 1, T = 4' : s.model === 'polytropic' ? 'gamma = 1.2, Te_eV = 3' : 'leave empty for the model’s own start'}
-          description="name = value, separated by commas or new lines" value={s.params}
-          onChange={(e) => update({ params: e.currentTarget.value })} error={fieldError('params')} />
+        <Textarea
+          label={s.model === 'expression' ? 'Start values' : 'Start values (optional)'}
+          data-testid="fit-params"
+          autosize
+          minRows={1}
+          maxRows={4}
+          placeholder={
+            s.model === 'expression'
+              ? 'A = 1, T = 4'
+              : s.model === 'polytropic'
+                ? 'gamma = 1.2, Te_eV = 3'
+                : 'leave empty for the model’s own start'
+          }
+          description="name = value, separated by commas or new lines"
+          value={s.params}
+          onChange={(e) => update({ params: e.currentTarget.value })}
+          error={fieldError('params')}
+        />
         <div>
-          <Text fz="sm" fw={500} mb={4}>Filter</Text>
+          <Text fz="sm" fw={500} mb={4}>
+            Filter
+          </Text>
           <Stack gap={6}>
             {hasValid ? (
-              <Checkbox label="Valid points only (drift ordering holds: no validity flag raised)" data-testid="fit-valid-only"
-                checked={s.validOnly} onChange={(e) => update({ validOnly: e.currentTarget.checked })} />
+              <Checkbox
+                label="Valid points only (drift ordering holds: no validity flag raised)"
+                data-testid="fit-valid-only"
+                checked={s.validOnly}
+                onChange={(e) => update({ validOnly: e.currentTarget.checked })}
+              />
             ) : null}
             {s.ranges.map((r, i) => (
               <Group key={i} gap="xs" align="flex-start" wrap="nowrap" data-testid={`fit-range-${i}`}>
-                <Select aria-label={`Range ${i + 1} column`} placeholder="Column" data={options} value={r.column} w={200} searchable
-                  onChange={(v) => update({ ranges: s.ranges.map((x, k) => (k === i ? { ...x, column: v } : x)) })} error={fieldError(`ranges.${i}`) ?? (r.column ? serverFor(`filter.${r.column}`) : undefined)} />
-                <TextInput aria-label={`Range ${i + 1} minimum`} placeholder="min" w={110} value={r.min}
-                  onChange={(e) => { const v = e.currentTarget.value; update({ ranges: s.ranges.map((x, k) => (k === i ? { ...x, min: v } : x)) }); }} />
-                <TextInput aria-label={`Range ${i + 1} maximum`} placeholder="max" w={110} value={r.max}
-                  onChange={(e) => { const v = e.currentTarget.value; update({ ranges: s.ranges.map((x, k) => (k === i ? { ...x, max: v } : x)) }); }} />
-                <ActionIcon variant="subtle" color="gray" aria-label={`Remove range ${i + 1}`} mt={6} onClick={() => update({ ranges: s.ranges.filter((_, k) => k !== i) })}>
+                <Select
+                  aria-label={`Range ${i + 1} column`}
+                  placeholder="Column"
+                  data={options}
+                  value={r.column}
+                  w={200}
+                  searchable
+                  onChange={(v) => update({ ranges: s.ranges.map((x, k) => (k === i ? { ...x, column: v } : x)) })}
+                  error={fieldError(`ranges.${i}`) ?? (r.column ? serverFor(`filter.${r.column}`) : undefined)}
+                />
+                <TextInput
+                  aria-label={`Range ${i + 1} minimum`}
+                  placeholder="min"
+                  w={110}
+                  value={r.min}
+                  onChange={(e) => {
+                    const v = e.currentTarget.value;
+                    update({ ranges: s.ranges.map((x, k) => (k === i ? { ...x, min: v } : x)) });
+                  }}
+                />
+                <TextInput
+                  aria-label={`Range ${i + 1} maximum`}
+                  placeholder="max"
+                  w={110}
+                  value={r.max}
+                  onChange={(e) => {
+                    const v = e.currentTarget.value;
+                    update({ ranges: s.ranges.map((x, k) => (k === i ? { ...x, max: v } : x)) });
+                  }}
+                />
+                <ActionIcon
+                  variant="subtle"
+                  color="gray"
+                  aria-label={`Remove range ${i + 1}`}
+                  mt={6}
+                  onClick={() => update({ ranges: s.ranges.filter((_, k) => k !== i) })}
+                >
                   <IconTrash size={16} />
                 </ActionIcon>
               </Group>
             ))}
             <Group gap="xs">
-              <Button size="compact-sm" variant="subtle" leftSection={<IconPlus size={14} />} onClick={() => update({ ranges: [...s.ranges, { column: null, min: '', max: '' }] })}>
+              <Button
+                size="compact-sm"
+                variant="subtle"
+                leftSection={<IconPlus size={14} />}
+                onClick={() => update({ ranges: [...s.ranges, { column: null, min: '', max: '' }] })}
+              >
                 Add a range
               </Button>
-              <Text fz="xs" c="dimmed">Ranges are in the column’s stored unit (SI, temperatures in eV).</Text>
+              <Text fz="xs" c="dimmed">
+                Ranges are in the column’s stored unit (SI, temperatures in eV).
+              </Text>
             </Group>
           </Stack>
         </div>
-        <Select label="Weights: σ column (optional)" data-testid="fit-weights" clearable placeholder="Unweighted" data={options} value={s.weights}
+        <Select
+          label="Weights: σ column (optional)"
+          data-testid="fit-weights"
+          clearable
+          placeholder="Unweighted"
+          data={options}
+          value={s.weights}
           description="One standard deviation per point; turns on weighted least squares and the reduced χ²."
-          onChange={(v) => update({ weights: v })} error={fieldError('weights')} />
+          onChange={(v) => update({ weights: v })}
+          error={fieldError('weights')}
+        />
         {apiErr && !Object.keys(local).length ? (
-          <Alert color="red" variant="light" title="The fit was not run" data-testid="fit-error">{apiErr.message}</Alert>
+          <Alert color="red" variant="light" title="The fit was not run" data-testid="fit-error">
+            {apiErr.message}
+          </Alert>
         ) : error && !apiErr ? (
-          <Alert color="red" variant="light" title="The fit was not run">{(error as Error).message}</Alert>
+          <Alert color="red" variant="light" title="The fit was not run">
+            {(error as Error).message}
+          </Alert>
         ) : null}
         <Group justify="space-between">
-          <Text fz="xs" c="dimmed">Ctrl+Enter runs the fit. Rows with a missing value are dropped and counted.</Text>
-          <Button type="submit" loading={pending} leftSection={<IconMathFunction size={16} />} data-testid="fit-run">Run fit</Button>
+          <Text fz="xs" c="dimmed">
+            Ctrl+Enter runs the fit. Rows with a missing value are dropped and counted.
+          </Text>
+          <Button type="submit" loading={pending} leftSection={<IconMathFunction size={16} />} data-testid="fit-run">
+            Run fit
+          </Button>
         </Group>
       </Stack>
     </Paper>

@@ -32,9 +32,18 @@ export function FitDetail({ fit, columns }: { fit: FitView; columns?: FitColumn[
   };
   return (
     <Stack gap="sm">
-      {live ? <Progress value={fit.progress * 100} animated aria-label="Fit progress" data-testid="fit-progress" /> : null}
+      {live ? (
+        <Progress value={fit.progress * 100} animated aria-label="Fit progress" data-testid="fit-progress" />
+      ) : null}
       <FitResult fit={fit} />
-      {fit.plot ? <FitPlot plot={fit.plot} yName={fit.y} unit={unitOf(fit.y)} xUnit={fit.plot.xNames.length === 1 ? unitOf(fit.plot.xNames[0]!) : undefined} /> : null}
+      {fit.plot ? (
+        <FitPlot
+          plot={fit.plot}
+          yName={fit.y}
+          unit={unitOf(fit.y)}
+          xUnit={fit.plot.xNames.length === 1 ? unitOf(fit.plot.xNames[0]!) : undefined}
+        />
+      ) : null}
     </Stack>
   );
 }
@@ -57,10 +66,24 @@ export function FitsPanel({ source, columns }: FitsPanelProps) {
   const current = useFit(selected);
   return (
     <Stack gap="md" data-testid="fits-panel" data-source-kind={source.kind} data-source-id={source.id}>
-      <FitBuilder source={source} columns={columns} pending={create.isPending} error={create.error} onSubmit={(b) => create.mutate(b)} />
-      {current.data ? <FitDetail fit={current.data} columns={columns} /> : selected !== null && current.isLoading ? <Text fz="sm" c="dimmed">Loading the fit…</Text> : null}
+      <FitBuilder
+        source={source}
+        columns={columns}
+        pending={create.isPending}
+        error={create.error}
+        onSubmit={(b) => create.mutate(b)}
+      />
+      {current.data ? (
+        <FitDetail fit={current.data} columns={columns} />
+      ) : selected !== null && current.isLoading ? (
+        <Text fz="sm" c="dimmed">
+          Loading the fit…
+        </Text>
+      ) : null}
       <div>
-        <Title order={3} fz="h4" mb="xs">Saved fits</Title>
+        <Title order={3} fz="h4" mb="xs">
+          Saved fits
+        </Title>
         <SavedFits source={source} selectedId={selected} onSelect={setSelected} />
       </div>
     </Stack>

@@ -11,12 +11,20 @@ const PAGE_SIZE = 20;
 
 /** One line per parameter value ± error, compact, for list rows. */
 export function ParameterSummary({ fit }: { fit: FitView }) {
-  if (!fit.parameters) return <Text fz="xs" c="dimmed">{fit.error ?? '—'}</Text>;
+  if (!fit.parameters)
+    return (
+      <Text fz="xs" c="dimmed">
+        {fit.error ?? '—'}
+      </Text>
+    );
   return (
     <Group gap={10} wrap="wrap">
       {fit.parameters.map((p) => (
         <Text key={p.name} fz="xs" span>
-          <Text span ff="monospace" fz="xs">{p.name}</Text> = <Num value={p.value} sig={5} /> ± <Num value={p.stdError} sig={2} />
+          <Text span ff="monospace" fz="xs">
+            {p.name}
+          </Text>{' '}
+          = <Num value={p.value} sig={5} /> ± <Num value={p.stdError} sig={2} />
         </Text>
       ))}
     </Group>
@@ -28,7 +36,10 @@ export function ParameterSummary({ fit }: { fit: FitView }) {
  * first. Test hook: rows `saved-fit-<id>`.
  */
 export function SavedFits({
-  source, selectedId, onSelect, showSource = false,
+  source,
+  selectedId,
+  onSelect,
+  showSource = false,
 }: {
   source?: { kind: FitSourceKind; id: number };
   selectedId?: number | null;
@@ -42,13 +53,24 @@ export function SavedFits({
     queryFn: ({ signal }) => fitsApi.list(params, signal),
     refetchInterval: (query) => (query.state.data?.items.some((f) => LIVE_FIT.has(f.status)) ? 1000 : false),
   });
-  if (q.error) return <Text c="red" fz="sm">Saved fits could not be loaded: {(q.error as Error).message}</Text>;
-  if (!q.data) return <Text fz="sm" c="dimmed">Loading saved fits…</Text>;
+  if (q.error)
+    return (
+      <Text c="red" fz="sm">
+        Saved fits could not be loaded: {(q.error as Error).message}
+      </Text>
+    );
+  if (!q.data)
+    return (
+      <Text fz="sm" c="dimmed">
+        Loading saved fits…
+      </Text>
+    );
   const items = q.data.items;
   if (items.length === 0) {
     return (
       <Text fz="sm" c="dimmed" data-testid="saved-fits-empty">
-        No saved fits {source ? `of this ${source.kind}` : 'yet'}. Every fit you run is saved here with its request, result and versions.
+        No saved fits {source ? `of this ${source.kind}` : 'yet'}. Every fit you run is saved here with its request,
+        result and versions.
       </Text>
     );
   }
@@ -68,24 +90,51 @@ export function SavedFits({
         </Table.Thead>
         <Table.Tbody>
           {items.map((f) => (
-            <Table.Tr key={f.id} data-testid={`saved-fit-${f.id}`} bg={f.id === selectedId ? 'var(--mantine-color-default-hover)' : undefined}
-              style={{ cursor: onSelect ? 'pointer' : undefined }} onClick={() => onSelect?.(f.id)}>
-              <Table.Td><Anchor component={Link} to={`/fits/${f.id}`} onClick={(e) => e.stopPropagation()}>#{f.id}</Anchor></Table.Td>
+            <Table.Tr
+              key={f.id}
+              data-testid={`saved-fit-${f.id}`}
+              bg={f.id === selectedId ? 'var(--mantine-color-default-hover)' : undefined}
+              style={{ cursor: onSelect ? 'pointer' : undefined }}
+              onClick={() => onSelect?.(f.id)}
+            >
+              <Table.Td>
+                <Anchor component={Link} to={`/fits/${f.id}`} onClick={(e) => e.stopPropagation()}>
+                  #{f.id}
+                </Anchor>
+              </Table.Td>
               {showSource ? (
                 <Table.Td>
-                  <Anchor component={Link} to={f.source.kind === 'sweep' ? `/sweeps/${f.source.id}` : `/datasets/${f.source.id}`} onClick={(e) => e.stopPropagation()}>
-                    {f.source.kind === 'sweep' ? 'Sweep' : 'Dataset'} {f.source.id}{f.source.name ? ` · ${f.source.name}` : ''}
+                  <Anchor
+                    component={Link}
+                    to={f.source.kind === 'sweep' ? `/sweeps/${f.source.id}` : `/datasets/${f.source.id}`}
+                    onClick={(e) => e.stopPropagation()}
+                  >
+                    {f.source.kind === 'sweep' ? 'Sweep' : 'Dataset'} {f.source.id}
+                    {f.source.name ? ` · ${f.source.name}` : ''}
                   </Anchor>
                 </Table.Td>
               ) : null}
               <Table.Td>
                 {MODEL_LABEL[f.model] ?? f.model}
-                <Text fz="xs" c="dimmed">{f.y} against {xList(f.x).join(', ')}</Text>
+                <Text fz="xs" c="dimmed">
+                  {f.y} against {xList(f.x).join(', ')}
+                </Text>
               </Table.Td>
-              <Table.Td><ParameterSummary fit={f} /></Table.Td>
-              <Table.Td ta="right"><Num value={f.r2} sig={6} /></Table.Td>
-              <Table.Td style={{ whiteSpace: 'nowrap' }}><FitStatus fit={f} /></Table.Td>
-              <Table.Td><Text fz="xs">{f.owner.name}</Text><Text fz="xs" c="dimmed">{new Date(f.createdAt).toLocaleString()}</Text></Table.Td>
+              <Table.Td>
+                <ParameterSummary fit={f} />
+              </Table.Td>
+              <Table.Td ta="right">
+                <Num value={f.r2} sig={6} />
+              </Table.Td>
+              <Table.Td style={{ whiteSpace: 'nowrap' }}>
+                <FitStatus fit={f} />
+              </Table.Td>
+              <Table.Td>
+                <Text fz="xs">{f.owner.name}</Text>
+                <Text fz="xs" c="dimmed">
+                  {new Date(f.createdAt).toLocaleString()}
+                </Text>
+              </Table.Td>
             </Table.Tr>
           ))}
         </Table.Tbody>

@@ -5,9 +5,22 @@ import { queryKeys } from '../../api/queryKeys.js';
 import type { FitSourceKind } from '../FitResult/fit-types.js';
 import type { FitColumn } from './FitBuilder.js';
 
-interface SweepItem { id: number; name: string; status: string; points: number }
-interface DatasetItem { id: number; name: string; rows: number; columns: { name: string; canonicalUnit: string; kind: string }[] }
-interface SweepDetail { id: number; columns: FitColumn[] }
+interface SweepItem {
+  id: number;
+  name: string;
+  status: string;
+  points: number;
+}
+interface DatasetItem {
+  id: number;
+  name: string;
+  rows: number;
+  columns: { name: string; canonicalUnit: string; kind: string }[];
+}
+interface SweepDetail {
+  id: number;
+  columns: FitColumn[];
+}
 
 export interface PickedSource {
   source: { kind: FitSourceKind; id: number };
@@ -15,7 +28,11 @@ export interface PickedSource {
 }
 
 /** The columns of a sweep (from GET /api/sweeps/:id) or a dataset (from the dataset list). */
-export function useSourceColumns(kind: FitSourceKind, id: number | null, datasets?: DatasetItem[]): FitColumn[] | undefined {
+export function useSourceColumns(
+  kind: FitSourceKind,
+  id: number | null,
+  datasets?: DatasetItem[],
+): FitColumn[] | undefined {
   const sweep = useQuery({
     queryKey: queryKeys.sweeps.detail(id ?? 0),
     queryFn: ({ signal }) => api.get<SweepDetail>(`/sweeps/${id}`, undefined, signal),
@@ -24,12 +41,19 @@ export function useSourceColumns(kind: FitSourceKind, id: number | null, dataset
   if (id === null) return undefined;
   if (kind === 'sweep') return sweep.data?.columns;
   const d = datasets?.find((x) => x.id === id);
-  return d?.columns.map((c) => ({ name: c.name, unit: c.canonicalUnit, kind: c.kind === 'number' ? 'measured' : 'text' }));
+  return d?.columns.map((c) => ({
+    name: c.name,
+    unit: c.canonicalUnit,
+    kind: c.kind === 'number' ? 'measured' : 'text',
+  }));
 }
 
 /** Chooses what to fit on the Fits page: a finished sweep or an uploaded dataset. */
 export function SourcePicker({
-  kind, id, onKind, onId,
+  kind,
+  id,
+  onKind,
+  onId,
 }: {
   kind: FitSourceKind;
   id: number | null;
@@ -43,17 +67,45 @@ export function SourcePicker({
     enabled: kind === 'sweep',
   });
   const datasets = useDatasetList(kind === 'dataset');
-  const data = kind === 'sweep'
-    ? (sweeps.data?.items ?? []).map((s) => ({ value: String(s.id), label: `#${s.id} ${s.name} (${s.points} points, ${s.status})` }))
-    : (datasets.data?.items ?? []).map((d) => ({ value: String(d.id), label: `#${d.id} ${d.name} (${d.rows} rows)` }));
+  const data =
+    kind === 'sweep'
+      ? (sweeps.data?.items ?? []).map((s) => ({
+          value: String(s.id),
+          label: `#${s.id} ${s.name} (${s.points} points, ${s.status})`,
+        }))
+      : (datasets.data?.items ?? []).map((d) => ({
+          value: String(d.id),
+          label: `#${d.id} ${d.name} (${d.rows} rows)`,
+        }));
   return (
     <Group align="flex-end" gap="sm" wrap="wrap">
-      <SegmentedControl value={kind} onChange={(v) => { onKind(v as FitSourceKind); onId(null); }}
-        data={[{ value: 'sweep', label: 'Sweep results' }, { value: 'dataset', label: 'Dataset' }]} aria-label="Source kind" />
-      <Select label={kind === 'sweep' ? 'Sweep (completed or archived)' : 'Dataset'} data-testid="fit-source" searchable w={420}
+      <SegmentedControl
+        value={kind}
+        onChange={(v) => {
+          onKind(v as FitSourceKind);
+          onId(null);
+        }}
+        data={[
+          { value: 'sweep', label: 'Sweep results' },
+          { value: 'dataset', label: 'Dataset' },
+        ]}
+        aria-label="Source kind"
+      />
+      <Select
+        label={kind === 'sweep' ? 'Sweep (completed or archived)' : 'Dataset'}
+        data-testid="fit-source"
+        searchable
+        w={420}
         placeholder={data.length ? 'Choose one' : kind === 'sweep' ? 'No finished sweeps yet' : 'No datasets yet'}
-        data={data} value={id === null ? null : String(id)} onChange={(v) => onId(v ? Number(v) : null)} />
-      {(kind === 'sweep' ? sweeps.error : datasets.error) ? <Text c="red" fz="sm">{((kind === 'sweep' ? sweeps.error : datasets.error) as Error).message}</Text> : null}
+        data={data}
+        value={id === null ? null : String(id)}
+        onChange={(v) => onId(v ? Number(v) : null)}
+      />
+      {(kind === 'sweep' ? sweeps.error : datasets.error) ? (
+        <Text c="red" fz="sm">
+          {((kind === 'sweep' ? sweeps.error : datasets.error) as Error).message}
+        </Text>
+      ) : null}
     </Group>
   );
 }

@@ -5,15 +5,33 @@ const source = { kind: 'sweep' as const, id: 3 };
 
 describe('fit builder state', () => {
   it('builds a power-law request on valid points with a range', () => {
-    const s = { ...initialState(true), y: 'vDi_ms', x: ['Te_eV', 'B_T'], ranges: [{ column: 'Te_eV', min: '2', max: '' }] };
+    const s = {
+      ...initialState(true),
+      y: 'vDi_ms',
+      x: ['Te_eV', 'B_T'],
+      ranges: [{ column: 'Te_eV', min: '2', max: '' }],
+    };
     const r = toRequest(s, source, true);
-    expect(r).toEqual({ ok: true, body: { source, model: 'power-law', y: 'vDi_ms', x: ['Te_eV', 'B_T'], filter: { valid: { eq: true }, Te_eV: { gte: 2 } } } });
+    expect(r).toEqual({
+      ok: true,
+      body: {
+        source,
+        model: 'power-law',
+        y: 'vDi_ms',
+        x: ['Te_eV', 'B_T'],
+        filter: { valid: { eq: true }, Te_eV: { gte: 2 } },
+      },
+    });
   });
 
   it('sends one x for single-x models and needs start values for expressions', () => {
     const poly = toRequest({ ...initialState(false), model: 'polytropic', y: 'n', x: ['phi'] }, source, false);
     expect(poly.ok && poly.body.x).toBe('phi');
-    const expr = toRequest({ ...initialState(false), model: 'expression', y: 'n', x: ['phi'], expr: 'A*exp(phi/T)' }, source, false);
+    const expr = toRequest(
+      { ...initialState(false), model: 'expression', y: 'n', x: ['phi'], expr: 'A*exp(phi/T)' },
+      source,
+      false,
+    );
     expect(expr.ok).toBe(false);
     if (!expr.ok) expect(expr.errors.params).toMatch(/start value/);
   });

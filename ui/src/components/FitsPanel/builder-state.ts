@@ -27,9 +27,14 @@ export function initialState(hasValid: boolean): BuilderState {
 }
 
 /** `A = 1, T = 4` (commas, semicolons or new lines) → { A: 1, T: 4 }, or the first problem. */
-export function parseStartValues(text: string): { ok: true; value: Record<string, number> } | { ok: false; error: string } {
+export function parseStartValues(
+  text: string,
+): { ok: true; value: Record<string, number> } | { ok: false; error: string } {
   const value: Record<string, number> = {};
-  const parts = text.split(/[,;\n]/).map((s) => s.trim()).filter(Boolean);
+  const parts = text
+    .split(/[,;\n]/)
+    .map((s) => s.trim())
+    .filter(Boolean);
   for (const part of parts) {
     const m = /^([A-Za-z_][A-Za-z0-9_]*)\s*=\s*(\S+)$/.exec(part);
     if (!m) return { ok: false, error: `"${part}" is not name = number` };
@@ -59,7 +64,8 @@ export function toRequest(
   }
   if (s.model === 'expression') {
     if (!s.expr.trim()) errors.expr = 'Write the model, e.g. A * exp(phi_V / T)';
-    if (!params || Object.keys(params).length === 0) errors.params ??= 'Give each parameter a start value, e.g. A = 1, T = 4';
+    if (!params || Object.keys(params).length === 0)
+      errors.params ??= 'Give each parameter a start value, e.g. A = 1, T = 4';
   }
   const filter: Record<string, Record<string, number | boolean>> = {};
   if (hasValid && s.validOnly) filter.valid = { eq: true };
@@ -69,13 +75,17 @@ export function toRequest(
       return;
     }
     const cond: Record<string, number> = {};
-    for (const [key, text] of [['gte', r.min], ['lte', r.max]] as const) {
+    for (const [key, text] of [
+      ['gte', r.min],
+      ['lte', r.max],
+    ] as const) {
       if (text.trim() === '') continue;
       const v = Number(text);
       if (!Number.isFinite(v)) errors[`ranges.${i}`] = `${key === 'gte' ? 'Minimum' : 'Maximum'} is not a number`;
       else cond[key] = v;
     }
-    if (cond.gte !== undefined && cond.lte !== undefined && cond.gte > cond.lte) errors[`ranges.${i}`] = 'Minimum is above maximum';
+    if (cond.gte !== undefined && cond.lte !== undefined && cond.gte > cond.lte)
+      errors[`ranges.${i}`] = 'Minimum is above maximum';
     if (Object.keys(cond).length) filter[r.column] = { ...(filter[r.column] ?? {}), ...cond };
   });
   if (Object.keys(errors).length) return { ok: false, errors };

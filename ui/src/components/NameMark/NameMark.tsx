@@ -44,7 +44,14 @@ export function NameMark({ size = 28, glyphOnly = false }: NameMarkProps) {
   return (
     <Group gap={8} wrap="nowrap" aria-label="Driftgrid" role="img">
       <DriftGlyph size={size} />
-      <Text component="span" fw={700} fz={Math.round(size * 0.72)} lh={1} style={{ letterSpacing: '-0.01em' }} aria-hidden>
+      <Text
+        component="span"
+        fw={700}
+        fz={Math.round(size * 0.72)}
+        lh={1}
+        style={{ letterSpacing: '-0.01em' }}
+        aria-hidden
+      >
         Drift
         <Text component="span" inherit c="var(--mantine-color-anchor)">
           grid

@@ -16,7 +16,12 @@ export function Num({ value, unit, sig = 4, align }: NumProps) {
   return (
     <span className={classes.num} data-align={align} title={fullPrecision(value, unit)}>
       {text}
-      {u && text !== '—' ? <span className={classes.unit}>{'\u00a0'}{u}</span> : null}
+      {u && text !== '—' ? (
+        <span className={classes.unit}>
+          {'\u00a0'}
+          {u}
+        </span>
+      ) : null}
     </span>
   );
 }

@@ -2,7 +2,15 @@ import { Group, Text, Title } from '@mantine/core';
 import type { ReactNode } from 'react';
 
 /** Page title row shared by every page: heading, one line of purpose, actions on the right. */
-export function PageHeader({ title, description, actions }: { title: string; description?: ReactNode; actions?: ReactNode }) {
+export function PageHeader({
+  title,
+  description,
+  actions,
+}: {
+  title: string;
+  description?: ReactNode;
+  actions?: ReactNode;
+}) {
   return (
     <Group justify="space-between" align="flex-start" mb="md" wrap="wrap" gap="sm">
       <div>

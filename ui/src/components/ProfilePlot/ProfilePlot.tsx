@@ -64,7 +64,10 @@ function ProfileChart({ panel, profile, a_m }: { panel: Panel; profile: Profile;
           valueFormatter: (v: number) => formatQuantity(v, panel.unit),
           axisPointer: { type: 'line' },
         },
-        toolbox: { right: panel.series.length > 1 ? 160 : 8, feature: { saveAsImage: { type: 'svg', title: 'SVG', name: panel.series[0]!.key } } },
+        toolbox: {
+          right: panel.series.length > 1 ? 160 : 8,
+          feature: { saveAsImage: { type: 'svg', title: 'SVG', name: panel.series[0]!.key } },
+        },
         xAxis: {
           type: 'value',
           name: 'r (m)',
@@ -111,9 +114,17 @@ function ProfileChart({ panel, profile, a_m }: { panel: Panel; profile: Profile;
   return (
     <Paper withBorder p="xs" radius="sm">
       <Text fz="sm" fw={500} mb={4}>
-        {panel.title} <Text span c="dimmed" fz="xs">({prettyUnit(panel.unit)})</Text>
+        {panel.title}{' '}
+        <Text span c="dimmed" fz="xs">
+          ({prettyUnit(panel.unit)})
+        </Text>
       </Text>
-      <div ref={ref} style={{ height: 220, width: '100%' }} role="img" aria-label={`${panel.title} against radius; dashed line at the width a`} />
+      <div
+        ref={ref}
+        style={{ height: 220, width: '100%' }}
+        role="img"
+        aria-label={`${panel.title} against radius; dashed line at the width a`}
+      />
     </Paper>
   );
 }

@@ -9,7 +9,13 @@ import { fullPrecision } from '../../lib/format.js';
  * and its validity flags in words. Test hooks: `output-<name>` cells carry `data-value` (full
  * precision), `flags` holds one `flag-<code>` item per raised flag.
  */
-export function OutputsTable({ outputs, values }: { outputs: readonly OutputSpec[]; values: Record<string, number | boolean> }) {
+export function OutputsTable({
+  outputs,
+  values,
+}: {
+  outputs: readonly OutputSpec[];
+  values: Record<string, number | boolean>;
+}) {
   return (
     <Table striped highlightOnHover withTableBorder verticalSpacing={4} fz="sm" data-testid="outputs-table">
       <Table.Thead>
@@ -25,12 +31,23 @@ export function OutputsTable({ outputs, values }: { outputs: readonly OutputSpec
           return (
             <Table.Tr key={o.name}>
               <Table.Td>
-                <Text fz="sm" fw={500} span>{o.symbol}</Text>{' '}
-                <Text fz="xs" c="dimmed" span ff="monospace">{o.name}</Text>
+                <Text fz="sm" fw={500} span>
+                  {o.symbol}
+                </Text>{' '}
+                <Text fz="xs" c="dimmed" span ff="monospace">
+                  {o.name}
+                </Text>
               </Table.Td>
-              <Table.Td ta="right" data-testid={`output-${o.name}`} data-value={typeof v === 'number' ? String(v) : String(v)} data-unit={o.unit}>
+              <Table.Td
+                ta="right"
+                data-testid={`output-${o.name}`}
+                data-value={typeof v === 'number' ? String(v) : String(v)}
+                data-unit={o.unit}
+              >
                 {o.kind === 'boolean' ? (
-                  <Text fz="sm" span>{v ? 'yes' : 'no'}</Text>
+                  <Text fz="sm" span>
+                    {v ? 'yes' : 'no'}
+                  </Text>
                 ) : (
                   <Num value={typeof v === 'number' ? v : null} unit={o.unit} align="right" />
                 )}
@@ -51,21 +68,47 @@ export function OutputsTable({ outputs, values }: { outputs: readonly OutputSpec
 export function FlagList({ flags, specs }: { flags: readonly string[]; specs: readonly FlagSpec[] }) {
   if (flags.length === 0) {
     return (
-      <Alert variant="light" color="teal" icon={<IconCircleCheck size={18} />} title="Inside the model's validity" data-testid="flags" data-count={0}>
+      <Alert
+        variant="light"
+        color="teal"
+        icon={<IconCircleCheck size={18} />}
+        title="Inside the model's validity"
+        data-testid="flags"
+        data-count={0}
+      >
         No validity flag is raised at this point: every ordering parameter is below its threshold.
       </Alert>
     );
   }
   return (
-    <Alert variant="light" color="orange" icon={<IconAlertTriangle size={18} />} title={`Outside the model's validity: ${flags.length} flag${flags.length > 1 ? 's' : ''} raised`} data-testid="flags" data-count={flags.length}>
-      <List spacing={4} fz="sm" icon={<ThemeIcon size={16} radius="xl" color="orange" variant="light"><IconAlertTriangle size={11} /></ThemeIcon>}>
+    <Alert
+      variant="light"
+      color="orange"
+      icon={<IconAlertTriangle size={18} />}
+      title={`Outside the model's validity: ${flags.length} flag${flags.length > 1 ? 's' : ''} raised`}
+      data-testid="flags"
+      data-count={flags.length}
+    >
+      <List
+        spacing={4}
+        fz="sm"
+        icon={
+          <ThemeIcon size={16} radius="xl" color="orange" variant="light">
+            <IconAlertTriangle size={11} />
+          </ThemeIcon>
+        }
+      >
         {flags.map((code) => {
           const spec = specs.find((f) => f.code === code);
           return (
             <List.Item key={code} data-testid={`flag-${code}`}>
               <Group gap={6} wrap="nowrap" align="baseline">
-                <Text fz="sm" ff="monospace" fw={600} span>{code}</Text>
-                <Text fz="sm" span>{spec?.meaning ?? 'flag raised'}</Text>
+                <Text fz="sm" ff="monospace" fw={600} span>
+                  {code}
+                </Text>
+                <Text fz="sm" span>
+                  {spec?.meaning ?? 'flag raised'}
+                </Text>
               </Group>
             </List.Item>
           );

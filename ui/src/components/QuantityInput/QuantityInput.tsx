@@ -31,7 +31,13 @@ export function QuantityInput({ spec, value, onChange, error, label, compact, ..
       onChange={(e) => onChange(e.currentTarget.value)}
       error={error || undefined}
       placeholder={`${plainNumber(spec.default)}${unit ? ` ${spec.unit}` : ''}`}
-      rightSection={unit ? <Text fz="xs" c="dimmed" pr={6}>{unit}</Text> : undefined}
+      rightSection={
+        unit ? (
+          <Text fz="xs" c="dimmed" pr={6}>
+            {unit}
+          </Text>
+        ) : undefined
+      }
       rightSectionWidth={unit ? Math.max(36, unit.length * 8 + 14) : undefined}
       description={
         <>

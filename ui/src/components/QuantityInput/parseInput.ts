@@ -19,4 +19,3 @@ export function parseInput(spec: InputSpec, text: string): Parsed {
   const bad = checkInputValue(spec, value);
   return bad ? { ok: false, error: bad } : { ok: true, value };
 }
-

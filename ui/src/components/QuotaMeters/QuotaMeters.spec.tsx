@@ -3,18 +3,31 @@ import { render, screen } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
 import { QuotaMeters } from './QuotaMeters.js';
 
-const quota = { maxPointsPerSweep: 2_000_000, maxRunningSweeps: 3, maxPointsPer30Days: 20_000_000, maxStoredPoints: 50_000_000 };
+const quota = {
+  maxPointsPerSweep: 2_000_000,
+  maxRunningSweeps: 3,
+  maxPointsPer30Days: 20_000_000,
+  maxStoredPoints: 50_000_000,
+};
 
 describe('QuotaMeters', () => {
   it('shows usage against each limit in words', () => {
-    render(<MantineProvider><QuotaMeters quota={quota} usage={{ runningSweeps: 1, pointsLast30Days: 1_500_000, storedPoints: 0 }} /></MantineProvider>);
+    render(
+      <MantineProvider>
+        <QuotaMeters quota={quota} usage={{ runningSweeps: 1, pointsLast30Days: 1_500_000, storedPoints: 0 }} />
+      </MantineProvider>,
+    );
     expect(screen.getByTestId('quota-maxRunningSweeps').textContent).toContain('1 of 3 sweeps');
     expect(screen.getByTestId('quota-maxPointsPer30Days').textContent).toContain('1.5 million of 20 million points');
     expect(screen.getByTestId('quota-maxPointsPerSweep').textContent).toContain('2 million points');
   });
 
   it('warns when the sweep being built would go over a limit', () => {
-    render(<MantineProvider><QuotaMeters quota={{ ...quota, maxRunningSweeps: 1 }} usage={{ runningSweeps: 1 }} requested={10} /></MantineProvider>);
+    render(
+      <MantineProvider>
+        <QuotaMeters quota={{ ...quota, maxRunningSweeps: 1 }} usage={{ runningSweeps: 1 }} requested={10} />
+      </MantineProvider>,
+    );
     expect(screen.getByTestId('quota-maxRunningSweeps').textContent).toMatch(/go over your limit/);
   });
 });

@@ -4,7 +4,12 @@ import { inWords } from '../AdminShared/inWords.js';
 
 export interface QuotaMetersProps {
   /** As GET /api/auth/me returns them; absent fields are skipped. */
-  quota?: { maxPointsPerSweep?: number; maxRunningSweeps?: number; maxPointsPer30Days?: number; maxStoredPoints?: number };
+  quota?: {
+    maxPointsPerSweep?: number;
+    maxRunningSweeps?: number;
+    maxPointsPer30Days?: number;
+    maxStoredPoints?: number;
+  };
   usage?: { runningSweeps?: number; pointsLast30Days?: number; storedPoints?: number };
   /** Points of the sweep being built (builder preview): shown on top of the usage. */
   requested?: number;
@@ -28,39 +33,83 @@ function Bar({ m }: { m: Meter }) {
   return (
     <div data-testid={`quota-${m.key}`}>
       <Group justify="space-between" gap="xs" mb={4}>
-        <Text fz="sm" fw={500}>{m.label}</Text>
-        <Text fz="sm" c={over ? 'red' : 'dimmed'} title={`${formatCount(m.used + extra)} of ${formatCount(m.limit)} ${m.unit}`}>
+        <Text fz="sm" fw={500}>
+          {m.label}
+        </Text>
+        <Text
+          fz="sm"
+          c={over ? 'red' : 'dimmed'}
+          title={`${formatCount(m.used + extra)} of ${formatCount(m.limit)} ${m.unit}`}
+        >
           {words}
         </Text>
       </Group>
       <Progress.Root size="md" aria-label={`${m.label}: ${words}`}>
         <Progress.Section value={pct(m.used)} color={color} />
-        {extra ? <Progress.Section value={Math.max(0, pct(m.used + extra) - pct(m.used))} color={color} striped /> : null}
+        {extra ? (
+          <Progress.Section value={Math.max(0, pct(m.used + extra) - pct(m.used))} color={color} striped />
+        ) : null}
       </Progress.Root>
-      {over ? <Text fz="xs" c="red" mt={2}>{m.limit === 0 ? 'Your role cannot start sweeps.' : 'This would go over your limit; an admin can raise it.'}</Text> : null}
+      {over ? (
+        <Text fz="xs" c="red" mt={2}>
+          {m.limit === 0 ? 'Your role cannot start sweeps.' : 'This would go over your limit; an admin can raise it.'}
+        </Text>
+      ) : null}
     </div>
   );
 }
 
 /** Usage against the quota limits (SPEC §9) as progress bars with the numbers in words. */
 export function QuotaMeters({ quota, usage, requested }: QuotaMetersProps) {
-  if (!quota) return <Text fz="sm" c="dimmed">Quota information is not available.</Text>;
+  if (!quota)
+    return (
+      <Text fz="sm" c="dimmed">
+        Quota information is not available.
+      </Text>
+    );
   const u = usage ?? {};
   const meters: Meter[] = [];
   if (quota.maxRunningSweeps !== undefined) {
-    meters.push({ key: 'maxRunningSweeps', label: 'Sweeps queued or running', used: u.runningSweeps ?? 0, limit: quota.maxRunningSweeps, unit: 'sweeps', extra: requested !== undefined ? 1 : undefined });
+    meters.push({
+      key: 'maxRunningSweeps',
+      label: 'Sweeps queued or running',
+      used: u.runningSweeps ?? 0,
+      limit: quota.maxRunningSweeps,
+      unit: 'sweeps',
+      extra: requested !== undefined ? 1 : undefined,
+    });
   }
   if (quota.maxPointsPer30Days !== undefined) {
-    meters.push({ key: 'maxPointsPer30Days', label: 'Points in the last 30 days', used: u.pointsLast30Days ?? 0, limit: quota.maxPointsPer30Days, unit: 'points', extra: requested });
+    meters.push({
+      key: 'maxPointsPer30Days',
+      label: 'Points in the last 30 days',
+      used: u.pointsLast30Days ?? 0,
+      limit: quota.maxPointsPer30Days,
+      unit: 'points',
+      extra: requested,
+    });
   }
   if (quota.maxStoredPoints !== undefined) {
-    meters.push({ key: 'maxStoredPoints', label: 'Stored points', used: u.storedPoints ?? 0, limit: quota.maxStoredPoints, unit: 'points', extra: requested });
+    meters.push({
+      key: 'maxStoredPoints',
+      label: 'Stored points',
+      used: u.storedPoints ?? 0,
+      limit: quota.maxStoredPoints,
+      unit: 'points',
+      extra: requested,
+    });
   }
   return (
     <Stack gap="sm" data-testid="quota-meters">
-      {meters.map((m) => <Bar key={m.key} m={m} />)}
+      {meters.map((m) => (
+        <Bar key={m.key} m={m} />
+      ))}
       {quota.maxPointsPerSweep !== undefined ? (
-        <Text fz="sm" c={requested !== undefined && requested > quota.maxPointsPerSweep ? 'red' : 'dimmed'} data-testid="quota-maxPointsPerSweep">
+        <Text
+          fz="sm"
+          c={requested !== undefined && requested > quota.maxPointsPerSweep ? 'red' : 'dimmed'}
+          data-testid="quota-maxPointsPerSweep"
+        >
           Largest sweep allowed: {inWords(quota.maxPointsPerSweep)} points
           {requested !== undefined ? ` (this one: ${inWords(requested)})` : ''}.
         </Text>

@@ -1,7 +1,12 @@
 import 'mantine-react-table/styles.css';
 import { Group, SegmentedControl, Text } from '@mantine/core';
 import {
-  MantineReactTable, useMantineReactTable, type MRT_ColumnDef, type MRT_ColumnFiltersState, type MRT_PaginationState, type MRT_SortingState,
+  MantineReactTable,
+  useMantineReactTable,
+  type MRT_ColumnDef,
+  type MRT_ColumnFiltersState,
+  type MRT_PaginationState,
+  type MRT_SortingState,
 } from 'mantine-react-table';
 import { useMemo, useState } from 'react';
 import { formatCount, prettyUnit } from '../../lib/format.js';
@@ -65,7 +70,11 @@ export function ResultsTable({ sweepId, columns, flagNames = [] }: ResultsTableP
           mantineTableHeadCellProps: { title: c.meaning },
         };
         if (c.type === 'boolean') {
-          return { ...base, enableColumnFilter: false, Cell: ({ cell }) => (cell.getValue() === null ? '—' : cell.getValue() ? 'yes' : 'no') };
+          return {
+            ...base,
+            enableColumnFilter: false,
+            Cell: ({ cell }) => (cell.getValue() === null ? '—' : cell.getValue() ? 'yes' : 'no'),
+          };
         }
         if (c.kind === 'flags') {
           return {

@@ -30,7 +30,15 @@ export interface SweepView {
   definition: {
     description?: string;
     fixed?: Record<string, unknown>;
-    axes?: { param: string; kind: string; min?: number | string; max?: number | string; count?: number; values?: unknown[]; unit?: string }[];
+    axes?: {
+      param: string;
+      kind: string;
+      min?: number | string;
+      max?: number | string;
+      count?: number;
+      values?: unknown[];
+      unit?: string;
+    }[];
     sampling?: { kind: string; samples?: number; seed?: number };
     derived?: { name: string; expr: string }[];
   };
@@ -44,7 +52,12 @@ export interface SweepView {
   finishedAt: string | null;
   error: string | null;
   flagsSummary: { invalidPoints: number; byFlag: Record<string, number> };
-  provenance: { modelVersion: string; appVersion: string; computeMs: number; workers: { id: string; chunks: number; points: number }[] };
+  provenance: {
+    modelVersion: string;
+    appVersion: string;
+    computeMs: number;
+    workers: { id: string; chunks: number; points: number }[];
+  };
   archive?: { sha256: string; bytes: number | null; archivedAt: string | null };
 }
 

@@ -16,7 +16,11 @@ export function AccountMenu() {
   return (
     <Menu position="bottom-end" width={240} withinPortal shadow="md">
       <Menu.Target>
-        <UnstyledButton aria-label="Account menu" data-testid="account-menu" style={{ borderRadius: 6, padding: '4px 6px' }}>
+        <UnstyledButton
+          aria-label="Account menu"
+          data-testid="account-menu"
+          style={{ borderRadius: 6, padding: '4px 6px' }}
+        >
           <Group gap={8} wrap="nowrap">
             <Avatar size={28} radius="xl" color="tide" variant="filled">
               {initials(me?.name)}

@@ -12,7 +12,10 @@ import { PageLoader } from './PageLoader.js';
 /** Keeps the browser tab's title in step with the route table. */
 function useDocumentTitle() {
   const matches = useMatches();
-  const title = [...matches].reverse().map((m) => (m.handle as { title?: string } | undefined)?.title).find(Boolean);
+  const title = [...matches]
+    .reverse()
+    .map((m) => (m.handle as { title?: string } | undefined)?.title)
+    .find(Boolean);
   useEffect(() => {
     document.title = title ? `${title} · Driftgrid` : 'Driftgrid';
   }, [title]);
@@ -31,7 +34,13 @@ export function AppLayout() {
       <AppShell.Header>
         <Group h="100%" px="md" justify="space-between" wrap="nowrap">
           <Group gap="sm" wrap="nowrap">
-            <Burger opened={opened} onClick={toggle} hiddenFrom="sm" size="sm" aria-label={opened ? 'Close navigation' : 'Open navigation'} />
+            <Burger
+              opened={opened}
+              onClick={toggle}
+              hiddenFrom="sm"
+              size="sm"
+              aria-label={opened ? 'Close navigation' : 'Open navigation'}
+            />
             <Link to="/" aria-label="Driftgrid dashboard" style={{ textDecoration: 'none', color: 'inherit' }}>
               <NameMark size={26} />
             </Link>

@@ -8,7 +8,13 @@ export function ColorSchemeToggle() {
   const label = `Switch to ${next} scheme`;
   return (
     <Tooltip label={label} withArrow>
-      <ActionIcon variant="default" size="lg" aria-label={label} onClick={() => setColorScheme(next)} data-testid="color-scheme-toggle">
+      <ActionIcon
+        variant="default"
+        size="lg"
+        aria-label={label}
+        onClick={() => setColorScheme(next)}
+        data-testid="color-scheme-toggle"
+      >
         {scheme === 'dark' ? <IconSun size={18} stroke={1.7} /> : <IconMoon size={18} stroke={1.7} />}
       </ActionIcon>
     </Tooltip>

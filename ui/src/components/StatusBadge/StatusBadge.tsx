@@ -46,7 +46,12 @@ export interface StatusBadgeProps extends Omit<BadgeProps, 'color' | 'leftSectio
 export function StatusBadge({ status, suffix, ...rest }: StatusBadgeProps) {
   const look: StatusLook = isSweepStatus(status)
     ? STATUS_LOOK[status]
-    : { label: status || 'Unknown', icon: IconHelpCircle, color: 'slate', meaning: 'Status not recognised by this version of the ui' };
+    : {
+        label: status || 'Unknown',
+        icon: IconHelpCircle,
+        color: 'slate',
+        meaning: 'Status not recognised by this version of the ui',
+      };
   const Glyph = look.icon;
   return (
     <Badge

@@ -36,12 +36,26 @@ export function InputRow({ spec, choice, onChange, errors, axisIndex }: InputRow
       <Group justify="space-between" align="flex-start" wrap="wrap" gap="xs">
         <div style={{ minWidth: 200, flex: '1 1 240px' }}>
           <Text fz="sm" fw={600}>
-            {spec.symbol} <Text span fz="xs" c="dimmed" ff="monospace">{spec.name}</Text>
-            {unit ? <Text span fz="xs" c="dimmed"> · {unit}</Text> : null}
-            {axisIndex !== null ? <Text span fz="xs" c="tide" fw={600}> · axis {axisIndex + 1}</Text> : null}
+            {spec.symbol}{' '}
+            <Text span fz="xs" c="dimmed" ff="monospace">
+              {spec.name}
+            </Text>
+            {unit ? (
+              <Text span fz="xs" c="dimmed">
+                {' '}
+                · {unit}
+              </Text>
+            ) : null}
+            {axisIndex !== null ? (
+              <Text span fz="xs" c="tide" fw={600}>
+                {' '}
+                · axis {axisIndex + 1}
+              </Text>
+            ) : null}
           </Text>
           <Text fz="xs" c="dimmed">
-            {spec.meaning} Allowed {describeRange(spec)}; default {plainNumber(spec.default)}{unit ? ` ${unit}` : ''}.
+            {spec.meaning} Allowed {describeRange(spec)}; default {plainNumber(spec.default)}
+            {unit ? ` ${unit}` : ''}.
           </Text>
         </div>
         <SegmentedControl
@@ -53,7 +67,11 @@ export function InputRow({ spec, choice, onChange, errors, axisIndex }: InputRow
           data={MODES}
         />
       </Group>
-      {whole ? <Text fz="xs" c="red" mt={4} role="alert">{whole}</Text> : null}
+      {whole ? (
+        <Text fz="xs" c="red" mt={4} role="alert">
+          {whole}
+        </Text>
+      ) : null}
       {choice.mode === 'fixed' ? (
         <TextInput
           mt="xs"

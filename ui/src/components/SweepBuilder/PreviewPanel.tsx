@@ -14,7 +14,10 @@ export interface ServerPreview {
   points: number | null;
   chunks: number | null;
   estimate: { seconds: number; kernelPointsPerSecond: number; persistRowsPerSecond: number } | null;
-  quota: { allowed: boolean; violations: { limit: string; value: number; usage: number; requested: number; message: string }[] } | null;
+  quota: {
+    allowed: boolean;
+    violations: { limit: string; value: number; usage: number; requested: number; message: string }[];
+  } | null;
 }
 
 export interface PreviewPanelProps {
@@ -38,19 +41,38 @@ function seconds(s: number): string {
  * then the server's estimate and quota verdict. Test hooks: `preview-points`, `preview-chunks`,
  * `preview-sample`, `preview-errors`, `preview-estimate`, `quota-verdict`, `quota-violation`.
  */
-export function PreviewPanel({ compiled, sample, sampleError, localErrors, server, serverLoading, serverError }: PreviewPanelProps) {
+export function PreviewPanel({
+  compiled,
+  sample,
+  sampleError,
+  localErrors,
+  server,
+  serverLoading,
+  serverError,
+}: PreviewPanelProps) {
   const violations = server?.quota?.violations ?? [];
   const me = useMe();
   return (
     <Paper withBorder p="md" radius="sm" data-testid="sweep-preview">
       <Stack gap="sm">
-        <Title order={2} fz="h4">Preview</Title>
+        <Title order={2} fz="h4">
+          Preview
+        </Title>
         {localErrors.length ? (
-          <Alert color="red" variant="light" icon={<IconAlertTriangle size={18} />} title={`${localErrors.length} problem${localErrors.length > 1 ? 's' : ''} to fix`} data-testid="preview-errors">
+          <Alert
+            color="red"
+            variant="light"
+            icon={<IconAlertTriangle size={18} />}
+            title={`${localErrors.length} problem${localErrors.length > 1 ? 's' : ''} to fix`}
+            data-testid="preview-errors"
+          >
             <Stack gap={2}>
               {localErrors.map((e, i) => (
                 <Text fz="xs" key={i}>
-                  <Text span ff="monospace" fz="xs" fw={600}>{e.path || 'definition'}</Text> {e.message}
+                  <Text span ff="monospace" fz="xs" fw={600}>
+                    {e.path || 'definition'}
+                  </Text>{' '}
+                  {e.message}
                 </Text>
               ))}
             </Stack>
@@ -60,51 +82,102 @@ export function PreviewPanel({ compiled, sample, sampleError, localErrors, serve
           <>
             <Group gap="xl">
               <div>
-                <Text fz="xs" c="dimmed">Points</Text>
-                <Text fz="xl" fw={600} data-testid="preview-points" data-value={compiled.totalPoints} style={{ fontVariantNumeric: 'tabular-nums' }}>
+                <Text fz="xs" c="dimmed">
+                  Points
+                </Text>
+                <Text
+                  fz="xl"
+                  fw={600}
+                  data-testid="preview-points"
+                  data-value={compiled.totalPoints}
+                  style={{ fontVariantNumeric: 'tabular-nums' }}
+                >
                   {formatCount(compiled.totalPoints)}
                 </Text>
               </div>
               <div>
-                <Text fz="xs" c="dimmed">Chunks (queue jobs)</Text>
+                <Text fz="xs" c="dimmed">
+                  Chunks (queue jobs)
+                </Text>
                 <Text fz="xl" fw={600} data-testid="preview-chunks" style={{ fontVariantNumeric: 'tabular-nums' }}>
                   {formatCount(server?.chunks ?? chunkCount(compiled.totalPoints, DEFAULT_CHUNK_SIZE))}
                 </Text>
               </div>
               <div>
-                <Text fz="xs" c="dimmed">Estimated run time</Text>
+                <Text fz="xs" c="dimmed">
+                  Estimated run time
+                </Text>
                 <Text fz="sm" fw={500} data-testid="preview-estimate">
-                  {server?.estimate ? <><IconClock size={14} style={{ verticalAlign: -2 }} /> {seconds(server.estimate.seconds)}</> : serverLoading ? <Loader size="xs" /> : '—'}
+                  {server?.estimate ? (
+                    <>
+                      <IconClock size={14} style={{ verticalAlign: -2 }} /> {seconds(server.estimate.seconds)}
+                    </>
+                  ) : serverLoading ? (
+                    <Loader size="xs" />
+                  ) : (
+                    '—'
+                  )}
                 </Text>
               </div>
             </Group>
             {serverError ? (
-              <Alert color="yellow" variant="light" title="The server could not preview this sweep">{serverError}</Alert>
+              <Alert color="yellow" variant="light" title="The server could not preview this sweep">
+                {serverError}
+              </Alert>
             ) : server?.quota ? (
               server.quota.allowed ? (
-                <Alert color="teal" variant="light" icon={<IconCircleCheck size={18} />} title="Within your quota" data-testid="quota-verdict" data-allowed="true">
+                <Alert
+                  color="teal"
+                  variant="light"
+                  icon={<IconCircleCheck size={18} />}
+                  title="Within your quota"
+                  data-testid="quota-verdict"
+                  data-allowed="true"
+                >
                   {formatCount(compiled.totalPoints)} points fit every limit of your quota.
                 </Alert>
               ) : (
-                <Alert color="red" variant="filled" icon={<IconHandStop size={18} />} title="Refused by your quota" data-testid="quota-verdict" data-allowed="false">
+                <Alert
+                  color="red"
+                  variant="filled"
+                  icon={<IconHandStop size={18} />}
+                  title="Refused by your quota"
+                  data-testid="quota-verdict"
+                  data-allowed="false"
+                >
                   <Stack gap={2}>
                     {violations.map((v) => (
                       <Text fz="sm" key={v.limit} data-testid="quota-violation">
-                        <strong>{v.limit}</strong>: limit {formatCount(v.value)}, used {formatCount(v.usage)}, this sweep {formatCount(v.requested)} — {v.message}
+                        <strong>{v.limit}</strong>: limit {formatCount(v.value)}, used {formatCount(v.usage)}, this
+                        sweep {formatCount(v.requested)} — {v.message}
                       </Text>
                     ))}
                   </Stack>
                 </Alert>
               )
             ) : serverLoading ? (
-              <Group gap="xs"><Loader size="xs" /><Text fz="xs" c="dimmed">Asking the server for the estimate and your quota…</Text></Group>
+              <Group gap="xs">
+                <Loader size="xs" />
+                <Text fz="xs" c="dimmed">
+                  Asking the server for the estimate and your quota…
+                </Text>
+              </Group>
             ) : null}
-            {me.data?.quota ? <QuotaMeters quota={me.data.quota} usage={me.data.usage} requested={compiled.totalPoints} /> : null}
+            {me.data?.quota ? (
+              <QuotaMeters quota={me.data.quota} usage={me.data.usage} requested={compiled.totalPoints} />
+            ) : null}
             <div data-testid="preview-sample">
               <Text fz="sm" fw={500} mb={4}>
-                Sample point #0 <Badge size="xs" variant="light" color="gray">computed in your browser</Badge>
+                Sample point #0{' '}
+                <Badge size="xs" variant="light" color="gray">
+                  computed in your browser
+                </Badge>
               </Text>
-              {sampleError ? <Text fz="xs" c="red">{sampleError}</Text> : null}
+              {sampleError ? (
+                <Text fz="xs" c="red">
+                  {sampleError}
+                </Text>
+              ) : null}
               {sample ? (
                 <Stack gap="xs">
                   <Table withTableBorder verticalSpacing={2} fz="xs">
@@ -112,13 +185,26 @@ export function PreviewPanel({ compiled, sample, sampleError, localErrors, serve
                       {compiled.columns
                         .filter((c) => c.kind === 'input' || c.kind === 'output' || c.kind === 'derived')
                         .map((c) => {
-                          const v = c.kind === 'input' ? sample.inputs[c.name] : c.kind === 'derived' ? sample.derived[c.name] : sample.outputs[c.name];
+                          const v =
+                            c.kind === 'input'
+                              ? sample.inputs[c.name]
+                              : c.kind === 'derived'
+                                ? sample.derived[c.name]
+                                : sample.outputs[c.name];
                           return (
                             <Table.Tr key={`${c.kind}-${c.name}`}>
                               <Table.Td ff="monospace">{c.name}</Table.Td>
                               <Table.Td c="dimmed">{c.kind}</Table.Td>
                               <Table.Td ta="right" data-testid={`sample-${c.name}`} data-value={String(v)}>
-                                {typeof v === 'boolean' ? (v ? 'yes' : 'no') : <Num value={typeof v === 'number' ? v : null} unit={c.unit} align="right" />}
+                                {typeof v === 'boolean' ? (
+                                  v ? (
+                                    'yes'
+                                  ) : (
+                                    'no'
+                                  )
+                                ) : (
+                                  <Num value={typeof v === 'number' ? v : null} unit={c.unit} align="right" />
+                                )}
                               </Table.Td>
                             </Table.Tr>
                           );
@@ -131,7 +217,9 @@ export function PreviewPanel({ compiled, sample, sampleError, localErrors, serve
             </div>
           </>
         ) : localErrors.length === 0 ? (
-          <Text fz="sm" c="dimmed">Choose a model and make at least one input an axis to see the point count and a sample point.</Text>
+          <Text fz="sm" c="dimmed">
+            Choose a model and make at least one input an axis to see the point count and a sample point.
+          </Text>
         ) : null}
       </Stack>
     </Paper>

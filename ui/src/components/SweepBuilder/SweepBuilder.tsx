@@ -1,9 +1,32 @@
 import {
-  ActionIcon, Alert, Button, FileButton, Grid, Group, Menu, Paper, SegmentedControl, SimpleGrid, Stack, TagsInput, Text, Textarea,
-  TextInput, Title, Tooltip,
+  ActionIcon,
+  Alert,
+  Button,
+  FileButton,
+  Grid,
+  Group,
+  Menu,
+  Paper,
+  SegmentedControl,
+  SimpleGrid,
+  Stack,
+  TagsInput,
+  Text,
+  Textarea,
+  TextInput,
+  Title,
+  Tooltip,
 } from '@mantine/core';
 import { useDebouncedValue } from '@mantine/hooks';
-import { IconDownload, IconFileImport, IconPlayerPlay, IconPlus, IconRestore, IconTemplate, IconTrash } from '@tabler/icons-react';
+import {
+  IconDownload,
+  IconFileImport,
+  IconPlayerPlay,
+  IconPlus,
+  IconRestore,
+  IconTemplate,
+  IconTrash,
+} from '@tabler/icons-react';
 import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useMemo, useState, type KeyboardEvent } from 'react';
 import { useNavigate } from 'react-router-dom';
@@ -12,15 +35,28 @@ import { api, ApiError } from '../../api/client.js';
 import { queryKeys } from '../../api/queryKeys.js';
 import { useDraft } from '../../hooks/useDraft.js';
 import {
-  axisNames, choiceOf, errorsByField, fromDefinition, initialState, modelOf, toDefinition,
-  type BuilderState, type InputChoice, type SamplingKind,
+  axisNames,
+  choiceOf,
+  errorsByField,
+  fromDefinition,
+  initialState,
+  modelOf,
+  toDefinition,
+  type BuilderState,
+  type InputChoice,
+  type SamplingKind,
 } from './builderState.js';
 import { exampleDefinitions } from './examples.js';
 import { InputRow } from './InputRow.js';
 import { PreviewPanel, type ServerPreview } from './PreviewPanel.js';
 
 function slug(name: string): string {
-  return name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'sweep';
+  return (
+    name
+      .toLowerCase()
+      .replace(/[^a-z0-9]+/g, '-')
+      .replace(/^-|-$/g, '') || 'sweep'
+  );
 }
 
 function download(filename: string, text: string) {
@@ -55,7 +91,13 @@ export function SweepBuilder() {
   const [defForCheck] = useDebouncedValue(definition, 120);
   const local = useMemo(() => {
     const res = checkSweep(defForCheck);
-    if (!res.ok) return { compiled: null, errors: res.errors, sample: null as PointEvaluation | null, sampleError: null as string | null };
+    if (!res.ok)
+      return {
+        compiled: null,
+        errors: res.errors,
+        sample: null as PointEvaluation | null,
+        sampleError: null as string | null,
+      };
     let sample: PointEvaluation | null = null;
     let sampleError: string | null = null;
     try {
@@ -79,7 +121,8 @@ export function SweepBuilder() {
   });
 
   const submit = useMutation({
-    mutationFn: (def: Record<string, unknown>) => api.post<{ id: number; status: string; points: number }>('/sweeps', def),
+    mutationFn: (def: Record<string, unknown>) =>
+      api.post<{ id: number; status: string; points: number }>('/sweeps', def),
     onSuccess: (res) => {
       draft.clear();
       // Usage (quota meters) and the catalogue change with a new sweep.
@@ -89,7 +132,16 @@ export function SweepBuilder() {
     },
   });
   const submitError = submit.error instanceof ApiError ? submit.error : null;
-  const serverFieldErrors = useMemo(() => (submitError ? errorsByField(submitError.details.map((d) => ({ path: d.path, message: d.message })), state) : {}), [submitError, state]);
+  const serverFieldErrors = useMemo(
+    () =>
+      submitError
+        ? errorsByField(
+            submitError.details.map((d) => ({ path: d.path, message: d.message })),
+            state,
+          )
+        : {},
+    [submitError, state],
+  );
   const fieldErrors = { ...serverFieldErrors, ...localFieldErrors };
   const quotaRefused = preview.data?.quota && !preview.data.quota.allowed;
   const canSubmit = local.compiled !== null && !submit.isPending && !quotaRefused;
@@ -114,8 +166,13 @@ export function SweepBuilder() {
       const prev = s.inputs[s.model]?.[name];
       const order = (s.axisOrder[s.model] ?? []).filter((n) => n !== name);
       // Becoming an axis appends it to the axes list; leaving axis mode drops it.
-      const axisOrder = next.mode === 'axis' ? (prev?.mode === 'axis' ? s.axisOrder[s.model] ?? [name] : [...order, name]) : order;
-      return { ...s, inputs: { ...s.inputs, [s.model]: { ...(s.inputs[s.model] ?? {}), [name]: next } }, axisOrder: { ...s.axisOrder, [s.model]: axisOrder } };
+      const axisOrder =
+        next.mode === 'axis' ? (prev?.mode === 'axis' ? (s.axisOrder[s.model] ?? [name]) : [...order, name]) : order;
+      return {
+        ...s,
+        inputs: { ...s.inputs, [s.model]: { ...(s.inputs[s.model] ?? {}), [name]: next } },
+        axisOrder: { ...s.axisOrder, [s.model]: axisOrder },
+      };
     });
   const load = (raw: unknown) => {
     try {
@@ -160,61 +217,147 @@ export function SweepBuilder() {
               {exampleDefinitions.map((ex) => (
                 <Menu.Item key={ex.file} onClick={() => load(ex.definition)} data-testid={`example-${ex.file}`}>
                   <Text fz="sm">{ex.name}</Text>
-                  <Text fz="xs" c="dimmed" ff="monospace">{ex.model} · {ex.file}</Text>
+                  <Text fz="xs" c="dimmed" ff="monospace">
+                    {ex.model} · {ex.file}
+                  </Text>
                 </Menu.Item>
               ))}
             </Menu.Dropdown>
           </Menu>
           <FileButton onChange={(f) => void onImport(f)} accept="application/json,.json">
             {(props) => (
-              <Button {...props} variant="default" size="xs" leftSection={<IconFileImport size={16} />} data-testid="import-json">
+              <Button
+                {...props}
+                variant="default"
+                size="xs"
+                leftSection={<IconFileImport size={16} />}
+                data-testid="import-json"
+              >
                 Import JSON
               </Button>
             )}
           </FileButton>
-          <Button variant="default" size="xs" leftSection={<IconDownload size={16} />} data-testid="export-json" onClick={() => download(`${slug(state.name)}.json`, JSON.stringify(definition, null, 2) + '\n')}>
+          <Button
+            variant="default"
+            size="xs"
+            leftSection={<IconDownload size={16} />}
+            data-testid="export-json"
+            onClick={() => download(`${slug(state.name)}.json`, JSON.stringify(definition, null, 2) + '\n')}
+          >
             Export JSON
           </Button>
-          <Button variant="subtle" size="xs" color="gray" leftSection={<IconRestore size={16} />} data-testid="reset-builder" onClick={() => { draft.clear(); submit.reset(); }}>
+          <Button
+            variant="subtle"
+            size="xs"
+            color="gray"
+            leftSection={<IconRestore size={16} />}
+            data-testid="reset-builder"
+            onClick={() => {
+              draft.clear();
+              submit.reset();
+            }}
+          >
             Start over
           </Button>
         </Group>
-        {draft.restored ? <Text fz="xs" c="dimmed" data-testid="draft-restored">Your unsaved draft was restored.</Text> : null}
+        {draft.restored ? (
+          <Text fz="xs" c="dimmed" data-testid="draft-restored">
+            Your unsaved draft was restored.
+          </Text>
+        ) : null}
       </Group>
-      {importError ? <Alert color="red" variant="light" mb="sm" title="Could not load the definition" withCloseButton onClose={() => setImportError(null)}>{importError}</Alert> : null}
+      {importError ? (
+        <Alert
+          color="red"
+          variant="light"
+          mb="sm"
+          title="Could not load the definition"
+          withCloseButton
+          onClose={() => setImportError(null)}
+        >
+          {importError}
+        </Alert>
+      ) : null}
 
       <Grid gutter="lg">
         <Grid.Col span={{ base: 12, lg: 7 }}>
           <Stack gap="md">
             <Paper withBorder p="md" radius="sm">
               <Stack gap="sm">
-                <TextInput label="Name" required data-testid="sweep-name" aria-label="Sweep name" placeholder="Argon column: Te × B scan" value={state.name} onChange={(e) => update({ name: e.currentTarget.value })} error={fieldErrors.name} description="Shown in the catalogue; up to 200 characters." />
+                <TextInput
+                  label="Name"
+                  required
+                  data-testid="sweep-name"
+                  aria-label="Sweep name"
+                  placeholder="Argon column: Te × B scan"
+                  value={state.name}
+                  onChange={(e) => update({ name: e.currentTarget.value })}
+                  error={fieldErrors.name}
+                  description="Shown in the catalogue; up to 200 characters."
+                />
                 <div>
-                  <Text fz="sm" fw={500} mb={4} id="builder-model-label">Model</Text>
-                  <SegmentedControl aria-labelledby="builder-model-label" data-testid="builder-model" value={state.model} onChange={(v) => update({ model: v })} data={models.map((m) => ({ value: m.id, label: m.title }))} />
-                  <Text fz="xs" c="dimmed" mt={4}>{model.summary}</Text>
-                  {fieldErrors.model ? <Text fz="xs" c="red">{fieldErrors.model}</Text> : null}
+                  <Text fz="sm" fw={500} mb={4} id="builder-model-label">
+                    Model
+                  </Text>
+                  <SegmentedControl
+                    aria-labelledby="builder-model-label"
+                    data-testid="builder-model"
+                    value={state.model}
+                    onChange={(v) => update({ model: v })}
+                    data={models.map((m) => ({ value: m.id, label: m.title }))}
+                  />
+                  <Text fz="xs" c="dimmed" mt={4}>
+                    {model.summary}
+                  </Text>
+                  {fieldErrors.model ? (
+                    <Text fz="xs" c="red">
+                      {fieldErrors.model}
+                    </Text>
+                  ) : null}
                 </div>
-                <Textarea label="Description" autosize minRows={1} maxRows={4} value={state.description} onChange={(e) => update({ description: e.currentTarget.value })} error={fieldErrors.description} />
+                <Textarea
+                  label="Description"
+                  autosize
+                  minRows={1}
+                  maxRows={4}
+                  value={state.description}
+                  onChange={(e) => update({ description: e.currentTarget.value })}
+                  error={fieldErrors.description}
+                />
               </Stack>
             </Paper>
 
             <div>
-              <Title order={2} fz="h4" mb={4}>Inputs</Title>
+              <Title order={2} fz="h4" mb={4}>
+                Inputs
+              </Title>
               <Text fz="xs" c="dimmed" mb="xs">
-                Each input keeps its default, takes a fixed value (a number in the unit shown, a value with units such as "2 cm", or an
-                expression over other inputs such as "Te_eV"), or becomes an axis.
+                Each input keeps its default, takes a fixed value (a number in the unit shown, a value with units such
+                as "2 cm", or an expression over other inputs such as "Te_eV"), or becomes an axis.
               </Text>
-              {fieldErrors.axes ? <Text fz="xs" c="red" mb="xs" role="alert">{fieldErrors.axes}</Text> : null}
+              {fieldErrors.axes ? (
+                <Text fz="xs" c="red" mb="xs" role="alert">
+                  {fieldErrors.axes}
+                </Text>
+              ) : null}
               <Stack gap="xs">
                 {model.inputs.map((spec) => (
-                  <InputRow key={`${model.id}-${spec.name}`} spec={spec} choice={choiceOf(state, spec)} onChange={(c) => setChoice(spec.name, c)} errors={fieldErrors} axisIndex={axes.includes(spec.name) ? axes.indexOf(spec.name) : null} />
+                  <InputRow
+                    key={`${model.id}-${spec.name}`}
+                    spec={spec}
+                    choice={choiceOf(state, spec)}
+                    onChange={(c) => setChoice(spec.name, c)}
+                    errors={fieldErrors}
+                    axisIndex={axes.includes(spec.name) ? axes.indexOf(spec.name) : null}
+                  />
                 ))}
               </Stack>
             </div>
 
             <Paper withBorder p="md" radius="sm">
-              <Title order={2} fz="h4" mb="xs">Sampling</Title>
+              <Title order={2} fz="h4" mb="xs">
+                Sampling
+              </Title>
               <SegmentedControl
                 data-testid="sampling-kind"
                 aria-label="Sampling design"
@@ -233,30 +376,95 @@ export function SweepBuilder() {
               </Text>
               {s.kind !== 'grid' ? (
                 <SimpleGrid cols={2} mt="xs" spacing="xs">
-                  <TextInput size="xs" label="Samples" data-testid="sampling-samples" aria-label="Samples" value={s.samples} onChange={(e) => update({ sampling: { ...s, samples: e.currentTarget.value } })} error={fieldErrors['sampling.samples']} inputMode="numeric" />
+                  <TextInput
+                    size="xs"
+                    label="Samples"
+                    data-testid="sampling-samples"
+                    aria-label="Samples"
+                    value={s.samples}
+                    onChange={(e) => update({ sampling: { ...s, samples: e.currentTarget.value } })}
+                    error={fieldErrors['sampling.samples']}
+                    inputMode="numeric"
+                  />
                   {s.kind === 'latin-hypercube' ? (
-                    <TextInput size="xs" label="Seed (reproducible)" data-testid="sampling-seed" aria-label="Seed" value={s.seed} onChange={(e) => update({ sampling: { ...s, seed: e.currentTarget.value } })} error={fieldErrors['sampling.seed']} inputMode="numeric" />
+                    <TextInput
+                      size="xs"
+                      label="Seed (reproducible)"
+                      data-testid="sampling-seed"
+                      aria-label="Seed"
+                      value={s.seed}
+                      onChange={(e) => update({ sampling: { ...s, seed: e.currentTarget.value } })}
+                      error={fieldErrors['sampling.seed']}
+                      inputMode="numeric"
+                    />
                   ) : null}
                 </SimpleGrid>
               ) : null}
-              {fieldErrors.sampling ? <Text fz="xs" c="red">{fieldErrors.sampling}</Text> : null}
+              {fieldErrors.sampling ? (
+                <Text fz="xs" c="red">
+                  {fieldErrors.sampling}
+                </Text>
+              ) : null}
             </Paper>
 
             <Paper withBorder p="md" radius="sm">
               <Group justify="space-between" mb="xs">
-                <Title order={2} fz="h4">Derived columns</Title>
-                <Button size="xs" variant="light" leftSection={<IconPlus size={14} />} data-testid="add-derived" onClick={() => update({ derived: [...state.derived, { name: '', expr: '' }] })}>
+                <Title order={2} fz="h4">
+                  Derived columns
+                </Title>
+                <Button
+                  size="xs"
+                  variant="light"
+                  leftSection={<IconPlus size={14} />}
+                  data-testid="add-derived"
+                  onClick={() => update({ derived: [...state.derived, { name: '', expr: '' }] })}
+                >
                   Add column
                 </Button>
               </Group>
-              <Text fz="xs" c="dimmed" mb="xs">A named column per point from a mathjs expression over inputs and outputs, e.g. vE_ms / vDi_ms.</Text>
+              <Text fz="xs" c="dimmed" mb="xs">
+                A named column per point from a mathjs expression over inputs and outputs, e.g. vE_ms / vDi_ms.
+              </Text>
               <Stack gap="xs">
                 {state.derived.map((d, i) => (
                   <Group key={i} align="flex-start" gap="xs" wrap="nowrap">
-                    <TextInput size="xs" w={180} label={i === 0 ? 'Name' : undefined} aria-label={`Derived column ${i + 1} name`} data-testid={`derived-name-${i}`} value={d.name} onChange={(e) => update({ derived: state.derived.map((x, k) => (k === i ? { ...x, name: e.currentTarget.value } : x)) })} error={fieldErrors[`derived.${i}.name`]} />
-                    <TextInput size="xs" style={{ flex: 1 }} label={i === 0 ? 'Expression' : undefined} aria-label={`Derived column ${i + 1} expression`} data-testid={`derived-expr-${i}`} value={d.expr} onChange={(e) => update({ derived: state.derived.map((x, k) => (k === i ? { ...x, expr: e.currentTarget.value } : x)) })} error={fieldErrors[`derived.${i}.expr`] ?? fieldErrors[`derived.${i}`]} spellCheck={false} />
+                    <TextInput
+                      size="xs"
+                      w={180}
+                      label={i === 0 ? 'Name' : undefined}
+                      aria-label={`Derived column ${i + 1} name`}
+                      data-testid={`derived-name-${i}`}
+                      value={d.name}
+                      onChange={(e) =>
+                        update({
+                          derived: state.derived.map((x, k) => (k === i ? { ...x, name: e.currentTarget.value } : x)),
+                        })
+                      }
+                      error={fieldErrors[`derived.${i}.name`]}
+                    />
+                    <TextInput
+                      size="xs"
+                      style={{ flex: 1 }}
+                      label={i === 0 ? 'Expression' : undefined}
+                      aria-label={`Derived column ${i + 1} expression`}
+                      data-testid={`derived-expr-${i}`}
+                      value={d.expr}
+                      onChange={(e) =>
+                        update({
+                          derived: state.derived.map((x, k) => (k === i ? { ...x, expr: e.currentTarget.value } : x)),
+                        })
+                      }
+                      error={fieldErrors[`derived.${i}.expr`] ?? fieldErrors[`derived.${i}`]}
+                      spellCheck={false}
+                    />
                     <Tooltip label="Remove this column">
-                      <ActionIcon variant="subtle" color="gray" mt={i === 0 ? 22 : 2} aria-label={`Remove derived column ${i + 1}`} onClick={() => update({ derived: state.derived.filter((_, k) => k !== i) })}>
+                      <ActionIcon
+                        variant="subtle"
+                        color="gray"
+                        mt={i === 0 ? 22 : 2}
+                        aria-label={`Remove derived column ${i + 1}`}
+                        onClick={() => update({ derived: state.derived.filter((_, k) => k !== i) })}
+                      >
                         <IconTrash size={16} />
                       </ActionIcon>
                     </Tooltip>
@@ -267,11 +475,39 @@ export function SweepBuilder() {
 
             <Paper withBorder p="md" radius="sm">
               <SimpleGrid cols={{ base: 1, sm: 2 }} spacing="sm">
-                <TagsInput label="Tags" data-testid="sweep-tags" aria-label="Tags" description="Lower-case words for the catalogue filters; Enter adds one." value={state.tags} onChange={(tags) => update({ tags })} error={Object.entries(fieldErrors).filter(([k]) => k.startsWith('tags')).map(([, v]) => v).join('; ') || undefined} />
+                <TagsInput
+                  label="Tags"
+                  data-testid="sweep-tags"
+                  aria-label="Tags"
+                  description="Lower-case words for the catalogue filters; Enter adds one."
+                  value={state.tags}
+                  onChange={(tags) => update({ tags })}
+                  error={
+                    Object.entries(fieldErrors)
+                      .filter(([k]) => k.startsWith('tags'))
+                      .map(([, v]) => v)
+                      .join('; ') || undefined
+                  }
+                />
                 <div>
-                  <Text fz="sm" fw={500} mb={4} id="visibility-label">Visibility</Text>
-                  <SegmentedControl aria-labelledby="visibility-label" data-testid="sweep-visibility" value={state.visibility} onChange={(v) => update({ visibility: v as 'private' | 'group' })} data={[{ value: 'private', label: 'Private' }, { value: 'group', label: 'Group' }]} />
-                  <Text fz="xs" c="dimmed" mt={4}>{state.visibility === 'private' ? 'Only you, people you share it with, and admins.' : 'Everyone signed in can read it.'}</Text>
+                  <Text fz="sm" fw={500} mb={4} id="visibility-label">
+                    Visibility
+                  </Text>
+                  <SegmentedControl
+                    aria-labelledby="visibility-label"
+                    data-testid="sweep-visibility"
+                    value={state.visibility}
+                    onChange={(v) => update({ visibility: v as 'private' | 'group' })}
+                    data={[
+                      { value: 'private', label: 'Private' },
+                      { value: 'group', label: 'Group' },
+                    ]}
+                  />
+                  <Text fz="xs" c="dimmed" mt={4}>
+                    {state.visibility === 'private'
+                      ? 'Only you, people you share it with, and admins.'
+                      : 'Everyone signed in can read it.'}
+                  </Text>
                 </div>
               </SimpleGrid>
             </Paper>
@@ -290,14 +526,28 @@ export function SweepBuilder() {
                 serverError={preview.error instanceof Error ? preview.error.message : null}
               />
               {submitError ? (
-                <Alert color="red" variant="light" title={submitError.status === 429 ? 'Refused by your quota' : 'The server did not accept the sweep'} data-testid="submit-error">
+                <Alert
+                  color="red"
+                  variant="light"
+                  title={submitError.status === 429 ? 'Refused by your quota' : 'The server did not accept the sweep'}
+                  data-testid="submit-error"
+                >
                   {submitError.message}
                 </Alert>
               ) : null}
-              <Button type="submit" size="md" leftSection={<IconPlayerPlay size={18} />} disabled={!canSubmit} loading={submit.isPending} data-testid="submit-sweep">
+              <Button
+                type="submit"
+                size="md"
+                leftSection={<IconPlayerPlay size={18} />}
+                disabled={!canSubmit}
+                loading={submit.isPending}
+                data-testid="submit-sweep"
+              >
                 Submit sweep
               </Button>
-              <Text fz="xs" c="dimmed" ta="center">Ctrl+Enter submits from any field. Your input is kept as a draft until you submit.</Text>
+              <Text fz="xs" c="dimmed" ta="center">
+                Ctrl+Enter submits from any field. Your input is kept as a draft until you submit.
+              </Text>
             </Stack>
           </div>
         </Grid.Col>

@@ -17,15 +17,21 @@ describe('builder state ↔ sweep definition', () => {
       for (const i of [0, original.compiled.totalPoints - 1]) {
         const a = original.compiled.pointAt(i);
         const b = again.compiled.pointAt(i);
-        for (const k of Object.keys(a)) expect(Math.abs(b[k]! - a[k]!), `${ex.file} ${k}`).toBeLessThanOrEqual(1e-12 * Math.max(1, Math.abs(a[k]!)));
+        for (const k of Object.keys(a))
+          expect(Math.abs(b[k]! - a[k]!), `${ex.file} ${k}`).toBeLessThanOrEqual(1e-12 * Math.max(1, Math.abs(a[k]!)));
       }
     }
   });
 
   it('keeps numbers as numbers and unit strings and expressions as text', () => {
     const s = fromDefinition({
-      name: 'x', model: 'cross-field', fixed: { Ti_eV: 'Te_eV', mu: 2 },
-      axes: [{ param: 'Ln_m', kind: 'list', values: [1, 2], unit: 'cm' }, { param: 'B_T', kind: 'linear', min: '500 G', max: 0.2, count: 3 }],
+      name: 'x',
+      model: 'cross-field',
+      fixed: { Ti_eV: 'Te_eV', mu: 2 },
+      axes: [
+        { param: 'Ln_m', kind: 'list', values: [1, 2], unit: 'cm' },
+        { param: 'B_T', kind: 'linear', min: '500 G', max: 0.2, count: 3 },
+      ],
     });
     const d = toDefinition(s) as { fixed: Record<string, unknown>; axes: Record<string, unknown>[] };
     expect(d.fixed).toEqual({ Ti_eV: 'Te_eV', mu: 2 });
@@ -35,8 +41,13 @@ describe('builder state ↔ sweep definition', () => {
 
   it('puts error paths beside the right field', () => {
     const s = fromDefinition({
-      name: 'x', model: 'cross-field', fixed: { Ti_eV: 'Te_eV' },
-      axes: [{ param: 'Te_eV', kind: 'log', min: 1, max: 10, count: 3 }, { param: 'B_T', kind: 'linear', min: 0.1, max: 500, count: 3 }],
+      name: 'x',
+      model: 'cross-field',
+      fixed: { Ti_eV: 'Te_eV' },
+      axes: [
+        { param: 'Te_eV', kind: 'log', min: 1, max: 10, count: 3 },
+        { param: 'B_T', kind: 'linear', min: 0.1, max: 500, count: 3 },
+      ],
     });
     expect(fieldKeyOf('axes.1.max', s)).toBe('input.B_T.max');
     expect(fieldKeyOf('axes.0.values.2', s)).toBe('input.Te_eV.values');

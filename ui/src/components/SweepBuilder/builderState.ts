@@ -175,8 +175,14 @@ export function fromDefinition(raw: unknown): BuilderState {
   state.axisOrder = { [modelId]: order };
   const s = (d.sampling && typeof d.sampling === 'object' ? d.sampling : { kind: 'grid' }) as Record<string, unknown>;
   const kind = (['grid', 'latin-hypercube', 'sobol'].includes(String(s.kind)) ? s.kind : 'grid') as SamplingKind;
-  state.sampling = { kind, samples: s.samples === undefined ? state.sampling.samples : String(s.samples), seed: s.seed === undefined ? state.sampling.seed : String(s.seed) };
-  state.derived = Array.isArray(d.derived) ? (d.derived as Record<string, unknown>[]).map((x) => ({ name: String(x.name ?? ''), expr: String(x.expr ?? '') })) : [];
+  state.sampling = {
+    kind,
+    samples: s.samples === undefined ? state.sampling.samples : String(s.samples),
+    seed: s.seed === undefined ? state.sampling.seed : String(s.seed),
+  };
+  state.derived = Array.isArray(d.derived)
+    ? (d.derived as Record<string, unknown>[]).map((x) => ({ name: String(x.name ?? ''), expr: String(x.expr ?? '') }))
+    : [];
   state.tags = Array.isArray(d.tags) ? (d.tags as unknown[]).map(String) : [];
   state.visibility = d.visibility === 'group' ? 'group' : 'private';
   return state;
@@ -200,7 +206,10 @@ export function fieldKeyOf(path: string, state: BuilderState): string {
 }
 
 /** Group error details by form field; several messages for one field are joined. */
-export function errorsByField(details: readonly { path?: string; message: string }[], state: BuilderState): Record<string, string> {
+export function errorsByField(
+  details: readonly { path?: string; message: string }[],
+  state: BuilderState,
+): Record<string, string> {
   const out: Record<string, string> = {};
   for (const d of details) {
     const key = fieldKeyOf(d.path ?? '', state);

@@ -2,7 +2,10 @@
  * The definitions in the repository's examples/ folder, bundled at build time (Vite glob import),
  * for the builder's "Load example" menu. The same files seed the demo catalogue.
  */
-const files = import.meta.glob('../../../../examples/*.json', { eager: true, import: 'default' }) as Record<string, unknown>;
+const files = import.meta.glob('../../../../examples/*.json', { eager: true, import: 'default' }) as Record<
+  string,
+  unknown
+>;
 
 export interface ExampleDefinition {
   file: string;

@@ -8,12 +8,22 @@ import { api, type Page } from '../../api/client.js';
 import { queryKeys } from '../../api/queryKeys.js';
 import { prettyUnit } from '../../lib/format.js';
 import type { OverlaySeries } from './chartOptions.js';
-import { defaultOverlayColumns, numericColumns, overlaySummary, planOverlay, type OverlayScales, type PlotAxisUnits } from './overlay.js';
+import {
+  defaultOverlayColumns,
+  numericColumns,
+  overlaySummary,
+  planOverlay,
+  type OverlayScales,
+  type PlotAxisUnits,
+} from './overlay.js';
 
 const LIST = { pageSize: 200 };
 
 /** "an x column in eV" / "a dimensionless y column". */
-const wanted = (axis: 'x' | 'y', unit: string) => (prettyUnit(unit) ? `${axis === 'x' ? 'an' : 'a'} ${axis} column in ${prettyUnit(unit)}` : `a dimensionless ${axis} column`);
+const wanted = (axis: 'x' | 'y', unit: string) =>
+  prettyUnit(unit)
+    ? `${axis === 'x' ? 'an' : 'a'} ${axis} column in ${prettyUnit(unit)}`
+    : `a dimensionless ${axis} column`;
 const MAX_POINTS = 5000;
 
 /**
@@ -21,7 +31,15 @@ const MAX_POINTS = 5000;
  * numeric columns; the points go to the parent (onOverlay) only when both units match the plot's.
  * Mismatched units give a warning naming both units instead of a misleading picture.
  */
-export function DatasetOverlay({ plot, scales, onOverlay }: { plot: PlotAxisUnits; scales: OverlayScales; onOverlay: (o: OverlaySeries | null) => void }) {
+export function DatasetOverlay({
+  plot,
+  scales,
+  onOverlay,
+}: {
+  plot: PlotAxisUnits;
+  scales: OverlayScales;
+  onOverlay: (o: OverlaySeries | null) => void;
+}) {
   const [on, setOn] = useState(false);
   const [datasetId, setDatasetId] = useState<string | null>(null);
   const [x, setX] = useState<string | null>(null);
@@ -50,29 +68,53 @@ export function DatasetOverlay({ plot, scales, onOverlay }: { plot: PlotAxisUnit
     queryFn: ({ signal }) => api.get<DatasetSeries>(`/datasets/${datasetId}/series`, params, signal),
     enabled: on && !!datasetId && !!x && !!y,
   });
-  const plan = useMemo(() => (series.data && on ? planOverlay(series.data, plot, scales) : null), [series.data, on, plot, scales]);
+  const plan = useMemo(
+    () => (series.data && on ? planOverlay(series.data, plot, scales) : null),
+    [series.data, on, plot, scales],
+  );
   const name = dataset ? `Dataset: ${dataset.name}` : '';
   const overlay = plan?.ok ? { name, points: plan.points } : null;
-  const key = overlay ? `${name}|${overlay.points.length}|${overlay.points[0]?.join(',')}|${overlay.points.at(-1)?.join(',')}` : '';
+  const key = overlay
+    ? `${name}|${overlay.points.length}|${overlay.points[0]?.join(',')}|${overlay.points.at(-1)?.join(',')}`
+    : '';
   useEffect(() => {
     onOverlay(overlay);
   }, [key]); // eslint-disable-line react-hooks/exhaustive-deps
-  useEffect(() => () => {
-    onOverlay(null);
-  }, []); // eslint-disable-line react-hooks/exhaustive-deps
+  useEffect(
+    () => () => {
+      onOverlay(null);
+    },
+    [],
+  ); // eslint-disable-line react-hooks/exhaustive-deps
 
-  const columnOptions = columns.map((c) => ({ value: c.name, label: `${c.name}${prettyUnit(c.canonicalUnit) ? ` (${prettyUnit(c.canonicalUnit)})` : ''}` }));
+  const columnOptions = columns.map((c) => ({
+    value: c.name,
+    label: `${c.name}${prettyUnit(c.canonicalUnit) ? ` (${prettyUnit(c.canonicalUnit)})` : ''}`,
+  }));
 
   return (
     <Stack gap="xs" data-testid="dataset-overlay">
-      <Switch label="Overlay a dataset" checked={on} onChange={(e) => setOn(e.currentTarget.checked)} data-testid="overlay-toggle" />
+      <Switch
+        label="Overlay a dataset"
+        checked={on}
+        onChange={(e) => setOn(e.currentTarget.checked)}
+        data-testid="overlay-toggle"
+      />
       {on ? (
         <>
           {list.isLoading ? <Loader size="xs" /> : null}
-          {list.error ? <Alert color="red" title="Datasets could not be listed">{(list.error as Error).message}</Alert> : null}
+          {list.error ? (
+            <Alert color="red" title="Datasets could not be listed">
+              {(list.error as Error).message}
+            </Alert>
+          ) : null}
           {list.isSuccess && datasets.length === 0 ? (
             <Text fz="sm" c="dimmed" data-testid="overlay-empty">
-              No datasets you can read yet. Upload measurements on the <Anchor component={Link} to="/datasets">Datasets</Anchor> page (a researcher's), or ask a colleague to share one.
+              No datasets you can read yet. Upload measurements on the{' '}
+              <Anchor component={Link} to="/datasets">
+                Datasets
+              </Anchor>{' '}
+              page (a researcher's), or ask a colleague to share one.
             </Text>
           ) : null}
           {datasets.length ? (
@@ -88,8 +130,26 @@ export function DatasetOverlay({ plot, scales, onOverlay }: { plot: PlotAxisUnit
                 w={260}
                 data-testid="overlay-dataset"
               />
-              <Select label={`Dataset x (plot: ${prettyUnit(plot.x.unit) || 'dimensionless'})`} data={columnOptions} value={x} onChange={setX} disabled={!dataset} allowDeselect={false} w={200} data-testid="overlay-x" />
-              <Select label={`Dataset y (plot: ${prettyUnit(plot.y.unit) || 'dimensionless'})`} data={columnOptions} value={y} onChange={setY} disabled={!dataset} allowDeselect={false} w={200} data-testid="overlay-y" />
+              <Select
+                label={`Dataset x (plot: ${prettyUnit(plot.x.unit) || 'dimensionless'})`}
+                data={columnOptions}
+                value={x}
+                onChange={setX}
+                disabled={!dataset}
+                allowDeselect={false}
+                w={200}
+                data-testid="overlay-x"
+              />
+              <Select
+                label={`Dataset y (plot: ${prettyUnit(plot.y.unit) || 'dimensionless'})`}
+                data={columnOptions}
+                value={y}
+                onChange={setY}
+                disabled={!dataset}
+                allowDeselect={false}
+                w={200}
+                data-testid="overlay-y"
+              />
               {series.isFetching ? <Loader size="xs" mb={8} /> : null}
             </Group>
           ) : null}
@@ -98,10 +158,20 @@ export function DatasetOverlay({ plot, scales, onOverlay }: { plot: PlotAxisUnit
               “{dataset.name}” has no numeric columns to plot.
             </Text>
           ) : null}
-          {series.error ? <Alert color="red" title="The dataset could not be read">{(series.error as Error).message}</Alert> : null}
+          {series.error ? (
+            <Alert color="red" title="The dataset could not be read">
+              {(series.error as Error).message}
+            </Alert>
+          ) : null}
           {plan && !plan.ok ? (
-            <Alert color="yellow" icon={<IconAlertTriangle size={16} />} title="Not overlaid: the units differ" data-testid="overlay-warning">
-              {plan.mismatches.map((m) => m.charAt(0).toUpperCase() + m.slice(1)).join('; ')}. Both sides are in canonical units, so these are different quantities: pick {wanted('x', plot.x.unit)} and{' '}
+            <Alert
+              color="yellow"
+              icon={<IconAlertTriangle size={16} />}
+              title="Not overlaid: the units differ"
+              data-testid="overlay-warning"
+            >
+              {plan.mismatches.map((m) => m.charAt(0).toUpperCase() + m.slice(1)).join('; ')}. Both sides are in
+              canonical units, so these are different quantities: pick {wanted('x', plot.x.unit)} and{' '}
               {wanted('y', plot.y.unit)}.
             </Alert>
           ) : null}

@@ -1,4 +1,15 @@
-import { Alert, Button, Group, Paper, SegmentedControl, Select, Stack, Switch, Text, useComputedColorScheme } from '@mantine/core';
+import {
+  Alert,
+  Button,
+  Group,
+  Paper,
+  SegmentedControl,
+  Select,
+  Stack,
+  Switch,
+  Text,
+  useComputedColorScheme,
+} from '@mantine/core';
 import { IconDownload } from '@tabler/icons-react';
 import { useEffect, useMemo, useRef, useState } from 'react';
 import type { HeatmapSeries, LineSeries } from '@driftgrid/domain';
@@ -8,14 +19,28 @@ import { heatmapOption, lineOption, type OverlaySeries, type Scales } from './ch
 import { DatasetOverlay } from './DatasetOverlay.js';
 import type { PlotAxisUnits } from './overlay.js';
 
-type Chart = { dispose(): void; resize(): void; setOption(o: unknown, notMerge?: boolean): void; getDataURL(o: object): string };
+type Chart = {
+  dispose(): void;
+  resize(): void;
+  setOption(o: unknown, notMerge?: boolean): void;
+  getDataURL(o: object): string;
+};
 
 /** Which plot fits the sweep: one swept input → a line; two or more → a heatmap over the first two. */
 export function defaultPlot(sweep: Pick<SweepView, 'definition' | 'columns'>) {
   const axes = (sweep.definition.axes ?? []).map((a) => a.param);
-  const outputs = sweep.columns.filter((c) => (c.kind === 'output' || c.kind === 'derived') && c.type !== 'boolean').map((c) => c.name);
+  const outputs = sweep.columns
+    .filter((c) => (c.kind === 'output' || c.kind === 'derived') && c.type !== 'boolean')
+    .map((c) => c.name);
   const preferred = ['rho_i_over_Ln', 'vDi_ms', 'phi_V'].find((n) => outputs.includes(n)) ?? outputs[0] ?? '';
-  return { kind: axes.length >= 2 ? ('heatmap' as const) : ('line' as const), axes, outputs, x: axes[0] ?? '', y: axes[1] ?? '', z: preferred };
+  return {
+    kind: axes.length >= 2 ? ('heatmap' as const) : ('line' as const),
+    axes,
+    outputs,
+    x: axes[0] ?? '',
+    y: axes[1] ?? '',
+    z: preferred,
+  };
 }
 
 function download(url: string, name: string) {
@@ -49,7 +74,13 @@ export function SweepPlot({ sweep }: { sweep: SweepView }) {
   const query =
     kind === 'heatmap'
       ? { kind, x, y: y2, z: out, maxPoints: 4000, ...(mean ? { agg: 'mean' } : {}) }
-      : { kind, x, y: out, groupBy: groupBy && groupBy !== x && groupCount(groupBy) <= 20 ? groupBy : undefined, maxPoints: 2000 };
+      : {
+          kind,
+          x,
+          y: out,
+          groupBy: groupBy && groupBy !== x && groupCount(groupBy) <= 20 ? groupBy : undefined,
+          maxPoints: 2000,
+        };
   const ready = !!x && !!out && (kind === 'line' || (!!y2 && y2 !== x));
   const { data, error, isFetching } = useSeries(sweep.id, query, ready && sweep.progress.done > 0);
 
@@ -59,11 +90,16 @@ export function SweepPlot({ sweep }: { sweep: SweepView }) {
   const text = scheme === 'dark' ? '#d5dde3' : '#27323a';
   const [overlay, setOverlay] = useState<OverlaySeries | null>(null);
   const unitOf = (name: string) => sweep.columns.find((c) => c.name === name)?.unit ?? '';
-  const plotUnits = useMemo<PlotAxisUnits>(() => ({ x: { name: x, unit: unitOf(x) }, y: { name: out, unit: unitOf(out) } }), [x, out, sweep.columns]); // eslint-disable-line react-hooks/exhaustive-deps
+  const plotUnits = useMemo<PlotAxisUnits>(
+    () => ({ x: { name: x, unit: unitOf(x) }, y: { name: out, unit: unitOf(out) } }),
+    [x, out, sweep.columns],
+  ); // eslint-disable-line react-hooks/exhaustive-deps
   const overlayScales = useMemo(() => ({ x: scales.x, y: scales.y }), [scales.x, scales.y]);
   const option = useMemo(() => {
     if (!data) return null;
-    return data.kind === 'heatmap' ? heatmapOption(data as HeatmapSeries, scales, text) : lineOption(data as LineSeries, scales, text, kind === 'line' ? overlay : null);
+    return data.kind === 'heatmap'
+      ? heatmapOption(data as HeatmapSeries, scales, text)
+      : lineOption(data as LineSeries, scales, text, kind === 'line' ? overlay : null);
   }, [data, scales, text, overlay, kind]);
   const latest = useRef(option);
   latest.current = option;
@@ -90,7 +126,15 @@ export function SweepPlot({ sweep }: { sweep: SweepView }) {
 
   const base = `sweep-${sweep.id}-${kind}-${x}-${kind === 'heatmap' ? `${y2}-${out}` : out}`;
   const exportPng = () => {
-    if (chart.current) download(chart.current.getDataURL({ type: 'png', pixelRatio: 2, backgroundColor: scheme === 'dark' ? '#1b2227' : '#ffffff' }), `${base}.png`);
+    if (chart.current)
+      download(
+        chart.current.getDataURL({
+          type: 'png',
+          pixelRatio: 2,
+          backgroundColor: scheme === 'dark' ? '#1b2227' : '#ffffff',
+        }),
+        `${base}.png`,
+      );
   };
   const exportSvg = async () => {
     if (!option) return;
@@ -106,10 +150,17 @@ export function SweepPlot({ sweep }: { sweep: SweepView }) {
     host.remove();
   };
 
-  const numeric = sweep.columns.filter((c) => c.kind !== 'index' && c.kind !== 'flags' && c.type !== 'boolean').map((c) => ({ value: c.name, label: `${c.name}${prettyUnit(c.unit) ? ` (${prettyUnit(c.unit)})` : ''}` }));
+  const numeric = sweep.columns
+    .filter((c) => c.kind !== 'index' && c.kind !== 'flags' && c.type !== 'boolean')
+    .map((c) => ({ value: c.name, label: `${c.name}${prettyUnit(c.unit) ? ` (${prettyUnit(c.unit)})` : ''}` }));
   const sweptOrInputs = (d.axes.length ? d.axes : inputs).map((n) => ({ value: n, label: n }));
   const slice = data?.slice ?? {};
-  const nonPositive = data?.kind === 'line' && (scales.x || scales.y) && (data as LineSeries).groups.some((g) => g.points.some((p) => (scales.x && (p[0] ?? 0) <= 0) || (scales.y && (p[1] ?? 0) <= 0)));
+  const nonPositive =
+    data?.kind === 'line' &&
+    (scales.x || scales.y) &&
+    (data as LineSeries).groups.some((g) =>
+      g.points.some((p) => (scales.x && (p[0] ?? 0) <= 0) || (scales.y && (p[1] ?? 0) <= 0)),
+    );
 
   return (
     <Stack gap="sm">
@@ -123,29 +174,92 @@ export function SweepPlot({ sweep }: { sweep: SweepView }) {
           ]}
           aria-label="Plot type"
         />
-        <Select label="x" data={kind === 'heatmap' ? sweptOrInputs : numeric} value={x} onChange={(v) => v && setX(v)} w={170} allowDeselect={false} />
+        <Select
+          label="x"
+          data={kind === 'heatmap' ? sweptOrInputs : numeric}
+          value={x}
+          onChange={(v) => v && setX(v)}
+          w={170}
+          allowDeselect={false}
+        />
         {kind === 'heatmap' ? (
-          <Select label="y" data={sweptOrInputs.filter((o) => o.value !== x)} value={y2} onChange={(v) => v && setY2(v)} w={170} allowDeselect={false} />
+          <Select
+            label="y"
+            data={sweptOrInputs.filter((o) => o.value !== x)}
+            value={y2}
+            onChange={(v) => v && setY2(v)}
+            w={170}
+            allowDeselect={false}
+          />
         ) : null}
-        <Select label={kind === 'heatmap' ? 'Colour (z)' : 'y'} data={numeric} value={out} onChange={(v) => v && setOut(v)} w={200} searchable allowDeselect={false} data-testid="plot-output" />
+        <Select
+          label={kind === 'heatmap' ? 'Colour (z)' : 'y'}
+          data={numeric}
+          value={out}
+          onChange={(v) => v && setOut(v)}
+          w={200}
+          searchable
+          allowDeselect={false}
+          data-testid="plot-output"
+        />
         {kind === 'line' ? (
-          <Select label="One line per" placeholder="No grouping" data={d.axes.filter((a) => a !== x).map((n) => ({ value: n, label: n }))} value={groupBy} onChange={setGroupBy} clearable w={170} />
+          <Select
+            label="One line per"
+            placeholder="No grouping"
+            data={d.axes.filter((a) => a !== x).map((n) => ({ value: n, label: n }))}
+            value={groupBy}
+            onChange={setGroupBy}
+            clearable
+            w={170}
+          />
         ) : null}
       </Group>
       <Group gap="lg" wrap="wrap">
-        <Switch label="Log x" checked={scales.x} onChange={(e) => setScales({ ...scales, x: e.currentTarget.checked })} data-testid="log-x" />
-        <Switch label="Log y" checked={scales.y} onChange={(e) => setScales({ ...scales, y: e.currentTarget.checked })} data-testid="log-y" />
+        <Switch
+          label="Log x"
+          checked={scales.x}
+          onChange={(e) => setScales({ ...scales, x: e.currentTarget.checked })}
+          data-testid="log-x"
+        />
+        <Switch
+          label="Log y"
+          checked={scales.y}
+          onChange={(e) => setScales({ ...scales, y: e.currentTarget.checked })}
+          data-testid="log-y"
+        />
         {kind === 'heatmap' ? (
           <>
-            <Switch label="Log colour" checked={scales.z} onChange={(e) => setScales({ ...scales, z: e.currentTarget.checked })} />
-            {d.axes.length > 2 ? <Switch label="Average over the other inputs" checked={mean} onChange={(e) => setMean(e.currentTarget.checked)} /> : null}
+            <Switch
+              label="Log colour"
+              checked={scales.z}
+              onChange={(e) => setScales({ ...scales, z: e.currentTarget.checked })}
+            />
+            {d.axes.length > 2 ? (
+              <Switch
+                label="Average over the other inputs"
+                checked={mean}
+                onChange={(e) => setMean(e.currentTarget.checked)}
+              />
+            ) : null}
           </>
         ) : null}
         <Group gap="xs" ml="auto">
-          <Button size="xs" variant="default" leftSection={<IconDownload size={14} />} onClick={exportPng} disabled={!option}>
+          <Button
+            size="xs"
+            variant="default"
+            leftSection={<IconDownload size={14} />}
+            onClick={exportPng}
+            disabled={!option}
+          >
             PNG
           </Button>
-          <Button size="xs" variant="default" leftSection={<IconDownload size={14} />} onClick={() => void exportSvg()} disabled={!option}>
+          <Button
+            size="xs"
+            variant="default"
+            leftSection={<IconDownload size={14} />}
+            onClick={() => void exportSvg()}
+            disabled={!option}
+          >
             SVG
           </Button>
         </Group>
@@ -162,13 +276,26 @@ export function SweepPlot({ sweep }: { sweep: SweepView }) {
         </Text>
       ) : null}
       <Paper withBorder radius="md" p="xs">
-        <div ref={ref} style={{ width: '100%', height: 480, opacity: isFetching ? 0.7 : 1 }} data-testid="sweep-plot" data-log-x={scales.x} data-log-y={scales.y} data-overlay-points={kind === 'line' && overlay ? overlay.points.length : 0} role="img" aria-label={`${kind} plot of ${out}`} />
+        <div
+          ref={ref}
+          style={{ width: '100%', height: 480, opacity: isFetching ? 0.7 : 1 }}
+          data-testid="sweep-plot"
+          data-log-x={scales.x}
+          data-log-y={scales.y}
+          data-overlay-points={kind === 'line' && overlay ? overlay.points.length : 0}
+          role="img"
+          aria-label={`${kind} plot of ${out}`}
+        />
       </Paper>
       <Text fz="xs" c="dimmed">
         {Object.keys(slice).length
-          ? `Other swept inputs held at: ${Object.entries(slice).map(([p, v]) => `${p} = ${formatQuantity(v.value, v.unit)}${v.index === 0 ? ' (first value)' : ''}`).join(', ')}. `
+          ? `Other swept inputs held at: ${Object.entries(slice)
+              .map(([p, v]) => `${p} = ${formatQuantity(v.value, v.unit)}${v.index === 0 ? ' (first value)' : ''}`)
+              .join(', ')}. `
           : ''}
-        {data ? `${data.kind === 'heatmap' ? `${data.cells.length} cells` : `${(data as LineSeries).returned} points`} shown (${data.method}). Hatched or shaded: at least one validity flag is raised. Log axes drop values ≤ 0.` : ''}
+        {data
+          ? `${data.kind === 'heatmap' ? `${data.cells.length} cells` : `${(data as LineSeries).returned} points`} shown (${data.method}). Hatched or shaded: at least one validity flag is raised. Log axes drop values ≤ 0.`
+          : ''}
         {nonPositive ? ' Some values are ≤ 0 and are left out on the log axis.' : ''}
       </Text>
     </Stack>

@@ -55,8 +55,10 @@ export const OVERLAY_COLOR = '#d9480f';
  * optional dataset overlay as a scatter of diamonds (a shape of its own, not only a colour).
  */
 export function lineOption(s: LineSeries, scales: Scales, text: string, overlay?: OverlaySeries | null) {
-  const keep = (p: [number | null, number | null, number]) => p[0] !== null && p[1] !== null && (!scales.x || p[0] > 0) && (!scales.y || p[1]! > 0);
-  const groupLabel = (v: number | null) => (s.groupBy ? `${s.groupBy.name} = ${formatQuantity(v, s.groupBy.unit)}` : s.y.name);
+  const keep = (p: [number | null, number | null, number]) =>
+    p[0] !== null && p[1] !== null && (!scales.x || p[0] > 0) && (!scales.y || p[1]! > 0);
+  const groupLabel = (v: number | null) =>
+    s.groupBy ? `${s.groupBy.name} = ${formatQuantity(v, s.groupBy.unit)}` : s.y.name;
   const series: unknown[] = s.groups.map((g) => ({
     name: groupLabel(g.value),
     type: 'line',
@@ -90,7 +92,10 @@ export function lineOption(s: LineSeries, scales: Scales, text: string, overlay?
     lineStyle: { opacity: 0 },
     markArea: {
       silent: true,
-      itemStyle: { color: 'rgba(140, 140, 140, 0.22)', decal: { symbol: 'line', dashArrayX: [1, 0], dashArrayY: [3, 5], rotation: Math.PI / 4, color: HATCH } },
+      itemStyle: {
+        color: 'rgba(140, 140, 140, 0.22)',
+        decal: { symbol: 'line', dashArrayX: [1, 0], dashArrayY: [3, 5], rotation: Math.PI / 4, color: HATCH },
+      },
       data: bands.map(([a, b]) => [{ xAxis: a }, { xAxis: b }]),
     },
   });
@@ -113,7 +118,10 @@ export function lineOption(s: LineSeries, scales: Scales, text: string, overlay?
     grid: { left: 72, right: 24, top: 48, bottom: 52 },
     tooltip: {
       trigger: 'item',
-      formatter: (p: { seriesName: string; data: { value: [number, number]; flagged?: boolean; overlay?: boolean } }) =>
+      formatter: (p: {
+        seriesName: string;
+        data: { value: [number, number]; flagged?: boolean; overlay?: boolean };
+      }) =>
         p.data.overlay
           ? `${p.seriesName} (dataset)<br/>${s.x.name} = ${formatQuantity(p.data.value[0], s.x.unit)}<br/>${s.y.name} = ${formatQuantity(p.data.value[1], s.y.unit)}`
           : `${p.seriesName}<br/>${s.x.name} = ${formatQuantity(p.data.value[0], s.x.unit)}<br/>${s.y.name} = ${formatQuantity(p.data.value[1], s.y.unit)}<br/>${p.data.flagged ? 'Flagged: outside the validity ordering' : 'Valid'}`,
@@ -130,26 +138,34 @@ export function heatmapOption(s: HeatmapSeries, scales: Scales, text: string) {
   const ye = cellEdges(s.y.values, scales.y);
   const zv = (z: number | null) => (z === null ? null : scales.z ? (z > 0 ? Math.log10(z) : null) : z);
   const data = s.cells
-    .map(([xi, yi, z, flagged, frac]) => ({ value: [xe[xi], xe[xi + 1], ye[yi], ye[yi + 1], zv(z), flagged, s.x.values[xi], s.y.values[yi], z, frac] }))
+    .map(([xi, yi, z, flagged, frac]) => ({
+      value: [xe[xi], xe[xi + 1], ye[yi], ye[yi + 1], zv(z), flagged, s.x.values[xi], s.y.values[yi], z, frac],
+    }))
     .filter((d) => d.value[4] !== null);
   const zs = data.map((d) => d.value[4] as number);
   const lo = zs.length ? Math.min(...zs) : 0;
   const hi = zs.length ? Math.max(...zs) : 1;
   const u = prettyUnit(s.z.unit);
-  const rect = (fill: 'cell' | 'hatch') => (params: unknown, api: { value(i: number): number; coord(p: number[]): number[]; visual(k: string): string }) => {
-    const [x0, y0] = api.coord([api.value(0), api.value(2)]);
-    const [x1, y1] = api.coord([api.value(1), api.value(3)]);
-    const shape = { x: Math.min(x0, x1), y: Math.min(y0, y1), width: Math.abs(x1 - x0), height: Math.abs(y1 - y0) };
-    if (fill === 'cell') return { type: 'rect', shape, style: { fill: api.visual('color') } };
-    if (!api.value(5)) return null;
-    return {
-      type: 'group',
-      children: [
-        { type: 'rect', shape, style: { fill: 'rgba(255,255,255,0.28)' } },
-        { type: 'line', shape: { x1: shape.x, y1: shape.y + shape.height, x2: shape.x + shape.width, y2: shape.y }, style: { stroke: HATCH, lineWidth: 1 } },
-      ],
+  const rect =
+    (fill: 'cell' | 'hatch') =>
+    (params: unknown, api: { value(i: number): number; coord(p: number[]): number[]; visual(k: string): string }) => {
+      const [x0, y0] = api.coord([api.value(0), api.value(2)]);
+      const [x1, y1] = api.coord([api.value(1), api.value(3)]);
+      const shape = { x: Math.min(x0, x1), y: Math.min(y0, y1), width: Math.abs(x1 - x0), height: Math.abs(y1 - y0) };
+      if (fill === 'cell') return { type: 'rect', shape, style: { fill: api.visual('color') } };
+      if (!api.value(5)) return null;
+      return {
+        type: 'group',
+        children: [
+          { type: 'rect', shape, style: { fill: 'rgba(255,255,255,0.28)' } },
+          {
+            type: 'line',
+            shape: { x1: shape.x, y1: shape.y + shape.height, x2: shape.x + shape.width, y2: shape.y },
+            style: { stroke: HATCH, lineWidth: 1 },
+          },
+        ],
+      };
     };
-  };
   const tip = (p: { data: { value: number[] } }) => {
     const v = p.data.value;
     return `${s.x.name} = ${formatQuantity(v[6], s.x.unit)}<br/>${s.y.name} = ${formatQuantity(v[7], s.y.unit)}<br/>${s.z.name} = ${formatQuantity(v[8], s.z.unit)}<br/>${
@@ -181,8 +197,23 @@ export function heatmapOption(s: HeatmapSeries, scales: Scales, text: string) {
       formatter: (v: number) => (scales.z ? formatNumber(10 ** v, 3) : formatNumber(v, 3)),
     },
     series: [
-      { name: s.z.name, type: 'custom', renderItem: rect('cell'), encode: { x: [0, 1], y: [2, 3], tooltip: [4] }, data },
-      { name: FLAG_LABEL, type: 'custom', renderItem: rect('hatch'), encode: { x: [0, 1], y: [2, 3] }, data, itemStyle: { color: HATCH }, tooltip: { show: false }, silent: true },
+      {
+        name: s.z.name,
+        type: 'custom',
+        renderItem: rect('cell'),
+        encode: { x: [0, 1], y: [2, 3], tooltip: [4] },
+        data,
+      },
+      {
+        name: FLAG_LABEL,
+        type: 'custom',
+        renderItem: rect('hatch'),
+        encode: { x: [0, 1], y: [2, 3] },
+        data,
+        itemStyle: { color: HATCH },
+        tooltip: { show: false },
+        silent: true,
+      },
     ],
   };
 }

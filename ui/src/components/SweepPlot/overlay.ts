@@ -68,7 +68,10 @@ export function numericColumns(columns: readonly DatasetColumn[]): DatasetColumn
  * (for x) or the first remaining (for y) numeric column, so the user sees what the dataset holds
  * and the mismatch warning explains why it is not drawn. null when the dataset has no numbers.
  */
-export function defaultOverlayColumns(columns: readonly DatasetColumn[], plot: { xUnit: string; yUnit: string }): { x: string | null; y: string | null } {
+export function defaultOverlayColumns(
+  columns: readonly DatasetColumn[],
+  plot: { xUnit: string; yUnit: string },
+): { x: string | null; y: string | null } {
   const nums = numericColumns(columns);
   if (nums.length === 0) return { x: null, y: null };
   const x = nums.find((c) => sameUnit(c.canonicalUnit, plot.xUnit)) ?? nums[0];
@@ -84,7 +87,9 @@ export function unitMismatches(series: Pick<DatasetSeries, 'x' | 'y'>, plot: Plo
     const d = series[axis];
     const p = plot[axis];
     if (!sameUnit(d.unit, p.unit)) {
-      out.push(`the dataset's ${axis} (${d.name}) is in ${describeUnit(d.unit)}, the plot's ${axis} (${p.name}) is in ${describeUnit(p.unit)}`);
+      out.push(
+        `the dataset's ${axis} (${d.name}) is in ${describeUnit(d.unit)}, the plot's ${axis} (${p.name}) is in ${describeUnit(p.unit)}`,
+      );
     }
   }
   return out;
@@ -121,6 +126,8 @@ export function planOverlay(series: DatasetSeries, plot: PlotAxisUnits, scales: 
 export function overlaySummary(plan: Extract<OverlayPlan, { ok: true }>, datasetName: string): string {
   const shown = `${plan.points.length} point${plan.points.length === 1 ? '' : 's'} of “${datasetName}” drawn`;
   const thinned = plan.thinned ? ` (evenly thinned from ${plan.total} rows)` : '';
-  const dropped = plan.dropped ? `; ${plan.dropped} point${plan.dropped === 1 ? '' : 's'} with a value ≤ 0 left out on the log axis` : '';
+  const dropped = plan.dropped
+    ? `; ${plan.dropped} point${plan.dropped === 1 ? '' : 's'} with a value ≤ 0 left out on the log axis`
+    : '';
   return `${shown}${thinned}${dropped}.`;
 }

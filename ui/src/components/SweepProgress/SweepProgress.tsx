@@ -31,7 +31,11 @@ export function SweepProgress({ sweepId }: { sweepId: number | string }) {
     staleTime: 0,
   });
   if (q.error) {
-    return <Alert color="red" variant="light" title="Progress unavailable">{(q.error as Error).message}</Alert>;
+    return (
+      <Alert color="red" variant="light" title="Progress unavailable">
+        {(q.error as Error).message}
+      </Alert>
+    );
   }
   const s = q.data;
   const done = s?.progress.done ?? 0;
@@ -39,15 +43,34 @@ export function SweepProgress({ sweepId }: { sweepId: number | string }) {
   const pct = total > 0 ? (100 * done) / total : 0;
   const live = s ? LIVE.has(s.status) : true;
   return (
-    <Stack gap={4} data-testid="sweep-progress-compact" data-status={s?.status ?? 'loading'} data-done={done} data-total={total} aria-live="polite">
+    <Stack
+      gap={4}
+      data-testid="sweep-progress-compact"
+      data-status={s?.status ?? 'loading'}
+      data-done={done}
+      data-total={total}
+      aria-live="polite"
+    >
       <Group justify="space-between" gap="xs">
-        <StatusBadge status={s?.status ?? 'queued'} suffix={s?.status === 'running' ? `${Math.floor(pct)} %` : undefined} />
+        <StatusBadge
+          status={s?.status ?? 'queued'}
+          suffix={s?.status === 'running' ? `${Math.floor(pct)} %` : undefined}
+        />
         <Text fz="sm" data-testid="sweep-progress-count" style={{ fontVariantNumeric: 'tabular-nums' }}>
           {formatCount(done)} / {formatCount(total)} points
         </Text>
       </Group>
-      <Progress value={pct} animated={live && s?.status === 'running'} striped={live} aria-label={`${Math.floor(pct)} percent of points persisted`} />
-      {s?.status === 'failed' && s.error ? <Text fz="xs" c="red">{s.error}</Text> : null}
+      <Progress
+        value={pct}
+        animated={live && s?.status === 'running'}
+        striped={live}
+        aria-label={`${Math.floor(pct)} percent of points persisted`}
+      />
+      {s?.status === 'failed' && s.error ? (
+        <Text fz="xs" c="red">
+          {s.error}
+        </Text>
+      ) : null}
     </Stack>
   );
 }
