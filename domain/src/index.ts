@@ -7,3 +7,4 @@ export * from './derived/index.js';
 export * from './sweep/index.js';
 export * from './fit/index.js';
 export * from './contracts/index.js';
+export * from './plot/index.js';

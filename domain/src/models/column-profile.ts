@@ -241,6 +241,7 @@ const outputs: OutputSpec[] = [
 const flags: FlagSpec[] = [
   {
     code: 'rho_i_over_Ln',
+    ordering: { output: 'max_rho_i_over_Ln', threshold: 'rho_i_over_Ln_max' },
     bit: 0,
     invalidates: true,
     meaning:
@@ -248,6 +249,7 @@ const flags: FlagSpec[] = [
   },
   {
     code: 'lambdaD_over_Ln',
+    ordering: { output: 'max_lambdaD_over_Ln', threshold: 'lambdaD_over_Ln_max' },
     bit: 1,
     invalidates: true,
     meaning:
@@ -255,6 +257,7 @@ const flags: FlagSpec[] = [
   },
   {
     code: 'beta',
+    ordering: { output: 'beta0', threshold: 'beta_max' },
     bit: 2,
     invalidates: true,
     meaning:

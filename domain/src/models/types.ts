@@ -27,7 +27,14 @@ export interface OutputSpec {
   unit: string;
   kind: 'number' | 'boolean';
   meaning: string;
+  /**
+   * Column group in tables (drifts, scales, orderings, flags…). Optional: without it the group follows
+   * from the unit (domain/src/plot/columns.ts).
+   */
+  group?: OutputGroup;
 }
+
+export type OutputGroup = 'drifts' | 'scales' | 'orderings' | 'flags' | 'other';
 
 export interface FlagSpec {
   /** Stable code stored with results, e.g. `rho_i_over_Ln`. */
@@ -38,6 +45,12 @@ export interface FlagSpec {
   invalidates: boolean;
   /** Plain-language explanation shown in the ui and the export README. */
   meaning: string;
+  /**
+   * The ordering parameter behind the flag: raised when `output` ≥ the threshold named `threshold`
+   * (`below: true`: when it is ≤). Plots draw the regime boundary output = threshold. Optional: without
+   * it an output named like the flag and a threshold `<code>_max` are used (domain/src/plot/regimes.ts).
+   */
+  ordering?: { output: string; threshold: string; below?: boolean };
 }
 
 /** A validity threshold a sweep may override (e.g. ρ_i/L_n ≥ 0.1 flags the drift ordering). */
