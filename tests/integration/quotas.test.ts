@@ -31,6 +31,7 @@ let rosa: number;
 let remy: number;
 let adminId: number;
 
+/** A sweep row as the submit path leaves it: submitted sweeps are charged to the points ledger. */
 function addSweep(
   ownerId: number,
   points: number,
@@ -38,7 +39,7 @@ function addSweep(
   createdAt = clock.now(),
   deletedAt: number | null = null,
 ): number {
-  return Number(
+  const id = Number(
     h.sqlite
       .prepare(
         `INSERT INTO sweeps (owner_id, name, model, model_version, app_version, status, definition, columns, points, chunk_count, created_at, deleted_at)
@@ -46,6 +47,11 @@ function addSweep(
       )
       .run(ownerId, status, points, createdAt, deletedAt).lastInsertRowid,
   );
+  if (status !== 'draft')
+    h.sqlite
+      .prepare('INSERT INTO quota_ledger (user_id, sweep_id, points, charged_at) VALUES (?, ?, ?, ?)')
+      .run(ownerId, id, points, createdAt);
+  return id;
 }
 
 beforeAll(() => {
@@ -74,7 +80,7 @@ afterAll(() => {
   fs.rmSync(dir, { recursive: true, force: true });
 });
 beforeEach(() => {
-  h.sqlite.exec('DELETE FROM sweeps; DELETE FROM user_quotas;');
+  h.sqlite.exec('DELETE FROM sweeps; DELETE FROM user_quotas; DELETE FROM quota_ledger;');
 });
 
 describe('QuotasService', () => {
@@ -135,7 +141,7 @@ describe('QuotasService', () => {
     expect(quotas.document().overrides).toEqual([]); // nothing left to override: the row is gone
   });
 
-  it('computes usage from the sweeps table (running, rolling 30 days, stored)', () => {
+  it('computes usage from the sweeps table (running, stored) and the points ledger (rolling 30 days)', () => {
     const now = clock.now();
     addSweep(rosa, 100, 'queued');
     addSweep(rosa, 200, 'running');
@@ -148,7 +154,8 @@ describe('QuotasService', () => {
     addSweep(remy, 5, 'completed'); // someone else
     expect(quotas.usage(rosa)).toEqual({
       runningSweeps: 2,
-      pointsLast30Days: 100 + 200 + 400 + 1600 + 3200,
+      // The deleted sweep was charged when submitted: deleting refunds nothing.
+      pointsLast30Days: 100 + 200 + 400 + 1600 + 3200 + 12800,
       storedPoints: 100 + 200 + 400 + 800,
     });
   });

@@ -211,6 +211,25 @@ export const roleQuotas = sqliteTable('role_quotas', {
   updatedAt: integer('updated_at').notNull(),
 });
 
+/**
+ * Points charged against the rolling 30-day quota, one row per submitted sweep. Deleting or
+ * cancelling a sweep leaves its row alone (no foreign key to sweeps), so no refund is possible.
+ */
+export const quotaLedger = sqliteTable(
+  'quota_ledger',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    userId: integer('user_id')
+      .notNull()
+      .references(() => users.id),
+    /** The sweep charged for; it may since have been deleted. */
+    sweepId: integer('sweep_id'),
+    points: integer('points').notNull(),
+    chargedAt: integer('charged_at').notNull(),
+  },
+  (t) => [index('quota_ledger_user_time_idx').on(t.userId, t.chargedAt)],
+);
+
 /** Per-user overrides; a NULL field falls back to the role default. */
 export const userQuotas = sqliteTable('user_quotas', {
   userId: integer('user_id')

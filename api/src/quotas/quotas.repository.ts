@@ -45,9 +45,12 @@ export class QuotasRepository {
       usage: s.prepare(
         `SELECT
            COALESCE(SUM(CASE WHEN status IN ('queued', 'running') THEN 1 ELSE 0 END), 0) AS runningSweeps,
-           COALESCE(SUM(CASE WHEN status <> 'draft' AND created_at >= @since THEN points ELSE 0 END), 0) AS pointsLast30Days,
+           (SELECT COALESCE(SUM(points), 0) FROM quota_ledger WHERE user_id = @userId AND charged_at >= @since) AS pointsLast30Days,
            COALESCE(SUM(CASE WHEN status NOT IN ('draft', 'failed', 'cancelled') THEN points ELSE 0 END), 0) AS storedPoints
          FROM sweeps WHERE owner_id = @userId AND deleted_at IS NULL`,
+      ),
+      charge: s.prepare(
+        'INSERT INTO quota_ledger (user_id, sweep_id, points, charged_at) VALUES (@userId, @sweepId, @points, @now)',
       ),
     };
   }
@@ -84,6 +87,11 @@ export class QuotasRepository {
   saveUser(userId: number, fields: OverrideFields, now: number): void {
     if (QUOTA_KEYS.every((k) => fields[k] === null)) this.st.deleteUser.run(userId);
     else this.st.upsertUser.run({ userId, ...fields, now });
+  }
+
+  /** Appends to the points ledger; nothing ever updates or deletes a ledger row. */
+  charge(userId: number, sweepId: number, points: number, now: number): void {
+    this.st.charge.run({ userId, sweepId, points, now });
   }
 
   usage(userId: number, since: number): QuotaUsage {

@@ -26,10 +26,11 @@ export const ROLLING_WINDOW_MS = 30 * 24 * 3600_000;
  * Quotas (SPEC §9). Every method is synchronous (better-sqlite3), so a caller can check and insert
  * a sweep in one synchronous block: concurrent submits cannot together pass max running sweeps.
  *
- * Usage is computed from the sweeps table, never stored:
- * - runningSweeps: status queued or running;
- * - pointsLast30Days: points of non-deleted sweeps created in the rolling 30 days, drafts excluded
- *   (failed and cancelled count: their compute was reserved or spent);
+ * Usage:
+ * - runningSweeps: status queued or running (sweeps table);
+ * - pointsLast30Days: points charged in the quota_ledger table in the rolling 30 days. A sweep is
+ *   charged once, when submitted (its compute is reserved from then on); deleting, cancelling or
+ *   failing never removes the charge, so deleting cannot refund the quota;
  * - storedPoints: points of non-deleted sweeps that hold or will hold results — status not draft,
  *   failed or cancelled (queued and running sweeps count, as their results are on the way).
  * Lowering a quota never deletes data; it only refuses new sweeps until usage falls below it.
@@ -63,6 +64,11 @@ export class QuotasService implements OnModuleInit {
     const q = { ...base };
     for (const k of QUOTA_KEYS) if (o[k] !== null && o[k] !== undefined) q[k] = o[k];
     return q;
+  }
+
+  /** Charges a submitted sweep's points to the ledger (call inside the submit transaction). */
+  charge(userId: number, sweepId: number, points: number): void {
+    this.repo.charge(userId, sweepId, points, this.clock.now());
   }
 
   usage(userId: number): QuotaUsage {

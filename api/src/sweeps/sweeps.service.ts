@@ -112,7 +112,7 @@ export class SweepsService {
     // Quota check and insert in one synchronous transaction: concurrent submits cannot both pass.
     const row = this.repo.transaction(() => {
       if (opts.enforceQuota !== false) this.quotas.assertAllowed(user.id, user.role, c.totalPoints);
-      return this.repo.insert(
+      const inserted = this.repo.insert(
         {
           ownerId: user.id,
           name: d.name,
@@ -131,6 +131,8 @@ export class SweepsService {
         chunks,
         now,
       );
+      this.quotas.charge(user.id, inserted.id, inserted.points);
+      return inserted;
     });
     await this.dispatcher.enqueue(row);
     return { id: row.id, status: row.status, points: row.points };

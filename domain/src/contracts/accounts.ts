@@ -42,7 +42,7 @@ export type UserQuotaPatch = z.infer<typeof userQuotaPatchSchema>;
 export interface QuotaUsage {
   /** Sweeps of the user with status queued or running. */
   runningSweeps: number;
-  /** Points of non-deleted, submitted sweeps created in the last 30 days (rolling). */
+  /** Points charged by sweeps submitted in the last 30 days (rolling); deleting or cancelling refunds nothing. */
   pointsLast30Days: number;
   /** Points of non-deleted sweeps that hold or will hold results (not draft, failed or cancelled). */
   storedPoints: number;
