@@ -1,6 +1,12 @@
-import type { FitInput, FitParameterView, FitPlotData, FitRequest, FitResult } from '@driftgrid/domain';
+import {
+  tQuantile,
+  type FitInput,
+  type FitParameterView,
+  type FitPlotData,
+  type FitRequest,
+  type FitResult,
+} from '@driftgrid/domain';
 import type { FitData } from './fit-sources.js';
-import { tQuantile } from './t-quantile.js';
 
 /** Points kept for the data/residual plots; every k-th point, so the subsample spans the data. */
 export const PLOT_MAX_POINTS = 2000;

@@ -1,5 +1,6 @@
 import { checkInput, type CheckedData } from './input.js';
-import { LIBRARY_MAX_POINTS, runFit } from './engine.js';
+import { LIBRARY_MAX_POINTS } from './engine/library-stage.js';
+import { runFit } from './engine/run-fit.js';
 import { compileExpression } from './models/expression.js';
 import { compileExponential } from './models/exponential.js';
 import { compilePolytropic } from './models/polytropic.js';

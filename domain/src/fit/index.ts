@@ -3,3 +3,4 @@ export { fitModel } from './fit-model.js';
 export { fitRequestSchema, type FitRequest } from './schema.js';
 export { FIT_MODEL_KINDS } from './types.js';
 export type { FitInput, FitResult, FitModelKind, FitParameter, ParameterBound, Column as FitColumn } from './types.js';
+export { regularizedBeta, tQuantile, tTwoSidedTail } from './stats/t-quantile.js';
