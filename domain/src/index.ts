@@ -6,5 +6,6 @@ export * from './units/index.js';
 export * from './derived/index.js';
 export * from './sweep/index.js';
 export * from './fit/index.js';
+export * from './sensitivity/index.js';
 export * from './contracts/index.js';
 export * from './plot/index.js';

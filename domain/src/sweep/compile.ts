@@ -7,6 +7,7 @@ import { makeAxisFiller } from './design.js';
 import { resolveFixed, type ExpressionSource, type InputSource } from './fixed.js';
 import { MAX_POINTS_HARD } from './limits.js';
 import { safeParseSweepDefinition, summarise } from './parse.js';
+import { saltelliPointCount } from './sampling/saltelli.js';
 import { MAX_SOBOL_DIMENSIONS, MAX_SOBOL_INDEX } from './sampling/sobol.js';
 import type { SweepDefinition } from './schema.js';
 
@@ -126,9 +127,7 @@ export function checkSweep(raw: unknown): { ok: true; compiled: CompiledSweep } 
     errors.push(...(err.details ?? [{ path: 'thresholds', message: err.message }]));
   }
 
-  const totalPoints = grid
-    ? axes.reduce((n, a) => n * (a?.count ?? 1), 1)
-    : (definition.sampling as { samples: number }).samples;
+  const totalPoints = designPoints(definition, axes);
   if (totalPoints > MAX_POINTS_HARD)
     errors.push({ path: 'axes', message: `${totalPoints} points exceed the limit of ${MAX_POINTS_HARD}` });
   if (definition.sampling.kind === 'sobol') {
@@ -169,6 +168,14 @@ export function checkSweep(raw: unknown): { ok: true; compiled: CompiledSweep } 
     derived,
   );
   return { ok: true, compiled };
+}
+
+/** Points the design runs: grid product, `samples` for random designs, N·(d + 2) for Saltelli. */
+function designPoints(definition: SweepDefinition, axes: readonly (ResolvedAxis | null)[]): number {
+  const s = definition.sampling;
+  if (s.kind === 'grid') return axes.reduce((n, a) => n * (a?.count ?? 1), 1);
+  if (s.kind === 'saltelli') return saltelliPointCount(s.samples, definition.axes.length);
+  return s.samples;
 }
 
 /** Evaluate expression inputs at the corners of the axes they depend on and range-check them. */

@@ -39,3 +39,11 @@ export {
 export { gridDigits, gridIndex, gridIncrement, gridSize } from './sampling/grid.js';
 export { LatinHypercube, MAX_LHS_SAMPLES } from './sampling/latin-hypercube.js';
 export { sobolCoordinate, sobolPoint, MAX_SOBOL_DIMENSIONS, MAX_SOBOL_INDEX } from './sampling/sobol.js';
+export {
+  saltelliCoordinate,
+  saltelliGroupSize,
+  saltelliPointCount,
+  saltelliRole,
+  MAX_SALTELLI_DIMENSIONS,
+  type SaltelliRole,
+} from './sampling/saltelli.js';

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { MAX_AXES, MAX_AXIS_COUNT, MAX_DERIVED, MAX_POINTS_HARD, MAX_RANDOM_SAMPLES, MAX_TAGS } from './limits.js';
+import { MAX_SALTELLI_DIMENSIONS, saltelliGroupSize } from './sampling/saltelli.js';
 
 /**
  * The sweep definition (SPEC §4), shared by api validation and the ui form. Structural checks only;
@@ -90,8 +91,13 @@ export const samplingSchema = z.discriminatedUnion(
         .max(2 ** 31, `must be at most ${2 ** 31}`)
         .optional(),
     }),
+    z.object({
+      kind: z.literal('saltelli'),
+      /** Sample groups N; the design runs N·(d + 2) points (d = number of axes). Powers of 2 balance best. */
+      samples: samplesSchema,
+    }),
   ],
-  { error: 'kind must be one of grid, latin-hypercube, sobol' },
+  { error: 'kind must be one of grid, latin-hypercube, sobol, saltelli' },
 );
 
 export const derivedSchema = z.object({
@@ -151,6 +157,23 @@ export const sweepDefinitionSchema = z
           code: 'custom',
           path: ['axes'],
           message: `the grid has ${points.toLocaleString('en-US')} points; at most ${MAX_POINTS_HARD.toLocaleString('en-US')} are allowed`,
+        });
+      }
+    }
+    if (def.sampling.kind === 'saltelli') {
+      const points = def.sampling.samples * saltelliGroupSize(def.axes.length);
+      if (points > MAX_POINTS_HARD) {
+        ctx.addIssue({
+          code: 'custom',
+          path: ['sampling', 'samples'],
+          message: `${def.sampling.samples.toLocaleString('en-US')} samples × (${def.axes.length} axes + 2) make ${points.toLocaleString('en-US')} points; at most ${MAX_POINTS_HARD.toLocaleString('en-US')} are allowed`,
+        });
+      }
+      if (def.axes.length > MAX_SALTELLI_DIMENSIONS) {
+        ctx.addIssue({
+          code: 'custom',
+          path: ['axes'],
+          message: `the Saltelli design covers at most ${MAX_SALTELLI_DIMENSIONS} axes`,
         });
       }
     }
