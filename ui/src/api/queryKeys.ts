@@ -1,5 +1,6 @@
 /**
- * Query-key factories. Keys are nested so invalidating a prefix refreshes everything under it:
+ * Query-key factories; each feature module beside this file (sweeps.ts, datasets.ts, fits.ts, admin.ts,
+ * tokens.ts, users.ts) builds its queryOptions() factories and hooks from them. Keys are nested so invalidating a prefix refreshes everything under it:
  * `queryKeys.sweeps.detail(id)` also covers that sweep's results and series.
  */
 export type KeyParams = Record<string, unknown>;
@@ -48,7 +49,8 @@ export const queryKeys = {
     quotas: () => ['admin', 'quotas'] as const,
     queue: () => ['admin', 'queue'] as const,
     mailbox: (filters: KeyParams = {}) => ['admin', 'mailbox', filters] as const,
-    invitations: () => ['admin', 'invitations'] as const,
+    mail: (id: number) => ['admin', 'mailbox', 'message', id] as const,
+    invitations: (params: KeyParams = {}) => ['admin', 'invitations', params] as const,
     audit: (params: KeyParams = {}) => ['admin', 'audit', params] as const,
   },
 } as const;

@@ -1,12 +1,9 @@
 import { Alert, Anchor, Button, Center, Paper, PasswordInput, Stack, Text, TextInput, Title } from '@mantine/core';
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useEffect, useState, type FormEvent } from 'react';
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { acceptInviteSchema } from '@driftgrid/domain';
-import type { LoginResponse } from '../api/auth.js';
-import { api, ApiError } from '../api/client.js';
-import { queryKeys } from '../api/queryKeys.js';
-import { setSession } from '../auth/session.js';
+import { useAcceptInvite } from '../api/accounts.js';
+import { ApiError } from '../api/client.js';
 import { ctrlEnter } from '../components/AdminShared/ctrlEnter.js';
 import { NameMark } from '../components/NameMark/NameMark.js';
 
@@ -15,7 +12,6 @@ export default function AcceptInvitePage() {
   const [params] = useSearchParams();
   const token = params.get('token') ?? '';
   const navigate = useNavigate();
-  const qc = useQueryClient();
   const [name, setName] = useState('');
   const [password, setPassword] = useState('');
   const [repeat, setRepeat] = useState('');
@@ -23,13 +19,8 @@ export default function AcceptInvitePage() {
   useEffect(() => {
     document.title = 'Accept invitation · Driftgrid';
   }, []);
-  const accept = useMutation({
-    mutationFn: (body: { token: string; name: string; password: string }) =>
-      api.post<LoginResponse>('/auth/accept-invite', body, { auth: false }),
-    onSuccess: (res) => {
-      qc.clear();
-      setSession({ accessToken: res.accessToken, user: res.user });
-      qc.setQueryData(queryKeys.me(), { ...res.user });
+  const accept = useAcceptInvite({
+    onSuccess: () => {
       navigate('/', { replace: true });
     },
     onError: (err) => {

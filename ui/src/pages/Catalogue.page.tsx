@@ -27,7 +27,7 @@ import { Link, useSearchParams } from 'react-router-dom';
 import { useMe } from '../api/auth.js';
 import { EmptyState } from '../components/EmptyState/EmptyState.js';
 import { PageHeader } from '../components/PageHeader/PageHeader.js';
-import { useSweepList, type SweepSummary } from '../components/ResultsTable/sweepApi.js';
+import { useSweepList, type SweepSummary } from '../api/sweeps.js';
 import { STATUS_LOOK, StatusBadge, SWEEP_STATUSES } from '../components/StatusBadge/StatusBadge.js';
 import { formatCount } from '../lib/format.js';
 

@@ -1,12 +1,10 @@
 import { Anchor, Badge, Card, Group, SimpleGrid, Skeleton, Stack, Text, Title } from '@mantine/core';
-import { useQuery } from '@tanstack/react-query';
 import { IconDatabase, IconMathFunction, IconPlus, IconStack2, IconTarget, type Icon } from '@tabler/icons-react';
 import { Link } from 'react-router-dom';
 import { useMe, type Role } from '../api/auth.js';
-import { api, type Page } from '../api/client.js';
-import { queryKeys } from '../api/queryKeys.js';
+import { useAdminUsers, useQueueStatus } from '../api/admin.js';
 import { QuotaMeters } from '../components/QuotaMeters/QuotaMeters.js';
-import { useSweepList, type SweepSummary } from '../components/ResultsTable/sweepApi.js';
+import { useSweepList, type SweepSummary } from '../api/sweeps.js';
 import { StatusBadge } from '../components/StatusBadge/StatusBadge.js';
 import { formatCount } from '../lib/format.js';
 
@@ -120,23 +118,9 @@ function SweepCard({
   );
 }
 
-interface QueueStatus {
-  mode: string;
-  paused: boolean;
-  counts: Record<string, number>;
-  sweeps: unknown[];
-}
-
 function AdminGlance() {
-  const queue = useQuery({
-    queryKey: queryKeys.admin.queue(),
-    queryFn: ({ signal }) => api.get<QueueStatus>('/admin/queue', undefined, signal),
-    refetchInterval: 5000,
-  });
-  const users = useQuery({
-    queryKey: queryKeys.admin.users({ pageSize: 1 }),
-    queryFn: ({ signal }) => api.get<Page<unknown>>('/admin/users', { pageSize: 1 }, signal),
-  });
+  const queue = useQueueStatus();
+  const users = useAdminUsers({ pageSize: 1 });
   const c = queue.data?.counts ?? {};
   const cells: [string, number | undefined][] = [
     ['Chunks waiting', queue.data ? (c.waiting ?? 0) + (c.prioritized ?? 0) + (c.delayed ?? 0) : undefined],

@@ -1,13 +1,12 @@
 import { Alert, Button, Group, Loader, Modal, Pagination, ScrollArea, Stack, Table, Tabs, Text } from '@mantine/core';
 import { IconDownload, IconTrash } from '@tabler/icons-react';
-import { useMutation } from '@tanstack/react-query';
 import { lazy, Suspense, useState } from 'react';
 import { useNavigate, useParams } from 'react-router-dom';
 import { useMe } from '../api/auth.js';
 import { ApiError } from '../api/client.js';
-import { useDataset, useDatasetRows, useDeleteDataset } from '../components/DatasetUpload/datasetsApi.js';
+import { useDataset, useDatasetRows, useDeleteDataset } from '../api/datasets.js';
+import { useDownloadZip } from '../api/downloads.js';
 import { ArchiveDigest } from '../components/ExportActions/ArchiveDigest.js';
-import { downloadZip } from '../components/ExportActions/download.js';
 import { EmptyState } from '../components/EmptyState/EmptyState.js';
 import { FitsPanel } from '../components/FitsPanel/FitsPanel.js';
 import { Num } from '../components/Num/Num.js';
@@ -27,7 +26,7 @@ export default function DatasetPage() {
   const rows = useDatasetRows(id, page, PAGE_SIZE);
   const [confirmDelete, setConfirmDelete] = useState(false);
   const remove = useDeleteDataset();
-  const exportZip = useMutation({ mutationFn: () => downloadZip(`/datasets/${id}/export`, `dataset-${id}.zip`) });
+  const exportZip = useDownloadZip(`/datasets/${id}/export`, `dataset-${id}.zip`);
 
   if (dataset.isError) {
     const notFound = dataset.error instanceof ApiError && dataset.error.status === 404;

@@ -4,7 +4,7 @@ import { IconDatabase, IconSearch, IconUpload } from '@tabler/icons-react';
 import { useState } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
 import { DatasetUpload } from '../components/DatasetUpload/DatasetUpload.js';
-import { useDatasetList } from '../components/DatasetUpload/datasetsApi.js';
+import { useDatasetList } from '../api/datasets.js';
 import { EmptyState } from '../components/EmptyState/EmptyState.js';
 import { PageHeader } from '../components/PageHeader/PageHeader.js';
 import { formatCount, prettyUnit } from '../lib/format.js';

@@ -1,56 +1,23 @@
 import { Alert, Anchor, Button, Group, Loader, Pagination, Stack, Table, Text, TextInput } from '@mantine/core';
 import { useDebouncedValue } from '@mantine/hooks';
 import { IconArchive, IconDownload, IconSearch, IconShieldCheck, IconShieldX } from '@tabler/icons-react';
-import { keepPreviousData, useMutation, useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Link } from 'react-router-dom';
-import { api, ApiError, type Page } from '../api/client.js';
-import { queryKeys } from '../api/queryKeys.js';
+import { useDownloadZip, type DownloadedFile } from '../api/downloads.js';
+import { useArchivedSweeps, useSweep, type ArchivedSummary } from '../api/sweeps.js';
 import { ArchiveDigest } from '../components/ExportActions/ArchiveDigest.js';
-import { downloadZip, type DownloadedFile } from '../components/ExportActions/download.js';
 import { EmptyState } from '../components/EmptyState/EmptyState.js';
 import { PageHeader } from '../components/PageHeader/PageHeader.js';
-import { useSweep } from '../components/ResultsTable/sweepApi.js';
 import { formatCount } from '../lib/format.js';
 
 const PAGE_SIZE = 25;
-
-interface ArchivedSummary {
-  id: number;
-  name: string;
-  model: string;
-  points: number;
-  owner: { id: number; name: string };
-  archivedAt?: string | null;
-  finishedAt?: string | null;
-  archive?: { sha256: string; bytes: number | null; archivedAt: string | null };
-}
-
-/**
- * Archived sweeps through the catalogue's `scope=archived`; a server without that scope answers
- * 400, and the page falls back to `status=archived`.
- */
-async function fetchArchived(
-  query: { page: number; pageSize: number; q?: string },
-  signal?: AbortSignal,
-): Promise<Page<ArchivedSummary>> {
-  try {
-    return await api.get<Page<ArchivedSummary>>('/sweeps', { ...query, scope: 'archived' }, signal);
-  } catch (err) {
-    if (!(err instanceof ApiError) || err.status !== 400) throw err;
-    return api.get<Page<ArchivedSummary>>('/sweeps', { ...query, status: 'archived' }, signal);
-  }
-}
 
 function ArchivedRow({ s }: { s: ArchivedSummary }) {
   // The catalogue summary has no digest; the sweep itself carries archive.sha256.
   const detail = useSweep(s.id);
   const archive = s.archive ?? detail.data?.archive;
   const [got, setGot] = useState<DownloadedFile | null>(null);
-  const download = useMutation({
-    mutationFn: () => downloadZip(`/sweeps/${s.id}/export`, `sweep-${s.id}.zip`),
-    onSuccess: setGot,
-  });
+  const download = useDownloadZip(`/sweeps/${s.id}/export`, `sweep-${s.id}.zip`, { onSuccess: (f) => setGot(f) });
   const archivedAt = archive?.archivedAt ?? s.archivedAt ?? null;
   const verified = got?.sha256 && archive ? got.sha256 === archive.sha256 : null;
   return (
@@ -115,11 +82,7 @@ export default function DownloadsPage() {
   const [text, setText] = useState('');
   const [q] = useDebouncedValue(text.trim(), 300);
   const query = { page, pageSize: PAGE_SIZE, ...(q ? { q } : {}) };
-  const list = useQuery({
-    queryKey: queryKeys.sweeps.list({ ...query, archived: true }),
-    queryFn: ({ signal }) => fetchArchived(query, signal),
-    placeholderData: keepPreviousData,
-  });
+  const list = useArchivedSweeps(query);
   const items = list.data?.items ?? [];
   return (
     <>

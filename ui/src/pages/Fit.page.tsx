@@ -2,7 +2,8 @@ import { Alert, Anchor, Button, Code, Stack, Text } from '@mantine/core';
 import { IconArrowLeft } from '@tabler/icons-react';
 import { Link, useParams } from 'react-router-dom';
 import { PageHeader } from '../components/PageHeader/PageHeader.js';
-import { FitDetail, useFit } from '../components/FitsPanel/FitsPanel.js';
+import { useFit } from '../api/fits.js';
+import { FitDetail } from '../components/FitsPanel/FitsPanel.js';
 
 /** One saved fit: result, plots, and the request it was run with. */
 export default function FitPage() {

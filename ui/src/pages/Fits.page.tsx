@@ -1,16 +1,16 @@
 import { Button, Paper, Stack, Text, Title } from '@mantine/core';
 import { IconMathFunction } from '@tabler/icons-react';
-import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
-import { queryKeys } from '../api/queryKeys.js';
+import { useDatasetList } from '../api/datasets.js';
+import { useFitList } from '../api/fits.js';
 import { useSession } from '../auth/session.js';
 import { EmptyState } from '../components/EmptyState/EmptyState.js';
 import { PageHeader } from '../components/PageHeader/PageHeader.js';
-import { fitsApi, type FitSourceKind } from '../components/FitResult/fit-types.js';
+import type { FitSourceKind } from '../components/FitResult/fit-types.js';
 import { FitsPanel } from '../components/FitsPanel/FitsPanel.js';
 import { SavedFits } from '../components/FitsPanel/SavedFits.js';
-import { SourcePicker, useDatasetList, useSourceColumns } from '../components/FitsPanel/SourcePicker.js';
+import { SourcePicker, useSourceColumns } from '../components/FitsPanel/SourcePicker.js';
 
 /** New fit: choose a source, then the fits panel for it (the same panel the sweep and dataset pages show). */
 function NewFit() {
@@ -18,7 +18,7 @@ function NewFit() {
   const [kind, setKind] = useState<FitSourceKind>(params.get('sourceKind') === 'dataset' ? 'dataset' : 'sweep');
   const initial = Number(params.get('sourceId'));
   const [id, setId] = useState<number | null>(Number.isInteger(initial) && initial > 0 ? initial : null);
-  const datasets = useDatasetList(kind === 'dataset');
+  const datasets = useDatasetList({ pageSize: 200 }, kind === 'dataset');
   const columns = useSourceColumns(kind, id, datasets.data?.items);
   const choose = (next: number | null) => {
     setId(next);
@@ -57,11 +57,7 @@ function NewFit() {
 export default function FitsPage() {
   const session = useSession();
   const canFit = session?.user.role === 'admin' || session?.user.role === 'researcher';
-  const params = { page: 1, pageSize: 1 };
-  const any = useQuery({
-    queryKey: queryKeys.fits.list(params),
-    queryFn: ({ signal }) => fitsApi.list(params, signal),
-  });
+  const any = useFitList({ page: 1, pageSize: 1 });
   return (
     <>
       <PageHeader

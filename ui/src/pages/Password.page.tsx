@@ -1,10 +1,8 @@
 import { Alert, Button, Paper, PasswordInput, Stack, Text } from '@mantine/core';
-import { useMutation } from '@tanstack/react-query';
 import { useState, type FormEvent } from 'react';
 import { changePasswordSchema } from '@driftgrid/domain';
-import { setSession } from '../auth/session.js';
 import { ApiError } from '../api/client.js';
-import { accountsApi } from '../components/AdminShared/accountsApi.js';
+import { useChangePassword } from '../api/accounts.js';
 import { ctrlEnter } from '../components/AdminShared/ctrlEnter.js';
 import { PageHeader } from '../components/PageHeader/PageHeader.js';
 
@@ -14,11 +12,8 @@ export default function PasswordPage() {
   const [next, setNext] = useState('');
   const [repeat, setRepeat] = useState('');
   const [errors, setErrors] = useState<{ current?: string; next?: string; repeat?: string; form?: string }>({});
-  const change = useMutation({
-    mutationFn: accountsApi.changePassword,
-    onSuccess: (res) => {
-      // Other sessions are signed out by the change; this one continues on the fresh token.
-      setSession({ accessToken: res.accessToken, user: res.user });
+  const change = useChangePassword({
+    onSuccess: () => {
       setCurrent('');
       setNext('');
       setRepeat('');

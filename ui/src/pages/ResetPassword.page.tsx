@@ -1,18 +1,16 @@
 import { Alert, Anchor, Button, Center, Paper, PasswordInput, Stack, Text, TextInput, Title } from '@mantine/core';
-import { useMutation } from '@tanstack/react-query';
 import { useEffect, useState, type FormEvent } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
 import { passwordResetConfirmSchema, passwordResetRequestSchema } from '@driftgrid/domain';
-import { api, ApiError } from '../api/client.js';
+import { useConfirmPasswordReset, useRequestPasswordReset } from '../api/accounts.js';
+import { ApiError } from '../api/client.js';
 import { ctrlEnter } from '../components/AdminShared/ctrlEnter.js';
 import { NameMark } from '../components/NameMark/NameMark.js';
 
 function RequestForm() {
   const [email, setEmail] = useState('');
   const [error, setError] = useState<string | undefined>();
-  const request = useMutation({
-    mutationFn: (body: { email: string }) =>
-      api.post<{ message: string }>('/auth/password-reset', body, { auth: false }),
+  const request = useRequestPasswordReset({
     onError: (err) =>
       setError(err instanceof ApiError ? (err.detailFor('email') ?? err.message) : 'The request could not be sent'),
   });
@@ -58,9 +56,7 @@ function ConfirmForm({ token }: { token: string }) {
   const [password, setPassword] = useState('');
   const [repeat, setRepeat] = useState('');
   const [errors, setErrors] = useState<{ password?: string; repeat?: string; form?: string }>({});
-  const confirm = useMutation({
-    mutationFn: (body: { token: string; password: string }) =>
-      api.post<{ message: string }>('/auth/password-reset/confirm', body, { auth: false }),
+  const confirm = useConfirmPasswordReset({
     onError: (err) => {
       if (err instanceof ApiError)
         setErrors({ password: err.detailFor('password'), form: err.detailFor('password') ? undefined : err.message });

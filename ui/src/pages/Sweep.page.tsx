@@ -17,18 +17,17 @@ import {
   Title,
 } from '@mantine/core';
 import { IconAlertTriangle, IconChartDots3, IconPlayerStop } from '@tabler/icons-react';
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { getModel, type DirectoryUser } from '@driftgrid/domain';
+import { getModel } from '@driftgrid/domain';
 import { lazy, Suspense, useEffect, useMemo, useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { useMe } from '../api/auth.js';
-import { api, ApiError } from '../api/client.js';
-import { queryKeys } from '../api/queryKeys.js';
+import { ApiError } from '../api/client.js';
+import { useUserDirectory } from '../api/users.js';
 import { EmptyState } from '../components/EmptyState/EmptyState.js';
 import { Num } from '../components/Num/Num.js';
 import { PageHeader } from '../components/PageHeader/PageHeader.js';
 import { ResultsTable } from '../components/ResultsTable/ResultsTable.js';
-import { ACTIVE, useSweep, type SweepView } from '../components/ResultsTable/sweepApi.js';
+import { ACTIVE, useCancelSweep, useSaveSharing, useSweep, type SweepView } from '../api/sweeps.js';
 import { StatusBadge } from '../components/StatusBadge/StatusBadge.js';
 import { formatCount, prettyUnit } from '../lib/format.js';
 import { FitsPanel } from '../components/FitsPanel/FitsPanel.js';
@@ -101,21 +100,14 @@ function FlagsSummary({ sweep }: { sweep: SweepView }) {
 }
 
 function SharePanel({ sweep }: { sweep: SweepView }) {
-  const qc = useQueryClient();
   const [visibility, setVisibility] = useState(sweep.visibility);
   const [users, setUsers] = useState(sweep.sharedWith.map(String));
   useEffect(() => {
     setVisibility(sweep.visibility);
     setUsers(sweep.sharedWith.map(String));
   }, [sweep.visibility, sweep.sharedWith]);
-  const directory = useQuery({
-    queryKey: queryKeys.users.directory(),
-    queryFn: ({ signal }) => api.get<{ items: DirectoryUser[] }>('/users/directory', { pageSize: 200 }, signal),
-  });
-  const save = useMutation({
-    mutationFn: () => api.put<SweepView>(`/sweeps/${sweep.id}/sharing`, { visibility, userIds: users.map(Number) }),
-    onSuccess: (s) => qc.setQueryData(queryKeys.sweeps.detail(sweep.id), s),
-  });
+  const directory = useUserDirectory();
+  const save = useSaveSharing(sweep.id);
   const options = (directory.data?.items ?? [])
     .filter((u) => u.id !== sweep.owner.id)
     .map((u) => ({ value: String(u.id), label: `${u.name} · ${u.role}` }));
@@ -147,7 +139,11 @@ function SharePanel({ sweep }: { sweep: SweepView }) {
         </Text>
       ) : null}
       <Group>
-        <Button size="xs" onClick={() => save.mutate()} loading={save.isPending}>
+        <Button
+          size="xs"
+          onClick={() => save.mutate({ visibility, userIds: users.map(Number) })}
+          loading={save.isPending}
+        >
           Save sharing
         </Button>
         {save.isSuccess ? (
@@ -161,11 +157,7 @@ function SharePanel({ sweep }: { sweep: SweepView }) {
 }
 
 function Overview({ sweep, canManage }: { sweep: SweepView; canManage: boolean }) {
-  const qc = useQueryClient();
-  const cancel = useMutation({
-    mutationFn: () => api.post<SweepView>(`/sweeps/${sweep.id}/cancel`),
-    onSuccess: (s) => qc.setQueryData(queryKeys.sweeps.detail(sweep.id), s),
-  });
+  const cancel = useCancelSweep(sweep.id);
   const d = sweep.definition;
   const active = ACTIVE.includes(sweep.status);
   const pct = Math.floor(sweep.progress.fraction * 1000) / 10;

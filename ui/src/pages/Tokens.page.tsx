@@ -1,15 +1,15 @@
 import { Alert, Badge, Button, CopyButton, Group, Paper, Select, Table, Text, TextInput, Code } from '@mantine/core';
 import { IconCheck, IconCopy, IconKey } from '@tabler/icons-react';
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState, type FormEvent } from 'react';
 import { ApiError } from '../api/client.js';
-import { queryKeys } from '../api/queryKeys.js';
 import {
-  accountsApi,
-  formatWhen,
+  useCreateToken,
+  useRevokeToken,
+  useTokens,
   type ApiTokenSummary,
   type CreatedApiToken,
-} from '../components/AdminShared/accountsApi.js';
+} from '../api/tokens.js';
+import { formatWhen } from '../components/AdminShared/labels.js';
 import { ctrlEnter } from '../components/AdminShared/ctrlEnter.js';
 import { EmptyState } from '../components/EmptyState/EmptyState.js';
 import { PageHeader } from '../components/PageHeader/PageHeader.js';
@@ -29,24 +29,16 @@ function state(t: ApiTokenSummary): { label: string; color: string } {
 
 /** Personal API tokens: create (secret shown once, with a copy button), list and revoke. */
 export default function TokensPage() {
-  const qc = useQueryClient();
-  const list = useQuery({ queryKey: queryKeys.tokens.list(), queryFn: accountsApi.tokens });
+  const list = useTokens();
   const [name, setName] = useState('');
   const [scope, setScope] = useState<'read' | 'read-write'>('read');
   const [expiry, setExpiry] = useState('90');
   const [errors, setErrors] = useState<{ name?: string; scope?: string; expiresAt?: string; form?: string }>({});
   const [created, setCreated] = useState<CreatedApiToken | null>(null);
-  const create = useMutation({
-    mutationFn: () =>
-      accountsApi.createToken({
-        name: name.trim(),
-        scope,
-        expiresAt: expiry === 'never' ? null : new Date(Date.now() + Number(expiry) * 86_400_000).toISOString(),
-      }),
+  const create = useCreateToken({
     onSuccess: (t) => {
       setCreated(t);
       setName('');
-      void qc.invalidateQueries({ queryKey: queryKeys.tokens.all() });
     },
     onError: (err) => {
       if (err instanceof ApiError)
@@ -59,16 +51,17 @@ export default function TokensPage() {
       else setErrors({ form: 'The token could not be created' });
     },
   });
-  const revoke = useMutation({
-    mutationFn: accountsApi.revokeToken,
-    onSuccess: () => void qc.invalidateQueries({ queryKey: queryKeys.tokens.all() }),
-  });
+  const revoke = useRevokeToken();
 
   const submit = () => {
     if (!name.trim()) return setErrors({ name: 'Give the token a name, e.g. the script or machine that uses it' });
     setErrors({});
     setCreated(null);
-    create.mutate();
+    create.mutate({
+      name: name.trim(),
+      scope,
+      expiresAt: expiry === 'never' ? null : new Date(Date.now() + Number(expiry) * 86_400_000).toISOString(),
+    });
   };
   const onSubmit = (e: FormEvent) => {
     e.preventDefault();

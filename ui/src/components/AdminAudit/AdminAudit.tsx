@@ -1,13 +1,12 @@
 import { Alert, Code, Pagination, Table, Text } from '@mantine/core';
-import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
-import { queryKeys } from '../../api/queryKeys.js';
-import { accountsApi, formatWhen } from '../AdminShared/accountsApi.js';
+import { useAuditLog } from '../../api/admin.js';
+import { formatWhen } from '../AdminShared/labels.js';
 
 /** Who did what, when: every admin action, newest first. */
 export function AdminAudit() {
   const [page, setPage] = useState(1);
-  const log = useQuery({ queryKey: queryKeys.admin.audit({ page }), queryFn: () => accountsApi.audit(page) });
+  const log = useAuditLog(page);
   if (log.error) return <Alert color="red">{log.error.message}</Alert>;
   if (!log.data)
     return (

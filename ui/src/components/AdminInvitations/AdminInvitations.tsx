@@ -1,11 +1,10 @@
 import { Alert, Badge, Button, Group, Pagination, Paper, Select, Table, Text, TextInput } from '@mantine/core';
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState, type FormEvent } from 'react';
 import { invitationRequestSchema } from '@driftgrid/domain';
 import { ApiError } from '../../api/client.js';
-import { queryKeys } from '../../api/queryKeys.js';
+import { useInvitations, useInvite, useRevokeInvitation, type Invitation } from '../../api/admin.js';
 import type { Role } from '../../auth/session.js';
-import { accountsApi, formatWhen, ROLES, type Invitation } from '../AdminShared/accountsApi.js';
+import { formatWhen, ROLES } from '../AdminShared/labels.js';
 import { ctrlEnter } from '../AdminShared/ctrlEnter.js';
 
 const STATUS_COLOR: Record<Invitation['status'], string> = {
@@ -17,23 +16,13 @@ const STATUS_COLOR: Record<Invitation['status'], string> = {
 
 /** Invite by e-mail with a role (the link is valid 7 days, once), and the list of invitations. */
 export function AdminInvitations() {
-  const qc = useQueryClient();
   const [email, setEmail] = useState('');
   const [role, setRole] = useState<Role>('researcher');
   const [errors, setErrors] = useState<{ email?: string; role?: string; form?: string }>({});
   const [sent, setSent] = useState<string | null>(null);
   const [page, setPage] = useState(1);
-  const list = useQuery({
-    queryKey: [...queryKeys.admin.invitations(), page],
-    queryFn: () => accountsApi.invitations(page),
-  });
-  const refresh = () => {
-    void qc.invalidateQueries({ queryKey: queryKeys.admin.invitations() });
-    void qc.invalidateQueries({ queryKey: ['admin', 'mailbox'] });
-    void qc.invalidateQueries({ queryKey: ['admin', 'audit'] });
-  };
-  const invite = useMutation({
-    mutationFn: accountsApi.invite,
+  const list = useInvitations(page);
+  const invite = useInvite({
     onSuccess: (inv) => {
       setSent(
         inv.mailed === false
@@ -41,7 +30,6 @@ export function AdminInvitations() {
           : `Invitation sent to ${inv.email}.`,
       );
       setEmail('');
-      refresh();
     },
     onError: (err) => {
       if (err instanceof ApiError)
@@ -53,7 +41,7 @@ export function AdminInvitations() {
       else setErrors({ form: 'The invitation could not be sent' });
     },
   });
-  const revoke = useMutation({ mutationFn: accountsApi.revokeInvitation, onSuccess: refresh });
+  const revoke = useRevokeInvitation();
 
   const submit = () => {
     setSent(null);

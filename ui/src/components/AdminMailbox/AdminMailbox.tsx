@@ -10,14 +10,13 @@ import {
   Title,
   UnstyledButton,
 } from '@mantine/core';
-import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
-import { queryKeys } from '../../api/queryKeys.js';
-import { accountsApi, formatWhen } from '../AdminShared/accountsApi.js';
+import { useMail, useMailbox } from '../../api/admin.js';
+import { formatWhen } from '../AdminShared/labels.js';
 
 function MessageView({ id }: { id: number }) {
   const [mode, setMode] = useState<'text' | 'html'>('text');
-  const m = useQuery({ queryKey: [...queryKeys.admin.mailbox(), 'message', id], queryFn: () => accountsApi.mail(id) });
+  const m = useMail(id);
   if (m.error) return <Alert color="red">{m.error.message}</Alert>;
   if (!m.data)
     return (
@@ -68,11 +67,7 @@ function MessageView({ id }: { id: number }) {
 export function AdminMailbox() {
   const [page, setPage] = useState(1);
   const [open, setOpen] = useState<number | null>(null);
-  const list = useQuery({
-    queryKey: queryKeys.admin.mailbox({ page }),
-    queryFn: () => accountsApi.mailbox(page),
-    refetchInterval: 10_000,
-  });
+  const list = useMailbox(page);
   if (list.error) return <Alert color="red">{list.error.message}</Alert>;
   if (!list.data)
     return (

@@ -1,7 +1,6 @@
 import { Alert, Group, Paper, SimpleGrid, Text } from '@mantine/core';
-import { useQuery } from '@tanstack/react-query';
-import { api, ApiError } from '../../api/client.js';
-import { queryKeys } from '../../api/queryKeys.js';
+import { useQueueStatus } from '../../api/admin.js';
+import { ApiError } from '../../api/client.js';
 import { formatCount } from '../../lib/format.js';
 
 /**
@@ -9,12 +8,7 @@ import { formatCount } from '../../lib/format.js';
  * cancel any sweep); until then it shows counts from GET /api/admin/queue when the route exists.
  */
 export function AdminQueue() {
-  const q = useQuery({
-    queryKey: queryKeys.admin.queue(),
-    queryFn: () => api.get<Record<string, unknown>>('/admin/queue'),
-    retry: false,
-    refetchInterval: 5000,
-  });
+  const q = useQueueStatus({ retry: false });
   if (q.isPending)
     return (
       <Text c="dimmed" fz="sm">

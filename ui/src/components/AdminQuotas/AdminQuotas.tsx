@@ -1,12 +1,11 @@
 import { Alert, Button, Group, NumberInput, Paper, Select, SimpleGrid, Table, Text, Title } from '@mantine/core';
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useEffect, useState } from 'react';
 import { QUOTA_KEYS, type Quota, type QuotaKey } from '@driftgrid/domain';
 import { ApiError } from '../../api/client.js';
-import { queryKeys } from '../../api/queryKeys.js';
+import { useAdminUsers, usePutRoleQuota, usePutUserQuota, useQuotas } from '../../api/admin.js';
 import type { Role } from '../../auth/session.js';
 import { formatCount } from '../../lib/format.js';
-import { accountsApi, QUOTA_LABELS, ROLES } from '../AdminShared/accountsApi.js';
+import { QUOTA_LABELS, ROLES } from '../AdminShared/labels.js';
 import { ctrlEnter } from '../AdminShared/ctrlEnter.js';
 
 type Draft = Partial<Record<QuotaKey, number | ''>>;
@@ -56,20 +55,18 @@ function QuotaFields({
 }
 
 function RoleDefaultForm({ role, quota }: { role: Role; quota: Quota }) {
-  const qc = useQueryClient();
   const [draft, setDraft] = useState<Draft>(quota);
   const [errors, setErrors] = useState<Partial<Record<string, string>>>({});
   useEffect(() => setDraft(quota), [quota]);
-  const save = useMutation({
-    mutationFn: () => {
-      const patch: Partial<Quota> = {};
-      for (const k of QUOTA_KEYS) if (draft[k] !== '' && draft[k] !== undefined) patch[k] = draft[k] as number;
-      return accountsApi.putRoleQuota(role, patch);
-    },
+  const save = usePutRoleQuota(role, {
     onMutate: () => setErrors({}),
-    onSuccess: (doc) => qc.setQueryData(queryKeys.admin.quotas(), doc),
     onError: (e) => setErrors(errorsOf(e)),
   });
+  const saveDraft = () => {
+    const patch: Partial<Quota> = {};
+    for (const k of QUOTA_KEYS) if (draft[k] !== '' && draft[k] !== undefined) patch[k] = draft[k] as number;
+    save.mutate(patch);
+  };
   return (
     <Paper
       withBorder
@@ -77,9 +74,9 @@ function RoleDefaultForm({ role, quota }: { role: Role; quota: Quota }) {
       component="form"
       onSubmit={(e) => {
         e.preventDefault();
-        save.mutate();
+        saveDraft();
       }}
-      onKeyDown={ctrlEnter(() => save.mutate())}
+      onKeyDown={ctrlEnter(() => saveDraft())}
       aria-label={`Quota defaults for ${role}`}
     >
       <Group justify="space-between" mb="xs">
@@ -106,12 +103,8 @@ function RoleDefaultForm({ role, quota }: { role: Role; quota: Quota }) {
 }
 
 function UserOverrideForm({ defaults }: { defaults: Record<Role, Quota> }) {
-  const qc = useQueryClient();
-  const users = useQuery({
-    queryKey: queryKeys.admin.users({ pageSize: 1000 }),
-    queryFn: () => accountsApi.users({ pageSize: 1000 }),
-  });
-  const doc = useQuery({ queryKey: queryKeys.admin.quotas(), queryFn: accountsApi.quotas });
+  const users = useAdminUsers({ pageSize: 1000 });
+  const doc = useQuotas();
   const [userId, setUserId] = useState<string | null>(null);
   const [draft, setDraft] = useState<Draft>({});
   const [errors, setErrors] = useState<Partial<Record<string, string>>>({});
@@ -120,20 +113,19 @@ function UserOverrideForm({ defaults }: { defaults: Record<Role, Quota> }) {
     const o = doc.data?.overrides.find((x) => String(x.userId) === userId);
     setDraft(Object.fromEntries(QUOTA_KEYS.map((k) => [k, o?.[k] ?? ''])) as Draft);
   }, [userId, doc.data]);
-  const save = useMutation({
-    mutationFn: () => {
-      // An empty field clears the override for that limit (back to the role default).
-      const patch = Object.fromEntries(
-        QUOTA_KEYS.map((k) => [k, draft[k] === '' || draft[k] === undefined ? null : draft[k]]),
-      );
-      return accountsApi.putUserQuota(Number(userId), patch);
-    },
+  const save = usePutUserQuota({
     onMutate: () => setErrors({}),
-    onSuccess: (d) => qc.setQueryData(queryKeys.admin.quotas(), d),
     onError: (e) => setErrors(errorsOf(e)),
   });
+  const saveDraft = () => {
+    // An empty field clears the override for that limit (back to the role default).
+    const patch = Object.fromEntries(
+      QUOTA_KEYS.map((k) => [k, draft[k] === '' || draft[k] === undefined ? null : draft[k]]),
+    );
+    save.mutate({ userId: Number(userId), patch });
+  };
   const submit = () => {
-    if (userId) save.mutate();
+    if (userId) saveDraft();
     else setErrors({ user: 'Choose a user first' });
   };
   return (
@@ -188,12 +180,10 @@ function UserOverrideForm({ defaults }: { defaults: Record<Role, Quota> }) {
 
 /** Role defaults, per-user overrides, and the list of overrides in force. */
 export function AdminQuotas() {
-  const qc = useQueryClient();
-  const doc = useQuery({ queryKey: queryKeys.admin.quotas(), queryFn: accountsApi.quotas });
-  const clear = useMutation({
-    mutationFn: (id: number) => accountsApi.putUserQuota(id, Object.fromEntries(QUOTA_KEYS.map((k) => [k, null]))),
-    onSuccess: (d) => qc.setQueryData(queryKeys.admin.quotas(), d),
-  });
+  const doc = useQuotas();
+  const clear = usePutUserQuota();
+  const clearOverride = (id: number) =>
+    clear.mutate({ userId: id, patch: Object.fromEntries(QUOTA_KEYS.map((k) => [k, null])) });
   if (doc.error) return <Alert color="red">{doc.error.message}</Alert>;
   if (!doc.data)
     return (
@@ -252,7 +242,7 @@ export function AdminQuotas() {
                     <Table.Td key={k}>{show(o[k])}</Table.Td>
                   ))}
                   <Table.Td>
-                    <Button size="xs" variant="subtle" onClick={() => clear.mutate(o.userId)}>
+                    <Button size="xs" variant="subtle" onClick={() => clearOverride(o.userId)}>
                       Clear
                     </Button>
                   </Table.Td>

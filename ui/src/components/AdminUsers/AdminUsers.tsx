@@ -1,36 +1,26 @@
 import { Alert, Badge, Button, Group, Pagination, Select, Switch, Table, Text, TextInput } from '@mantine/core';
 import { useDebouncedValue } from '@mantine/hooks';
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { ApiError } from '../../api/client.js';
-import { queryKeys } from '../../api/queryKeys.js';
+import { useAdminUsers, usePatchUser, type AdminUser } from '../../api/admin.js';
 import type { Role } from '../../auth/session.js';
-import { accountsApi, formatWhen, ROLES, type AdminUser } from '../AdminShared/accountsApi.js';
+import { formatWhen, ROLES } from '../AdminShared/labels.js';
 
 const PAGE_SIZE = 25;
 
 /** Users table: search, role filter, role change and deactivation (the last admin rule is the server's, shown here). */
 export function AdminUsers() {
-  const qc = useQueryClient();
   const [search, setSearch] = useState('');
   const [q] = useDebouncedValue(search, 250);
   const [role, setRole] = useState<Role | ''>('');
   const [page, setPage] = useState(1);
   const [rowError, setRowError] = useState<{ id: number; message: string } | null>(null);
   const filters = { q, role, page };
-  const list = useQuery({
-    queryKey: queryKeys.admin.users(filters),
-    queryFn: () => accountsApi.users({ ...filters, pageSize: PAGE_SIZE }),
-  });
-  const patch = useMutation({
-    mutationFn: (v: { id: number; patch: { role?: Role; active?: boolean } }) => accountsApi.patchUser(v.id, v.patch),
+  const list = useAdminUsers({ ...filters, pageSize: PAGE_SIZE });
+  const patch = usePatchUser({
     onMutate: () => setRowError(null),
     onError: (err, v) =>
       setRowError({ id: v.id, message: err instanceof ApiError ? err.message : 'The change could not be saved' }),
-    onSuccess: () => {
-      void qc.invalidateQueries({ queryKey: ['admin', 'users'] });
-      void qc.invalidateQueries({ queryKey: ['admin', 'audit'] });
-    },
   });
 
   const rows = (list.data?.items ?? []).map((u: AdminUser) => (

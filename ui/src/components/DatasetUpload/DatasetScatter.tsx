@@ -2,7 +2,7 @@ import { Group, Paper, Select, Stack, Switch, Text, useComputedColorScheme } fro
 import { useEffect, useRef, useState } from 'react';
 import type { DatasetColumn } from '@driftgrid/domain';
 import { formatNumber, prettyUnit } from '../../lib/format.js';
-import { useDatasetSeries } from './datasetsApi.js';
+import { useDatasetSeries } from '../../api/datasets.js';
 
 const axisName = (c: { name: string; unit: string }) =>
   prettyUnit(c.unit) ? `${c.name} [${prettyUnit(c.unit)}]` : c.name;

@@ -19,7 +19,7 @@ import { ApiError, type ApiErrorDetail } from '../../api/client.js';
 import { formatBytes } from '../../lib/format.js';
 import { ctrlEnter } from '../AdminShared/ctrlEnter.js';
 import { guessUnit, looksNumeric, parseCsvPreview, type CsvPreview } from './csvPreview.js';
-import { useUploadDataset, type DatasetUploadResult } from './datasetsApi.js';
+import { useUploadDataset, type DatasetUploadResult } from '../../api/datasets.js';
 
 /** The server's default limit (UPLOAD_MAX_BYTES); the server checks its own configured value. */
 export const UPLOAD_HINT_BYTES = 20 * 1024 * 1024;

@@ -3,7 +3,7 @@ import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import { fireEvent, render, screen, waitFor } from '@testing-library/react';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { setSession, clearSession } from '../../auth/session.js';
-import { useSweep, type SweepView } from '../ResultsTable/sweepApi.js';
+import { useSweep, type SweepView } from '../../api/sweeps.js';
 import { ExportActions } from './ExportActions.js';
 
 const SHA = 'ab'.repeat(32);

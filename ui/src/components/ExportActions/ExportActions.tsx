@@ -1,14 +1,12 @@
 import { Alert, Button, Group, Modal, Stack, Text } from '@mantine/core';
 import { notifications } from '@mantine/notifications';
 import { IconArchive, IconDownload, IconLock, IconShieldCheck } from '@tabler/icons-react';
-import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { useMe } from '../../api/auth.js';
-import { api, ApiError } from '../../api/client.js';
-import { queryKeys } from '../../api/queryKeys.js';
-import type { SweepView } from '../ResultsTable/sweepApi.js';
+import { ApiError } from '../../api/client.js';
+import { useDownloadZip, type DownloadedFile } from '../../api/downloads.js';
+import { useArchiveSweep, type SweepView } from '../../api/sweeps.js';
 import { ArchiveDigest } from './ArchiveDigest.js';
-import { downloadZip, type DownloadedFile } from './download.js';
 
 const EXPORTABLE = ['completed', 'archived'];
 
@@ -19,20 +17,15 @@ const EXPORTABLE = ['completed', 'archived'];
  */
 export function ExportActions({ sweep }: { sweep: SweepView }) {
   const { data: me } = useMe();
-  const qc = useQueryClient();
   const [confirming, setConfirming] = useState(false);
   const [downloaded, setDownloaded] = useState<DownloadedFile | null>(null);
   const mayManage = !!me && (me.role === 'admin' || Number(me.id) === sweep.owner.id);
 
-  const download = useMutation({
-    mutationFn: () => downloadZip(`/sweeps/${sweep.id}/export`, `sweep-${sweep.id}.zip`),
+  const download = useDownloadZip(`/sweeps/${sweep.id}/export`, `sweep-${sweep.id}.zip`, {
     onSuccess: (f) => setDownloaded(f),
   });
-  const archive = useMutation({
-    mutationFn: () => api.post<SweepView>(`/sweeps/${sweep.id}/archive`),
-    onSuccess: (s) => {
-      qc.setQueryData(queryKeys.sweeps.detail(sweep.id), s);
-      void qc.invalidateQueries({ queryKey: queryKeys.sweeps.all() });
+  const archive = useArchiveSweep(sweep.id, {
+    onSuccess: () => {
       setConfirming(false);
       notifications.show({
         title: 'Sweep archived',

@@ -1,26 +1,15 @@
 import { Progress, Stack, Text, Title } from '@mantine/core';
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
-import { queryKeys } from '../../api/queryKeys.js';
+import { useCreateFit, useFit } from '../../api/fits.js';
 import { FitPlot } from '../FitPlot/FitPlot.js';
 import { FitResult } from '../FitResult/FitResult.js';
-import { LIVE_FIT, fitsApi, type FitRequestBody, type FitSourceKind, type FitView } from '../FitResult/fit-types.js';
+import { LIVE_FIT, type FitSourceKind, type FitView } from '../FitResult/fit-types.js';
 import { FitBuilder, type FitColumn } from './FitBuilder.js';
 import { SavedFits } from './SavedFits.js';
 
 export interface FitsPanelProps {
   source: { kind: FitSourceKind; id: number };
   columns: FitColumn[];
-}
-
-/** One fit by id, polled while it is queued or running. */
-export function useFit(id: number | null) {
-  return useQuery({
-    queryKey: queryKeys.fits.detail(id ?? 0),
-    queryFn: ({ signal }) => fitsApi.get(id!, signal),
-    enabled: id !== null,
-    refetchInterval: (query) => (query.state.data && !LIVE_FIT.has(query.state.data.status) ? false : 500),
-  });
 }
 
 /** A fit's result with its plots, or its progress while it runs. */
@@ -53,16 +42,8 @@ export function FitDetail({ fit, columns }: { fit: FitView; columns?: FitColumn[
  * run a fit, read its parameters with errors and its plots, pick an earlier fit from the list.
  */
 export function FitsPanel({ source, columns }: FitsPanelProps) {
-  const qc = useQueryClient();
   const [selected, setSelected] = useState<number | null>(null);
-  const create = useMutation({
-    mutationFn: (body: FitRequestBody) => fitsApi.create(body),
-    onSuccess: (created) => {
-      if ('parameters' in created) qc.setQueryData(queryKeys.fits.detail(created.id), created);
-      setSelected(created.id);
-      void qc.invalidateQueries({ queryKey: queryKeys.fits.all() });
-    },
-  });
+  const create = useCreateFit({ onSuccess: (created) => setSelected(created.id) });
   const current = useFit(selected);
   return (
     <Stack gap="md" data-testid="fits-panel" data-source-kind={source.kind} data-source-id={source.id}>

@@ -1,11 +1,10 @@
 import { Anchor, Group, Pagination, Paper, Table, Text } from '@mantine/core';
-import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Link } from 'react-router-dom';
-import { queryKeys } from '../../api/queryKeys.js';
+import { useFitList } from '../../api/fits.js';
 import { Num } from '../Num/Num.js';
 import { FitStatus } from '../FitResult/FitStatus.js';
-import { LIVE_FIT, MODEL_LABEL, fitsApi, xList, type FitSourceKind, type FitView } from '../FitResult/fit-types.js';
+import { MODEL_LABEL, xList, type FitSourceKind, type FitView } from '../FitResult/fit-types.js';
 
 const PAGE_SIZE = 20;
 
@@ -48,11 +47,7 @@ export function SavedFits({
 }) {
   const [page, setPage] = useState(1);
   const params = { ...(source ? { sourceKind: source.kind, sourceId: source.id } : {}), page, pageSize: PAGE_SIZE };
-  const q = useQuery({
-    queryKey: queryKeys.fits.list(params),
-    queryFn: ({ signal }) => fitsApi.list(params, signal),
-    refetchInterval: (query) => (query.state.data?.items.some((f) => LIVE_FIT.has(f.status)) ? 1000 : false),
-  });
+  const q = useFitList(params, { poll: true });
   if (q.error)
     return (
       <Text c="red" fz="sm">

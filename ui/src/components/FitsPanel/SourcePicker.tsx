@@ -1,26 +1,8 @@
 import { Group, SegmentedControl, Select, Text } from '@mantine/core';
-import { useQuery } from '@tanstack/react-query';
-import { api, type Page } from '../../api/client.js';
-import { queryKeys } from '../../api/queryKeys.js';
+import { useDatasetList, type DatasetView } from '../../api/datasets.js';
+import { useSweep, useSweepList } from '../../api/sweeps.js';
 import type { FitSourceKind } from '../FitResult/fit-types.js';
 import type { FitColumn } from './FitBuilder.js';
-
-interface SweepItem {
-  id: number;
-  name: string;
-  status: string;
-  points: number;
-}
-interface DatasetItem {
-  id: number;
-  name: string;
-  rows: number;
-  columns: { name: string; canonicalUnit: string; kind: string }[];
-}
-interface SweepDetail {
-  id: number;
-  columns: FitColumn[];
-}
 
 export interface PickedSource {
   source: { kind: FitSourceKind; id: number };
@@ -31,13 +13,9 @@ export interface PickedSource {
 export function useSourceColumns(
   kind: FitSourceKind,
   id: number | null,
-  datasets?: DatasetItem[],
+  datasets?: DatasetView[],
 ): FitColumn[] | undefined {
-  const sweep = useQuery({
-    queryKey: queryKeys.sweeps.detail(id ?? 0),
-    queryFn: ({ signal }) => api.get<SweepDetail>(`/sweeps/${id}`, undefined, signal),
-    enabled: kind === 'sweep' && id !== null,
-  });
+  const sweep = useSweep(id ?? 0, kind === 'sweep' && id !== null);
   if (id === null) return undefined;
   if (kind === 'sweep') return sweep.data?.columns;
   const d = datasets?.find((x) => x.id === id);
@@ -61,12 +39,8 @@ export function SourcePicker({
   onId: (id: number | null) => void;
 }) {
   const sweepParams = { status: 'completed,archived', pageSize: 200, sort: 'createdAt:desc' };
-  const sweeps = useQuery({
-    queryKey: queryKeys.sweeps.list(sweepParams),
-    queryFn: ({ signal }) => api.get<Page<SweepItem>>('/sweeps', sweepParams, signal),
-    enabled: kind === 'sweep',
-  });
-  const datasets = useDatasetList(kind === 'dataset');
+  const sweeps = useSweepList(sweepParams, kind === 'sweep');
+  const datasets = useDatasetList({ pageSize: 200 }, kind === 'dataset');
   const data =
     kind === 'sweep'
       ? (sweeps.data?.items ?? []).map((s) => ({
@@ -108,13 +82,4 @@ export function SourcePicker({
       ) : null}
     </Group>
   );
-}
-
-export function useDatasetList(enabled: boolean) {
-  const params = { pageSize: 200 };
-  return useQuery({
-    queryKey: queryKeys.datasets.list(params),
-    queryFn: ({ signal }) => api.get<Page<DatasetItem>>('/datasets', params, signal),
-    enabled,
-  });
 }

@@ -11,7 +11,7 @@ import {
 import { useMemo, useState } from 'react';
 import { formatCount, prettyUnit } from '../../lib/format.js';
 import { Num } from '../Num/Num.js';
-import { useResults, type SweepColumnView } from './sweepApi.js';
+import { useResults, type SweepColumnView } from '../../api/sweeps.js';
 
 type Row = Record<string, number | boolean | null>;
 

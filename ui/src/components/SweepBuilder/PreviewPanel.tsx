@@ -5,20 +5,8 @@ import { Num } from '../Num/Num.js';
 import { FlagList } from '../QuantityInput/ModelOutputs.js';
 import { QuotaMeters } from '../QuotaMeters/QuotaMeters.js';
 import { useMe } from '../../api/auth.js';
+import type { ServerPreview } from '../../api/sweeps.js';
 import { formatCount, formatNumber } from '../../lib/format.js';
-
-/** The server's verdict from POST /api/sweeps/preview. */
-export interface ServerPreview {
-  ok: boolean;
-  errors: { path: string; message: string }[];
-  points: number | null;
-  chunks: number | null;
-  estimate: { seconds: number; kernelPointsPerSecond: number; persistRowsPerSecond: number } | null;
-  quota: {
-    allowed: boolean;
-    violations: { limit: string; value: number; usage: number; requested: number; message: string }[];
-  } | null;
-}
 
 export interface PreviewPanelProps {
   compiled: CompiledSweep | null;

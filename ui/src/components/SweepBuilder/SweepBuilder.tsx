@@ -27,12 +27,11 @@ import {
   IconTemplate,
   IconTrash,
 } from '@tabler/icons-react';
-import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useMemo, useState, type KeyboardEvent } from 'react';
 import { useNavigate } from 'react-router-dom';
 import { checkSweep, models, type PointEvaluation } from '@driftgrid/domain';
-import { api, ApiError } from '../../api/client.js';
-import { queryKeys } from '../../api/queryKeys.js';
+import { ApiError } from '../../api/client.js';
+import { useSubmitSweep, useSweepPreview } from '../../api/sweeps.js';
 import { useDraft } from '../../hooks/useDraft.js';
 import {
   axisNames,
@@ -48,7 +47,7 @@ import {
 } from './builderState.js';
 import { exampleDefinitions } from './examples.js';
 import { InputRow } from './InputRow.js';
-import { PreviewPanel, type ServerPreview } from './PreviewPanel.js';
+import { PreviewPanel } from './PreviewPanel.js';
 
 function slug(name: string): string {
   return (
@@ -81,7 +80,6 @@ function download(filename: string, text: string) {
  */
 export function SweepBuilder() {
   const navigate = useNavigate();
-  const queryClient = useQueryClient();
   const [state, setState, draft] = useDraft<BuilderState>('sweep-builder', initialState());
   const [importError, setImportError] = useState<string | null>(null);
   const model = modelOf(state) ?? models[0]!;
@@ -112,22 +110,11 @@ export function SweepBuilder() {
   // The server's verdict (estimate, quota) on a longer debounce, only for definitions that pass locally.
   const [defForServer] = useDebouncedValue(definition, 450);
   const serverEnabled = local.compiled !== null && defForServer === defForCheck;
-  const preview = useQuery({
-    queryKey: queryKeys.sweeps.preview(defForServer),
-    queryFn: ({ signal }) => api.post<ServerPreview>('/sweeps/preview', defForServer, { signal }),
-    enabled: serverEnabled,
-    placeholderData: keepPreviousData,
-    staleTime: 10_000,
-  });
+  const preview = useSweepPreview(defForServer, serverEnabled);
 
-  const submit = useMutation({
-    mutationFn: (def: Record<string, unknown>) =>
-      api.post<{ id: number; status: string; points: number }>('/sweeps', def),
+  const submit = useSubmitSweep({
     onSuccess: (res) => {
       draft.clear();
-      // Usage (quota meters) and the catalogue change with a new sweep.
-      void queryClient.invalidateQueries({ queryKey: queryKeys.me() });
-      void queryClient.invalidateQueries({ queryKey: queryKeys.sweeps.lists() });
       navigate(`/sweeps/${res.id}`);
     },
   });

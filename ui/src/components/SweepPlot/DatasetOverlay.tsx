@@ -1,11 +1,8 @@
 import { Alert, Anchor, Group, Loader, Select, Stack, Switch, Text } from '@mantine/core';
 import { IconAlertTriangle } from '@tabler/icons-react';
-import { useQuery } from '@tanstack/react-query';
 import { useEffect, useMemo, useState } from 'react';
 import { Link } from 'react-router-dom';
-import type { DatasetSeries, DatasetView } from '@driftgrid/domain';
-import { api, type Page } from '../../api/client.js';
-import { queryKeys } from '../../api/queryKeys.js';
+import { useDatasetList, useDatasetSeries } from '../../api/datasets.js';
 import { prettyUnit } from '../../lib/format.js';
 import type { OverlaySeries } from './chartOptions.js';
 import {
@@ -45,11 +42,7 @@ export function DatasetOverlay({
   const [x, setX] = useState<string | null>(null);
   const [y, setY] = useState<string | null>(null);
 
-  const list = useQuery({
-    queryKey: queryKeys.datasets.list(LIST),
-    queryFn: ({ signal }) => api.get<Page<DatasetView>>('/datasets', LIST, signal),
-    enabled: on,
-  });
+  const list = useDatasetList(LIST, on);
   const datasets = list.data?.items ?? [];
   const dataset = datasets.find((d) => String(d.id) === datasetId) ?? null;
   const columns = dataset ? numericColumns(dataset.columns) : [];
@@ -62,12 +55,7 @@ export function DatasetOverlay({
     setY(def.y);
   };
 
-  const params = { x: x ?? '', y: y ?? '', maxPoints: MAX_POINTS };
-  const series = useQuery({
-    queryKey: queryKeys.datasets.series(datasetId ?? '', params),
-    queryFn: ({ signal }) => api.get<DatasetSeries>(`/datasets/${datasetId}/series`, params, signal),
-    enabled: on && !!datasetId && !!x && !!y,
-  });
+  const series = useDatasetSeries(datasetId, x, y, { maxPoints: MAX_POINTS, enabled: on });
   const plan = useMemo(
     () => (series.data && on ? planOverlay(series.data, plot, scales) : null),
     [series.data, on, plot, scales],

@@ -14,7 +14,7 @@ import { IconDownload } from '@tabler/icons-react';
 import { useEffect, useMemo, useRef, useState } from 'react';
 import type { HeatmapSeries, LineSeries } from '@driftgrid/domain';
 import { formatQuantity, prettyUnit } from '../../lib/format.js';
-import { useSeries, type SweepView } from '../ResultsTable/sweepApi.js';
+import { useSeries, type SweepView } from '../../api/sweeps.js';
 import { heatmapOption, lineOption, type OverlaySeries, type Scales } from './chartOptions.js';
 import { DatasetOverlay } from './DatasetOverlay.js';
 import type { PlotAxisUnits } from './overlay.js';

@@ -1,20 +1,7 @@
 import { Alert, Group, Progress, Stack, Text } from '@mantine/core';
-import { useQuery } from '@tanstack/react-query';
-import { api } from '../../api/client.js';
-import { queryKeys } from '../../api/queryKeys.js';
+import { useSweepProgress } from '../../api/sweeps.js';
 import { formatCount } from '../../lib/format.js';
 import { StatusBadge } from '../StatusBadge/StatusBadge.js';
-
-/** The part of the SPEC §6 sweep shape this component reads. */
-export interface SweepProgressInfo {
-  id: number;
-  name: string;
-  status: string;
-  points: number;
-  progress: { done: number; total: number };
-  error?: string | null;
-  provenance?: { computeMs?: number | null } | null;
-}
 
 const LIVE = new Set(['queued', 'running']);
 
@@ -24,12 +11,7 @@ const LIVE = new Set(['queued', 'running']);
  * Test hooks: `sweep-progress-compact` (data-status, data-done, data-total), `sweep-progress-count`.
  */
 export function SweepProgress({ sweepId }: { sweepId: number | string }) {
-  const q = useQuery({
-    queryKey: queryKeys.sweeps.detail(sweepId),
-    queryFn: ({ signal }) => api.get<SweepProgressInfo>(`/sweeps/${sweepId}`, undefined, signal),
-    refetchInterval: (query) => (query.state.data && !LIVE.has(query.state.data.status) ? false : 1000),
-    staleTime: 0,
-  });
+  const q = useSweepProgress(sweepId);
   if (q.error) {
     return (
       <Alert color="red" variant="light" title="Progress unavailable">

@@ -1,4 +1,6 @@
-import { apiDownload } from '../../api/client.js';
+import { useMutation } from '@tanstack/react-query';
+import { apiDownload } from './client.js';
+import type { MutationHandlers } from './mutations.js';
 
 export interface DownloadedFile {
   fileName: string;
@@ -34,4 +36,9 @@ export async function downloadZip(path: string, fallbackName: string): Promise<D
     setTimeout(() => URL.revokeObjectURL(url), 30_000);
   }
   return { fileName, bytes: blob.size, sha256: await sha256Hex(blob) };
+}
+
+/** A zip download as a mutation: pending while the bytes arrive, the received file's digest on success. */
+export function useDownloadZip(path: string, fallbackName: string, handlers?: MutationHandlers<DownloadedFile, void>) {
+  return useMutation({ mutationFn: () => downloadZip(path, fallbackName), ...handlers });
 }

@@ -1,0 +1,51 @@
+/**
+ * One's own account outside sign-in (SPEC §6): change the password, reset a forgotten one, accept an
+ * invitation. Reset and invitation calls carry no session.
+ */
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { setSession, type SessionUser } from '../auth/session.js';
+import type { LoginResponse } from './auth.js';
+import { api } from './client.js';
+import { afterSuccess, type MutationHandlers } from './mutations.js';
+import { queryKeys } from './queryKeys.js';
+
+export type PasswordChanged = { message: string; accessToken: string; user: SessionUser };
+type Message = { message: string };
+
+/** Other sessions are signed out by the change; this one continues on the fresh token. */
+export function useChangePassword(handlers?: MutationHandlers<PasswordChanged, { current: string; next: string }>) {
+  return useMutation({
+    mutationFn: (body: { current: string; next: string }) => api.post<PasswordChanged>('/auth/password', body),
+    ...afterSuccess((res) => setSession({ accessToken: res.accessToken, user: res.user }), handlers),
+  });
+}
+
+export function useRequestPasswordReset(handlers?: MutationHandlers<Message, { email: string }>) {
+  return useMutation({
+    mutationFn: (body: { email: string }) => api.post<Message>('/auth/password-reset', body, { auth: false }),
+    ...handlers,
+  });
+}
+
+export function useConfirmPasswordReset(handlers?: MutationHandlers<Message, { token: string; password: string }>) {
+  return useMutation({
+    mutationFn: (body: { token: string; password: string }) =>
+      api.post<Message>('/auth/password-reset/confirm', body, { auth: false }),
+    ...handlers,
+  });
+}
+
+type AcceptBody = { token: string; name: string; password: string };
+
+/** Accepting signs the new user in: start from an empty cache, store the session, seed `me`. */
+export function useAcceptInvite(handlers?: MutationHandlers<LoginResponse, AcceptBody>) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (body: AcceptBody) => api.post<LoginResponse>('/auth/accept-invite', body, { auth: false }),
+    ...afterSuccess((res) => {
+      qc.clear();
+      setSession({ accessToken: res.accessToken, user: res.user });
+      qc.setQueryData(queryKeys.me(), { ...res.user });
+    }, handlers),
+  });
+}

@@ -1,0 +1,232 @@
+/**
+ * Sweep reads and writes for the ui (SPEC §6): the catalogue, one sweep, its results and series, the
+ * builder's preview, submit, cancel, sharing and archive. Keys come from queryKeys.ts; each read has a
+ * queryOptions() factory so a component can prefetch or share the exact query a hook runs.
+ */
+import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { HeatmapSeries, LineSeries, SweepSummary } from '@driftgrid/domain';
+import { api, ApiError, type Page, type Query } from './client.js';
+import { afterSuccess, type MutationHandlers } from './mutations.js';
+import { queryKeys } from './queryKeys.js';
+
+export type { HeatmapSeries, LineSeries, SweepSummary };
+
+export interface SweepColumnView {
+  name: string;
+  kind: 'index' | 'input' | 'output' | 'derived' | 'flags';
+  unit: string;
+  meaning: string;
+  type: 'int' | 'float' | 'boolean' | 'mask';
+  source?: string;
+}
+
+/** GET /api/sweeps/:id (SweepsService.present). */
+export interface SweepView {
+  id: number;
+  name: string;
+  model: string;
+  status: string;
+  points: number;
+  progress: { done: number; total: number; fraction: number };
+  chunks: number;
+  definition: {
+    description?: string;
+    fixed?: Record<string, unknown>;
+    axes?: {
+      param: string;
+      kind: string;
+      min?: number | string;
+      max?: number | string;
+      count?: number;
+      values?: unknown[];
+      unit?: string;
+    }[];
+    sampling?: { kind: string; samples?: number; seed?: number };
+    derived?: { name: string; expr: string }[];
+  };
+  columns: SweepColumnView[];
+  tags: string[];
+  owner: { id: number; name: string; email: string };
+  visibility: 'private' | 'group';
+  sharedWith: number[];
+  createdAt: string;
+  startedAt: string | null;
+  finishedAt: string | null;
+  error: string | null;
+  flagsSummary: { invalidPoints: number; byFlag: Record<string, number> };
+  provenance: {
+    modelVersion: string;
+    appVersion: string;
+    computeMs: number;
+    workers: { id: string; chunks: number; points: number }[];
+  };
+  archive?: { sha256: string; bytes: number | null; archivedAt: string | null };
+}
+
+export interface ResultsPage {
+  rows: Record<string, number | boolean | null>[];
+  total: number;
+  columns: SweepColumnView[];
+}
+
+/** The server's verdict from POST /api/sweeps/preview. */
+export interface ServerPreview {
+  ok: boolean;
+  errors: { path: string; message: string }[];
+  points: number | null;
+  chunks: number | null;
+  estimate: { seconds: number; kernelPointsPerSecond: number; persistRowsPerSecond: number } | null;
+  quota: {
+    allowed: boolean;
+    violations: { limit: string; value: number; usage: number; requested: number; message: string }[];
+  } | null;
+}
+
+/** One row of the archived-sweeps list (Downloads). */
+export interface ArchivedSummary {
+  id: number;
+  name: string;
+  model: string;
+  points: number;
+  owner: { id: number; name: string };
+  archivedAt?: string | null;
+  finishedAt?: string | null;
+  archive?: { sha256: string; bytes: number | null; archivedAt: string | null };
+}
+
+export const ACTIVE = ['queued', 'running'];
+
+/**
+ * Archived sweeps through the catalogue's `scope=archived`; a server without that scope answers
+ * 400, and the list falls back to `status=archived`.
+ */
+async function fetchArchived(
+  query: { page: number; pageSize: number; q?: string },
+  signal?: AbortSignal,
+): Promise<Page<ArchivedSummary>> {
+  try {
+    return await api.get<Page<ArchivedSummary>>('/sweeps', { ...query, scope: 'archived' }, signal);
+  } catch (err) {
+    if (!(err instanceof ApiError) || err.status !== 400) throw err;
+    return api.get<Page<ArchivedSummary>>('/sweeps', { ...query, status: 'archived' }, signal);
+  }
+}
+
+export const sweepQueries = {
+  list: (query: Query) =>
+    queryOptions({
+      queryKey: queryKeys.sweeps.list(query),
+      queryFn: ({ signal }) => api.get<Page<SweepSummary>>('/sweeps', query, signal),
+    }),
+  archived: (query: { page: number; pageSize: number; q?: string }) =>
+    queryOptions({
+      queryKey: queryKeys.sweeps.list({ ...query, archived: true }),
+      queryFn: ({ signal }) => fetchArchived(query, signal),
+    }),
+  detail: (id: string | number) =>
+    queryOptions({
+      queryKey: queryKeys.sweeps.detail(id),
+      queryFn: ({ signal }) => api.get<SweepView>(`/sweeps/${id}`, undefined, signal),
+    }),
+  results: (id: string | number, query: Query) =>
+    queryOptions({
+      queryKey: queryKeys.sweeps.results(id, query),
+      queryFn: ({ signal }) => api.get<ResultsPage>(`/sweeps/${id}/results`, query, signal),
+    }),
+  series: (id: string | number, query: Query) =>
+    queryOptions({
+      queryKey: queryKeys.sweeps.series(id, query),
+      queryFn: ({ signal }) => api.get<LineSeries | HeatmapSeries>(`/sweeps/${id}/series`, query, signal),
+    }),
+  preview: (definition: unknown) =>
+    queryOptions({
+      queryKey: queryKeys.sweeps.preview(definition),
+      queryFn: ({ signal }) => api.post<ServerPreview>('/sweeps/preview', definition, { signal }),
+    }),
+};
+
+export function useSweepList(query: Query, enabled = true) {
+  return useQuery({ ...sweepQueries.list(query), placeholderData: keepPreviousData, enabled });
+}
+
+export function useArchivedSweeps(query: { page: number; pageSize: number; q?: string }) {
+  return useQuery({ ...sweepQueries.archived(query), placeholderData: keepPreviousData });
+}
+
+export function useSweep(id: string | number, enabled = true) {
+  return useQuery({
+    ...sweepQueries.detail(id),
+    enabled,
+    // Live progress while the sweep is queued or running (SPEC §12: long actions show progress).
+    refetchInterval: (q) => (q.state.data && ACTIVE.includes(q.state.data.status) ? 1000 : false),
+  });
+}
+
+/** Progress polling for a compact card: every second until the sweep settles, never served stale. */
+export function useSweepProgress(id: string | number) {
+  return useQuery({
+    ...sweepQueries.detail(id),
+    refetchInterval: (query) => (query.state.data && !ACTIVE.includes(query.state.data.status) ? false : 1000),
+    staleTime: 0,
+  });
+}
+
+export function useResults(id: string | number, query: Query, enabled = true) {
+  return useQuery({ ...sweepQueries.results(id, query), placeholderData: keepPreviousData, enabled });
+}
+
+export function useSeries(id: string | number, query: Query, enabled = true) {
+  return useQuery({ ...sweepQueries.series(id, query), placeholderData: keepPreviousData, enabled });
+}
+
+/** The server's estimate and quota verdict for a definition the builder has already checked locally. */
+export function useSweepPreview(definition: unknown, enabled: boolean) {
+  return useQuery({
+    ...sweepQueries.preview(definition),
+    enabled,
+    placeholderData: keepPreviousData,
+    staleTime: 10_000,
+  });
+}
+
+type Submitted = { id: number; status: string; points: number };
+
+export function useSubmitSweep(handlers?: MutationHandlers<Submitted, Record<string, unknown>>) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (def: Record<string, unknown>) => api.post<Submitted>('/sweeps', def),
+    ...afterSuccess(() => {
+      // Usage (quota meters) and the catalogue change with a new sweep.
+      void qc.invalidateQueries({ queryKey: queryKeys.me() });
+      void qc.invalidateQueries({ queryKey: queryKeys.sweeps.lists() });
+    }, handlers),
+  });
+}
+
+export function useCancelSweep(id: number) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: () => api.post<SweepView>(`/sweeps/${id}/cancel`),
+    onSuccess: (s) => qc.setQueryData(queryKeys.sweeps.detail(id), s),
+  });
+}
+
+export function useSaveSharing(id: number) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (body: { visibility: SweepView['visibility']; userIds: number[] }) =>
+      api.put<SweepView>(`/sweeps/${id}/sharing`, body),
+    onSuccess: (s) => qc.setQueryData(queryKeys.sweeps.detail(id), s),
+  });
+}
+
+export function useArchiveSweep(id: number, handlers?: MutationHandlers<SweepView, void>) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: () => api.post<SweepView>(`/sweeps/${id}/archive`),
+    ...afterSuccess<SweepView, void>((s) => {
+      qc.setQueryData(queryKeys.sweeps.detail(id), s);
+      void qc.invalidateQueries({ queryKey: queryKeys.sweeps.all() });
+    }, handlers),
+  });
+}

@@ -1,0 +1,36 @@
+/** Personal API tokens (SPEC §6): list, create (the secret comes back once), revoke. */
+import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { ApiTokenSummary, CreatedApiToken } from '@driftgrid/domain';
+import { api, type Page } from './client.js';
+import { afterSuccess, type MutationHandlers } from './mutations.js';
+import { queryKeys } from './queryKeys.js';
+
+export type { ApiTokenSummary, CreatedApiToken };
+
+export type CreateTokenBody = { name: string; scope: 'read' | 'read-write'; expiresAt?: string | null };
+
+export const tokenQueries = {
+  list: () =>
+    queryOptions({
+      queryKey: queryKeys.tokens.list(),
+      queryFn: ({ signal }) => api.get<Page<ApiTokenSummary>>('/tokens', { pageSize: 200 }, signal),
+    }),
+};
+
+export const useTokens = () => useQuery(tokenQueries.list());
+
+export function useCreateToken(handlers?: MutationHandlers<CreatedApiToken, CreateTokenBody>) {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (body: CreateTokenBody) => api.post<CreatedApiToken>('/tokens', body),
+    ...afterSuccess(() => void qc.invalidateQueries({ queryKey: queryKeys.tokens.all() }), handlers),
+  });
+}
+
+export function useRevokeToken() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (id: number) => api.delete<ApiTokenSummary>(`/tokens/${id}`),
+    onSuccess: () => void qc.invalidateQueries({ queryKey: queryKeys.tokens.all() }),
+  });
+}
