@@ -16,6 +16,7 @@ import { ExportModule } from './export/export.module.js';
 import { ModelsModule } from './models/models.module.js';
 import { CatalogueModule } from './catalogue/catalogue.module.js';
 import { FitsModule } from './fits/fits.module.js';
+import { SensitivityModule } from './sensitivity/sensitivity.module.js';
 
 @Module({})
 export class AppModule {
@@ -36,6 +37,7 @@ export class AppModule {
         ModelsModule,
         CatalogueModule,
         FitsModule,
+        SensitivityModule,
         ExportModule,
       ],
       providers: [{ provide: APP_FILTER, useClass: HttpErrorFilter }],

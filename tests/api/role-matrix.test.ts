@@ -58,6 +58,7 @@ export const ROLE_MATRIX: Record<string, Who> = {
   'GET /api/sweeps/{id}/results': ALL,
   'GET /api/sweeps/{id}/series': ALL,
   'GET /api/sweeps/{id}/export': ALL,
+  'GET /api/sweeps/{id}/sensitivity': ALL,
   'POST /api/datasets': CREATORS,
   // Reviewers may read datasets shared with them (the datasets module's choice).
   'GET /api/datasets': ALL,

@@ -3,3 +3,4 @@ export * from './accounts.js';
 export * from './catalogue.js';
 export * from './datasets.js';
 export * from './fits.js';
+export * from './sensitivity.js';
