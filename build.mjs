@@ -1,6 +1,8 @@
 // Builds each workspace only when its sources are newer than its last build, so a second
 // `npm start` goes straight to serving. `node build.mjs --force` rebuilds everything.
-import { execSync } from 'node:child_process';
+// Each step's own output is kept back and shown only when the step fails: a newcomer's first
+// screen is one line per workspace, not the compilers' chatter.
+import { spawnSync } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
 
@@ -46,11 +48,20 @@ for (const s of steps) {
     console.log(`build: ${s.name} is up to date`);
     continue;
   }
-  console.log(`build: ${s.name}`);
   const started = Date.now();
-  execSync(`npm run build -w ${s.name}`, { stdio: ['ignore', 'inherit', 'inherit'] });
+  const run = spawnSync('npm', ['run', 'build', '--silent', '-w', s.name], {
+    stdio: ['ignore', 'pipe', 'pipe'],
+    encoding: 'utf8',
+    maxBuffer: 64 * 1024 * 1024,
+  });
+  if (run.status !== 0) {
+    process.stdout.write(run.stdout ?? '');
+    process.stderr.write(run.stderr ?? '');
+    console.error(`build: ${s.name} failed (exit ${run.status ?? run.signal})`);
+    process.exit(1);
+  }
   fs.mkdirSync(s.out, { recursive: true });
   fs.writeFileSync(stamp, new Date().toISOString());
-  console.log(`build: ${s.name} done in ${((Date.now() - started) / 1000).toFixed(1)} s`);
+  console.log(`build: ${s.name} built in ${((Date.now() - started) / 1000).toFixed(1)} s`);
   rebuilt = true;
 }

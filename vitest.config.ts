@@ -5,6 +5,9 @@ import { fileURLToPath } from 'node:url';
 // production builds consume domain/dist.
 const domainSrc = fileURLToPath(new URL('./domain/src/index.ts', import.meta.url));
 const alias = { '@driftgrid/domain': domainSrc };
+// Console output of passing tests (deliberate faults log errors on purpose) is dropped from the
+// report; a failing test still shows everything it printed. The api logs through console under test.
+const silent = 'passed-only' as const;
 
 export default defineConfig({
   resolve: { alias },
@@ -14,6 +17,7 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: 'unit',
+          silent,
           include: ['domain/src/**/*.spec.ts', 'worker/src/**/*.spec.ts', 'api/src/**/*.spec.ts'],
           environment: 'node',
         },
@@ -22,6 +26,7 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: 'ui',
+          silent,
           include: ['ui/src/**/*.spec.{ts,tsx}'],
           environment: 'happy-dom',
           setupFiles: ['ui/src/test/setup.ts'],
@@ -31,6 +36,7 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: 'integration',
+          silent,
           include: ['tests/integration/**/*.test.ts'],
           environment: 'node',
           testTimeout: 120000,
@@ -41,6 +47,7 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: 'queue',
+          silent,
           include: ['tests/queue/**/*.test.ts'],
           environment: 'node',
           testTimeout: 60000,
@@ -51,6 +58,7 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: 'api',
+          silent,
           include: ['tests/api/**/*.test.ts'],
           environment: 'node',
           testTimeout: 120000,
@@ -61,6 +69,7 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: 'browser',
+          silent,
           include: ['tests/browser/**/*.test.ts'],
           environment: 'node',
           testTimeout: 120000,

@@ -1,23 +1,16 @@
 import 'reflect-metadata';
-import { Logger, type INestApplication, type LogLevel } from '@nestjs/common';
+import { Logger, type INestApplication } from '@nestjs/common';
 import { NestFactory } from '@nestjs/core';
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import { DocumentBuilder, SwaggerModule } from '@nestjs/swagger';
 import helmet from 'helmet';
 import { AppModule } from './app.module.js';
+import { AppLogger } from './common/app-logger.js';
 import { requestContext } from './common/request-context.middleware.js';
 import type { AppConfig } from './config/app-config.js';
 import { SeedService } from './seed/seed.service.js';
 import { seedDemoContent } from './seed/demo-content.js';
 import { mountUi } from './web/spa-fallback.js';
-
-const LEVELS: Record<AppConfig['logLevel'], LogLevel[] | false> = {
-  debug: ['debug', 'log', 'warn', 'error', 'fatal'],
-  info: ['log', 'warn', 'error', 'fatal'],
-  warn: ['warn', 'error', 'fatal'],
-  error: ['error', 'fatal'],
-  silent: false,
-};
 
 export interface CreatedApp {
   app: INestApplication;
@@ -27,7 +20,7 @@ export interface CreatedApp {
 /** Builds the whole application (not yet listening): used by main.ts and by the api tests. */
 export async function createApp(config: AppConfig): Promise<CreatedApp> {
   const app = await NestFactory.create<NestExpressApplication>(AppModule.forRoot(config), {
-    logger: LEVELS[config.logLevel],
+    logger: new AppLogger(config.logLevel, config.env === 'test'),
     bodyParser: false,
   });
   app.disable('x-powered-by');

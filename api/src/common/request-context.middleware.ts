@@ -20,7 +20,8 @@ export function requestContext(config: Pick<AppConfig, 'logLevel'>) {
       if (quiet && res.statusCode < 500) return;
       const ms = Number(process.hrtime.bigint() - started) / 1e6;
       const user = (req as Request & { user?: { id: number } }).user;
-      process.stdout.write(
+      // Through console (standard output), so a test runner can attribute the line to its test.
+      console.log(
         JSON.stringify({
           t: new Date().toISOString(),
           level: res.statusCode >= 500 ? 'error' : 'info',
@@ -31,7 +32,7 @@ export function requestContext(config: Pick<AppConfig, 'logLevel'>) {
           status: res.statusCode,
           ms: Math.round(ms * 10) / 10,
           userId: user?.id,
-        }) + '\n',
+        }),
       );
     });
     next();
