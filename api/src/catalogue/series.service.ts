@@ -159,17 +159,18 @@ export class SeriesService {
     let method: LineSeries['method'];
     let total: number;
     let slice: LineSeries['slice'] = {};
+    if (q.groups && !(ctx.grid && ga >= 0 && xa >= 0))
+      throw new ValidationError('groups: values can be picked when x and groupBy are swept inputs of a grid sweep', [
+        { path: 'groups', message: 'plot against a swept input and group by another one, or leave groups out' },
+      ]);
     if (ctx.grid && xa >= 0 && (!gc || ga >= 0)) {
-      const groupCount = ga >= 0 ? ctx.axes[ga].count : 1;
-      if (groupCount > MAX_GROUPS) throw tooManyGroups(gc!.name, groupCount);
+      const groupDigits = ga >= 0 ? this.groupDigits(ctx.axes[ga].count, gc!.name, q.groups) : [];
+      const groupCount = ga >= 0 ? groupDigits.length : 1;
       const free = ga >= 0 ? [ga, xa] : [xa];
       const fx = this.fixedDigits(ctx, q, free);
       slice = fx.slice;
       const xDigits = strideDigits(ctx.axes[xa].count, Math.floor(q.maxPoints / groupCount));
-      const spec = [
-        ...(ga >= 0 ? [{ axis: ga, digits: strideDigits(groupCount, groupCount) }] : []),
-        { axis: xa, digits: xDigits },
-      ];
+      const spec = [...(ga >= 0 ? [{ axis: ga, digits: groupDigits }] : []), { axis: xa, digits: xDigits }];
       const indices = sliceIndices(gridStrides(ctx.axes.map((a) => a.count)), fx.fixed, spec);
       rows = this.repo.atIndices(ctx.base, indices, exprs, ctx.filter);
       method = 'grid-slice';
@@ -181,7 +182,7 @@ export class SeriesService {
       method = 'stride';
     }
 
-    const groups = new Map<number | null, [number | null, number | null, number][]>();
+    const groups = new Map<number | null, [number | null, number | null, number, number][]>();
     for (const r of rows) {
       const g = gc ? r[3] : null;
       let list = groups.get(g);
@@ -189,12 +190,26 @@ export class SeriesService {
         if (groups.size >= MAX_GROUPS) throw tooManyGroups(gc!.name, `more than ${MAX_GROUPS}`);
         groups.set(g, (list = []));
       }
-      list.push([r[1], r[2], r[4] ?? 0]);
+      list.push([r[1], r[2], r[4] ?? 0, r[0]!]);
     }
     const out = [...groups.entries()]
       .sort((a, b) => (a[0] ?? Infinity) - (b[0] ?? Infinity))
       .map(([value, points]) => ({ value, points: points.sort((a, b) => (a[0] ?? Infinity) - (b[0] ?? Infinity)) }));
     return { ...head, groups: out, method, total, returned: rows.length, slice };
+  }
+
+  /** Grid digits of the groupBy axis to draw: the picked ones (checked), else all when there are few enough. */
+  private groupDigits(count: number, name: string, picked: number[] | undefined): number[] {
+    if (!picked) {
+      if (count > MAX_GROUPS) throw tooManyGroups(name, count);
+      return strideDigits(count, count);
+    }
+    const past = picked.find((k) => k >= count);
+    if (past !== undefined)
+      throw new ValidationError(`groups: value number ${past} is past the last value of ${name}`, [
+        { path: 'groups', message: `${name} has ${count} values, numbered 0 to ${count - 1}` },
+      ]);
+    return picked;
   }
 
   private countFiltered(ctx: Ctx): number {
@@ -246,7 +261,7 @@ export class SeriesService {
           { ...keep, params: [JSON.stringify(xd), JSON.stringify(yd)] },
         );
         for (const [xi, yi, z, f] of rows)
-          cells.push([xPos.get(xi!)!, yPos.get(yi!)!, z, (f ?? 0) >= 0.5 ? 1 : 0, f ?? 0]);
+          cells.push([xPos.get(xi!)!, yPos.get(yi!)!, z, (f ?? 0) >= 0.5 ? 1 : 0, f ?? 0, null]);
         return { ...head, x, y, cells: sortCells(cells), method: 'grid-mean', zRange: zRange(cells), slice };
       }
       const fx = this.fixedDigits(ctx, q, [xa, ya]);
@@ -265,6 +280,7 @@ export class SeriesService {
           z,
           bad,
           bad,
+          i,
         ]);
       }
       return { ...head, x, y, cells: sortCells(cells), method: 'grid-slice', zRange: zRange(cells), slice };
@@ -284,7 +300,7 @@ export class SeriesService {
     );
     const cells: HeatmapSeries['cells'] = rows
       .filter((r) => r[0] !== null && r[1] !== null)
-      .map(([xi, yi, z, f]) => [xi!, yi!, z, (f ?? 0) >= 0.5 ? 1 : 0, f ?? 0]);
+      .map(([xi, yi, z, f]) => [xi!, yi!, z, (f ?? 0) >= 0.5 ? 1 : 0, f ?? 0, null]);
     return {
       ...head,
       x: { ...this.describe(ctx, xc), values: bx.centres },
@@ -322,7 +338,10 @@ export class SeriesService {
 
 function tooManyGroups(name: string, n: number | string): ValidationError {
   return new ValidationError(`groupBy: ${name} has ${n} distinct values; at most ${MAX_GROUPS} lines are drawn`, [
-    { path: 'groupBy', message: `at most ${MAX_GROUPS} groups; group by an input with fewer values or filter first` },
+    {
+      path: 'groupBy',
+      message: `at most ${MAX_GROUPS} groups; pick values with groups=…, group by an input with fewer values or filter first`,
+    },
   ]);
 }
 

@@ -107,7 +107,8 @@ const columnName = z.string().regex(/^[A-Za-z_][A-Za-z0-9_]{0,63}$/, 'expected a
 
 /**
  * GET /api/sweeps/:id/series. `slice.<param>=k` picks grid value k of a swept input that is not
- * plotted (default 0, the first value); `agg=mean` averages over those inputs instead.
+ * plotted (default 0, the first value); `agg=mean` averages over those inputs instead. `groups=0,7,14`
+ * picks which grid values of the groupBy input are drawn as lines (needed when it has more than 20).
  */
 export const seriesQuerySchema = z
   .object({
@@ -116,6 +117,9 @@ export const seriesQuerySchema = z
     y: columnName,
     z: columnName.optional(),
     groupBy: columnName.optional(),
+    groups: listParam(z.string().regex(/^\d{1,9}$/, 'expected grid value numbers such as 0,7,14'), 20)
+      .transform((v) => [...new Set(v.map(Number))].sort((a, b) => a - b))
+      .optional(),
     maxPoints: z.coerce
       .number()
       .int('must be a whole number')
@@ -131,6 +135,8 @@ export const seriesQuerySchema = z
   })
   .strict()
   .superRefine((v, ctx) => {
+    if (v.groups && !v.groupBy)
+      ctx.addIssue({ code: 'custom', path: ['groups'], message: 'groups picks values of groupBy; give groupBy too' });
     if (v.kind === 'heatmap' && !v.z)
       ctx.addIssue({ code: 'custom', path: ['z'], message: 'a heatmap needs z, the column shown as colour' });
   });
@@ -208,8 +214,8 @@ export interface LineSeries {
   x: SeriesAxis;
   y: SeriesAxis;
   groupBy: SeriesAxis | null;
-  /** Points as [x, y, flag mask], sorted by x. */
-  groups: { value: number | null; points: [number | null, number | null, number][] }[];
+  /** Points as [x, y, flag mask, point index], sorted by x. */
+  groups: { value: number | null; points: [number | null, number | null, number, number][] }[];
   method: 'grid-slice' | 'stride';
   total: number;
   returned: number;
@@ -223,8 +229,11 @@ export interface HeatmapSeries {
   x: SeriesAxis & { values: number[] };
   y: SeriesAxis & { values: number[] };
   z: SeriesAxis;
-  /** Cells as [xIndex, yIndex, z, flagged (0/1), fraction of the cell's points flagged]. */
-  cells: [number, number, number | null, 0 | 1, number][];
+  /**
+   * Cells as [xIndex, yIndex, z, flagged (0/1), fraction of the cell's points flagged, point index]; the
+   * index is null for averaged or binned cells (many points).
+   */
+  cells: [number, number, number | null, 0 | 1, number, number | null][];
   method: 'grid-slice' | 'grid-mean' | 'binned-mean';
   zRange: [number, number] | null;
   slice: Record<string, { index: number; value: number; unit: string }>;
