@@ -55,7 +55,7 @@ export const OVERLAY_COLOR = '#d9480f';
  * optional dataset overlay as a scatter of diamonds (a shape of its own, not only a colour).
  */
 export function lineOption(s: LineSeries, scales: Scales, text: string, overlay?: OverlaySeries | null) {
-  const keep = (p: [number | null, number | null, number]) =>
+  const keep = (p: [number | null, number | null, number, number]) =>
     p[0] !== null && p[1] !== null && (!scales.x || p[0] > 0) && (!scales.y || p[1]! > 0);
   const groupLabel = (v: number | null) =>
     s.groupBy ? `${s.groupBy.name} = ${formatQuantity(v, s.groupBy.unit)}` : s.y.name;
