@@ -1,4 +1,4 @@
-import { parse, type CsvError } from 'csv-parse/sync';
+import { parse } from 'csv-parse/sync';
 import {
   CSV_MISSING,
   CSV_NUMBER,
@@ -12,6 +12,7 @@ import {
   type ErrorDetail,
 } from '@driftgrid/domain';
 import { columnConversion, toCanonical, type ColumnConversion } from './column-units.js';
+import { csvParseFailure, MAX_RECORD_BYTES } from './csv-parse-errors.js';
 
 export type Cell = number | string | null;
 
@@ -140,20 +141,10 @@ function readRecords(input: Buffer, maxRows: number): RawRecord[] {
       skip_empty_lines: true,
       info: true,
       to: maxRows + 2,
+      max_record_size: MAX_RECORD_BYTES,
     }) as unknown as RawRecord[];
   } catch (err) {
-    const e = err as CsvError & { lines?: number };
-    if (typeof e.code === 'string' && e.code.startsWith('CSV_')) {
-      const line = typeof e.lines === 'number' ? e.lines : undefined;
-      const message =
-        e.code === 'CSV_QUOTE_NOT_CLOSED'
-          ? 'a quoted field is never closed'
-          : e.message.replace(/^Invalid \w+:?\s*/, '').slice(0, 200);
-      throw invalid(`The file is not valid CSV${line ? ` at line ${line}` : ''}: ${message}`, [
-        { path: 'file', ...(line ? { line } : {}), message },
-      ]);
-    }
-    throw err;
+    throw csvParseFailure(err) ?? err;
   }
 }
 
