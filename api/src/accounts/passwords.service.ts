@@ -87,7 +87,8 @@ export class PasswordsService {
         failedLogins: 0,
         lockedUntil: null,
         updatedAt: now,
-        sessionsValidAfter: wholeSecond(now),
+        sessionsValidAfter: now,
+        sessionVersion: user.sessionVersion + 1,
       });
       this.repo.useResets(user.id, now);
     })();
@@ -106,15 +107,19 @@ export class PasswordsService {
     }
     const passwordHash = await this.passwords.hash(req.next);
     const now = this.clock.now();
-    const updated = this.users.update(user.id, { passwordHash, updatedAt: now, sessionsValidAfter: wholeSecond(now) })!;
+    // Read and raise the session version in one synchronous transaction (no lost increment).
+    const updated = this.handle.sqlite.transaction(() => {
+      const fresh = this.users.findById(user.id)!;
+      return this.users.update(user.id, {
+        passwordHash,
+        updatedAt: now,
+        sessionsValidAfter: now,
+        sessionVersion: fresh.sessionVersion + 1,
+      })!;
+    })();
     return {
       message: 'Your password has been changed; your other sessions have been signed out',
       ...this.auth.issue(updated),
     };
   }
-}
-
-/** JWT `iat` has whole seconds: the cut-off is rounded down so the caller's new session survives it. */
-function wholeSecond(ms: number): number {
-  return Math.floor(ms / 1000) * 1000;
 }

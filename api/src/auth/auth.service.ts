@@ -43,7 +43,8 @@ export class AuthService {
   }
 
   issue(user: UserRow): LoginResponse {
-    const accessToken = this.jwt.sign({ sub: user.id, role: user.role });
+    // `sv`: the session version; a password change or reset raises the user's, ending this session.
+    const accessToken = this.jwt.sign({ sub: user.id, role: user.role, sv: user.sessionVersion });
     const decoded = this.jwt.decode(accessToken) as { exp: number };
     return { accessToken, expiresAt: decoded.exp * 1000, user: toPublicUser(user) };
   }

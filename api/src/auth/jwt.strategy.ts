@@ -9,6 +9,8 @@ interface JwtPayload {
   sub: number;
   role: string;
   iat?: number;
+  /** Session version at sign-in (absent in sessions issued before versions existed). */
+  sv?: number;
 }
 
 /** Sign-in sessions: a short-lived JWT; the user is re-read so deactivation and role changes apply at once. */
@@ -28,10 +30,14 @@ export class JwtStrategy extends PassportStrategy(Strategy, 'jwt') {
   validate(payload: JwtPayload): AuthUser {
     const user = this.users.findById(Number(payload.sub));
     if (!user || !user.active) throw new UnauthorizedException('Your session is no longer valid; sign in again');
-    // A password change or reset ends every session issued before it.
-    if (user.sessionsValidAfter && (payload.iat ?? 0) * 1000 < user.sessionsValidAfter) {
-      throw new UnauthorizedException('Your password was changed; sign in again');
-    }
+    // A password change or reset ends every session issued before it. The version, not a time:
+    // `iat` has whole seconds, so a time cut-off cannot separate sessions within one second.
+    const stale =
+      typeof payload.sv === 'number'
+        ? payload.sv !== user.sessionVersion
+        : user.sessionVersion > 0 ||
+          (user.sessionsValidAfter !== null && (payload.iat ?? 0) * 1000 < user.sessionsValidAfter);
+    if (stale) throw new UnauthorizedException('Your password was changed; sign in again');
     return { id: user.id, email: user.email, name: user.name, role: user.role, via: 'session', scope: 'read-write' };
   }
 }

@@ -19,8 +19,13 @@ export const users = sqliteTable(
     active: integer('active', { mode: 'boolean' }).notNull().default(true),
     failedLogins: integer('failed_logins').notNull().default(0),
     lockedUntil: integer('locked_until'),
-    /** Sign-in sessions issued before this time (ms, whole seconds) are refused: set on password change. */
+    /**
+     * Time of the last password change or reset (ms). Sessions issued before the session version
+     * existed carry no version; those older than this are refused.
+     */
     sessionsValidAfter: integer('sessions_valid_after'),
+    /** Carried in every session token (`sv`); a password change or reset raises it, ending older sessions. */
+    sessionVersion: integer('session_version').notNull().default(0),
     createdAt: integer('created_at').notNull(),
     updatedAt: integer('updated_at').notNull(),
   },
