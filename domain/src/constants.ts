@@ -18,6 +18,8 @@ export const PROTON_MASS = 1.67262192369e-27;
 export const VACUUM_PERMITTIVITY = 8.8541878128e-12;
 /** Vacuum magnetic permeability μ0 [N/A²] (no longer exactly 4π×10⁻⁷ after 2019). */
 export const VACUUM_PERMEABILITY = 1.25663706212e-6;
+/** Atomic mass constant m_u = 1 u [kg] (unified atomic mass unit). */
+export const ATOMIC_MASS_CONSTANT = 1.6605390666e-27;
 /** Boltzmann constant k_B [J/K] (exact). */
 export const BOLTZMANN = 1.380649e-23;
 /** Speed of light in vacuum c [m/s] (exact). */
@@ -25,6 +27,11 @@ export const SPEED_OF_LIGHT = 299792458;
 
 /** Kelvin per electronvolt of temperature: e / k_B. */
 export const KELVIN_PER_EV = ELEMENTARY_CHARGE / BOLTZMANN;
+
+/** Standard atomic weight of argon, 39.948 (IUPAC 2013 abridged value; FROM MEMORY, common practice). */
+export const ARGON_ATOMIC_WEIGHT = 39.948;
+/** Argon ion mass in proton masses as the registry states it: 39.948 u / m_p = 39.6594195574… */
+export const ARGON_MU = (ARGON_ATOMIC_WEIGHT * ATOMIC_MASS_CONSTANT) / PROTON_MASS;
 
 /** Short aliases for formulas. */
 export const CODATA2018 = Object.freeze({

@@ -1,5 +1,6 @@
 // Public surface of the domain package. Each area owns its own index file.
 export * from './errors.js';
+export * from './expression-constants.js';
 export * from './models/types.js';
 export * from './models/index.js';
 export * from './units/index.js';

@@ -7,6 +7,7 @@
  * sqrt/log of negative numbers give NaN (mathjs `predictable` mode), never complex numbers.
  */
 import { ValidationError, type ErrorDetail } from '../errors.js';
+import { EXPRESSION_CONSTANT_NAMES } from '../expression-constants.js';
 import { ALLOWED_FUNCTIONS, BLOCKED_FUNCTIONS, compileExpression, type CompiledExpression } from './security.js';
 
 export interface DerivedDef {
@@ -67,7 +68,12 @@ export function compileDerived(defs: readonly DerivedDef[], symbols: readonly st
       details.push({ path: namePath, message: `"${name}" is already an input or output of the model` });
     } else if (names.includes(name)) {
       details.push({ path: namePath, message: `"${name}" is defined twice` });
-    } else if (RESERVED.has(name) || ALLOWED_FUNCTIONS.has(name) || BLOCKED_FUNCTIONS.has(name)) {
+    } else if (
+      RESERVED.has(name) ||
+      EXPRESSION_CONSTANT_NAMES.has(name) ||
+      ALLOWED_FUNCTIONS.has(name) ||
+      BLOCKED_FUNCTIONS.has(name)
+    ) {
       details.push({ path: namePath, message: `"${name}" is a reserved name` });
     } else {
       nameOk = true;

@@ -128,3 +128,44 @@ describe('compileExpression', () => {
     expect(() => compileExpression('  ', ['Te_eV'], 'fixed.Ti_eV')).toThrow(/non-empty/);
   });
 });
+
+describe('physical constants in expressions (CODATA 2018, domain/src/constants.ts)', () => {
+  it('derived columns read q_e, m_e, m_p, m_u, eps0, mu0, k_B, c0 as their CODATA 2018 values', async () => {
+    const { compileDerived: compile } = await import('./compile.js');
+    const d = compile(
+      [
+        { name: 'ratio', expr: 'm_p / m_e' },
+        { name: 'c_check', expr: '1 / sqrt(eps0 * mu0) / c0' },
+        { name: 'kelvin', expr: 'Te_eV * q_e / k_B' },
+        { name: 'argon', expr: '39.948 * m_u / m_p' },
+      ],
+      ['Te_eV'],
+    );
+    const v = d.evaluatePoint({ Te_eV: 1 });
+    // CODATA 2018: m_p/m_e = 1836.15267343; 1 eV = 11604.51812 K; c = 1/sqrt(ε0 μ0) to the 1e-10 of μ0.
+    expect(v.ratio).toBeCloseTo(1836.15267343, 7);
+    expect(Math.abs(v.c_check! - 1)).toBeLessThan(1e-9);
+    expect(v.kelvin).toBeCloseTo(11604.51812, 4);
+    expect(v.argon).toBeCloseTo(39.6594195574, 9);
+    const chunk = d.evaluateChunk({ Te_eV: Float64Array.of(1, 2) }, 2);
+    expect(chunk.kelvin![1]).toBeCloseTo(2 * 11604.51812, 4);
+  });
+
+  it('refuses a bare e naming both meanings and the names to use; constants cannot be redefined', async () => {
+    const { compileDerived: compile } = await import('./compile.js');
+    let err: unknown;
+    try {
+      compile([{ name: 'x', expr: 'e * Te_eV' }], ['Te_eV']);
+    } catch (e) {
+      err = e;
+    }
+    const msg = (err as { details: { message: string }[] }).details[0]!.message;
+    expect(msg).toMatch(/elementary charge/);
+    expect(msg).toMatch(/Euler/);
+    expect(msg).toMatch(/q_e/);
+    expect(msg).toMatch(/exp\(1\)/);
+    expect(() => compile([{ name: 'q_e', expr: 'Te_eV' }], ['Te_eV'])).toThrow(/reserved/);
+    // A model column of the same name would win over the constant (none exists today).
+    expect(compile([{ name: 'y', expr: 'c0 * 2' }], ['c0']).evaluatePoint({ c0: 3 }).y).toBe(6);
+  });
+});

@@ -11,6 +11,7 @@
  */
 import type { MathNode } from 'mathjs';
 import { ValidationError, type ErrorDetail } from '../errors.js';
+import { ambiguousSymbol, EXPRESSION_CONSTANT_NAMES, EXPRESSION_CONSTANT_VALUES } from '../expression-constants.js';
 import { math } from '../units/math.js';
 
 /** Real functions an expression may call. */
@@ -139,21 +140,15 @@ function check(
     case 'SymbolNode': {
       const name = n.name as string;
       if (allowed.has(name)) used.add(name);
-      else if (ALLOWED_CONSTANTS.has(name)) return;
-      else if (name === 'e')
-        errors.push(
-          problem(
-            path,
-            `symbol "e" is ambiguous: write exp(1) for Euler's number; temperatures are already in eV, so no elementary charge is needed`,
-          ),
-        );
+      else if (ALLOWED_CONSTANTS.has(name) || EXPRESSION_CONSTANT_NAMES.has(name)) return;
+      else if (ambiguousSymbol(name)) errors.push(problem(path, ambiguousSymbol(name)!));
       else if (ALLOWED_FUNCTIONS.has(name) || BLOCKED_FUNCTIONS.has(name))
         errors.push(problem(path, `"${name}" is a function, not a value`));
       else
         errors.push(
           problem(
             path,
-            `unknown symbol "${name}"; allowed symbols: ${[...allowed].join(', ')}${allowed.size ? ', ' : ''}pi`,
+            `unknown symbol "${name}"; allowed symbols: ${[...allowed].join(', ')}${allowed.size ? ', ' : ''}pi and the physical constants ${[...EXPRESSION_CONSTANT_NAMES].join(', ')}`,
           ),
         );
       return;
@@ -253,7 +248,16 @@ export function compileExpression(expr: string, allowedSymbols: Iterable<string>
   if (errors.length) {
     throw new ValidationError(`Invalid expression at ${path}: ${errors.map((e) => e.message).join('; ')}`, errors);
   }
-  const code = node.compile();
+  // Physical constants (q_e, m_e, …) not shadowed by a column become literal numbers, so the
+  // evaluation scope only ever holds columns.
+  const withConstants = node.transform((nd) => {
+    const name = (nd as MathNode & { name?: string }).name;
+    if (nd.type === 'SymbolNode' && name && !allowed.has(name) && EXPRESSION_CONSTANT_NAMES.has(name)) {
+      return new math.ConstantNode(EXPRESSION_CONSTANT_VALUES[name]!);
+    }
+    return nd;
+  });
+  const code = withConstants.compile();
   const symbols = Object.freeze([...used]);
   // A Map scope is used as is (no per-call wrapping); a plain object is wrapped by mathjs.
   const raw = (scope: ExpressionScope | Map<string, number>): unknown => code.evaluate(scope as Record<string, number>);

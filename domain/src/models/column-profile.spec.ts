@@ -170,7 +170,12 @@ describe('column-profile radial profiles', () => {
 
 describe('column-profile flags and chunks', () => {
   it('flags the ordering in the core and β0 ≥ 1', () => {
-    expect(columnProfile.evaluate(defaults).flags).toEqual([]);
+    // The default argon column (B0 = 0.2 T, a = 5 cm) breaks the sound-gyroradius ordering at the window
+    // edge: ρ_s/L_n = ρ_s·4/a ≈ 0.57 at r = 2a (issue 12); in 2 T with a = 10 cm it holds (0.03).
+    expect(columnProfile.evaluate(defaults).flags).toEqual(['rho_s_over_Ln', 'peak_at_window_edge']);
+    const ok = columnProfile.evaluate({ ...defaults, B0_T: 2, a_m: 0.1 });
+    expect(ok.flags).toEqual(['peak_at_window_edge']);
+    expect(ok.outputs.valid).toBe(true);
     const r = columnProfile.evaluate({ ...defaults, Ti0_eV: 5, B0_T: 0.05 });
     expect(r.outputs.max_rho_i_over_Ln as number).toBeGreaterThanOrEqual(0.1);
     expect(r.flags).toContain('rho_i_over_Ln');

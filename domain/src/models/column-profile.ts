@@ -17,9 +17,16 @@
  *
  * Peaks and ordering maxima are taken over the core r ≤ 2a (beyond it n < 2 % of n0 and the
  * isothermal drifts grow without bound with r, so a maximum over the whole grid would only
- * measure rmax).
+ * measure rmax). Version 1.1 evaluates r = 2a itself (it rarely falls on a node) and flags
+ * `peak_at_window_edge` when a peak lies there, i.e. the drift still grows at the edge and the
+ * "peak" measures the window; the drifts at r = a are reported as well-defined alternatives.
+ *
+ * Radial resolution (version 1.1): the integrals are repeated on a grid of ⌈nr/2⌉ nodes over the
+ * same interval; |I_nr − I_nr/2|/|I_nr| (largest of flux and W⊥) estimates the error from above
+ * (for the h⁴ rule the error of I_nr is about 1/15 of it) and flags `under_resolved` past 1e-4.
  */
 import { ELEMENTARY_CHARGE, PROTON_MASS, VACUUM_PERMEABILITY, VACUUM_PERMITTIVITY } from '../constants.js';
+import { fieldDepression } from './collisions.js';
 import { evaluateViaChunk, inputColumns, invalidatingMask, outputColumns, thresholdValue } from './common.js';
 import type {
   ChunkOutput,
@@ -119,7 +126,7 @@ const inputs: InputSpec[] = [
     default: 39.66,
     min: 1,
     max: 500,
-    meaning: 'Ion mass in proton masses m_i/m_p (argon 39.66, i.e. 39.948 u; deuterium 2).',
+    meaning: 'Ion mass in proton masses m_i/m_p (argon 39.948 u = 39.6594 m_p; deuterium 2).',
   },
   { name: 'Z', symbol: 'Z', unit: '1', default: 1, min: 1, max: 100, meaning: 'Ion charge state; n_i = n_e/Z.' },
   {
@@ -149,21 +156,21 @@ const outputs: OutputSpec[] = [
     symbol: 'v_Di,pk',
     unit: 'm/s',
     kind: 'number',
-    meaning: 'Ion diamagnetic drift of largest magnitude over r ≤ 2a (signed azimuthal).',
+    meaning: 'Ion diamagnetic drift of largest magnitude over r ≤ 2a, r = 2a included (signed azimuthal).',
   },
   {
     name: 'vDe_peak_ms',
     symbol: 'v_De,pk',
     unit: 'm/s',
     kind: 'number',
-    meaning: 'Electron diamagnetic drift of largest magnitude over r ≤ 2a (signed azimuthal).',
+    meaning: 'Electron diamagnetic drift of largest magnitude over r ≤ 2a, r = 2a included (signed azimuthal).',
   },
   {
     name: 'vE_peak_ms',
     symbol: 'v_E,pk',
     unit: 'm/s',
     kind: 'number',
-    meaning: 'E×B drift of largest magnitude over r ≤ 2a (signed azimuthal).',
+    meaning: 'E×B drift of largest magnitude over r ≤ 2a, r = 2a included (signed azimuthal).',
   },
   {
     name: 'r_peak_m',
@@ -191,7 +198,7 @@ const outputs: OutputSpec[] = [
     symbol: 'ΔB/B_0',
     unit: '1',
     kind: 'number',
-    meaning: 'Field change on the axis, B(0)/B0 − 1 = sqrt(1−β0) − 1 (−1 when β0 ≥ 1).',
+    meaning: 'Field change on the axis, B(0)/B0 − 1 = sqrt(1−β0) − 1 = −β0/(1 + sqrt(1−β0)) (−1 when β0 ≥ 1).',
   },
   {
     name: 'flux_Wb',
@@ -219,7 +226,7 @@ const outputs: OutputSpec[] = [
     symbol: 'max ρ_s/L_n',
     unit: '1',
     kind: 'number',
-    meaning: 'Largest sound gyroradius over local gradient length, r ≤ 2a.',
+    meaning: 'Largest sound gyroradius ρ_s = c_s0/ω_ci (c_s0 = sqrt(Z e T_e/m_i)) over local gradient length, r ≤ 2a.',
   },
   {
     name: 'max_lambdaD_over_Ln',
@@ -235,7 +242,30 @@ const outputs: OutputSpec[] = [
     kind: 'number',
     meaning: 'Largest ion diamagnetic drift over ion thermal speed, r ≤ 2a.',
   },
-  { name: 'valid', symbol: 'valid', unit: '1', kind: 'boolean', meaning: 'True when no validity flag is raised.' },
+  {
+    name: 'vDi_a_ms',
+    symbol: 'v_Di(a)',
+    unit: 'm/s',
+    kind: 'number',
+    meaning: 'Ion diamagnetic drift at r = a (signed azimuthal); well defined whatever the window.',
+  },
+  {
+    name: 'vDe_a_ms',
+    symbol: 'v_De(a)',
+    unit: 'm/s',
+    kind: 'number',
+    meaning: 'Electron diamagnetic drift at r = a (signed azimuthal).',
+  },
+  { name: 'vE_a_ms', symbol: 'v_E(a)', unit: 'm/s', kind: 'number', meaning: 'E×B drift at r = a (signed azimuthal).' },
+  {
+    name: 'integral_rel_error',
+    symbol: 'ε_int',
+    unit: '1',
+    kind: 'number',
+    meaning:
+      'Estimated relative error of flux and W⊥: |I(N_r) − I(⌈N_r/2⌉)|/|I(N_r)|, the larger of the two (an upper estimate).',
+  },
+  { name: 'valid', symbol: 'valid', unit: '1', kind: 'boolean', meaning: 'True when no invalidating flag is raised.' },
 ];
 
 const flags: FlagSpec[] = [
@@ -263,6 +293,27 @@ const flags: FlagSpec[] = [
     meaning:
       'Axis beta reaches the threshold (β0 ≥ 1: the field cannot confine the column; B is set to 0 where B² < 0).',
   },
+  {
+    code: 'rho_s_over_Ln',
+    bit: 3,
+    invalidates: true,
+    meaning:
+      'Somewhere in r ≤ 2a the ion sound gyroradius ρ_s is not small against the local gradient length (ρ_s/L_n ≥ threshold).',
+  },
+  {
+    code: 'under_resolved',
+    bit: 4,
+    invalidates: true,
+    meaning:
+      'The radial integrals are not converged: halving the grid changes flux or W⊥ by more than the threshold (relative). Raise N_r.',
+  },
+  {
+    code: 'peak_at_window_edge',
+    bit: 5,
+    invalidates: false,
+    meaning:
+      'A drift or current "peak" lies at the window edge r = 2a: the quantity still grows there, so the peak measures the window, not the column (see the values at r = a).',
+  },
 ];
 
 const thresholds: ThresholdSpec[] = [
@@ -277,6 +328,16 @@ const thresholds: ThresholdSpec[] = [
     meaning: 'Flag lambdaD_over_Ln when max λ_D/L_n ≥ this (0.1 is common practice).',
   },
   { name: 'beta_max', default: 1, meaning: 'Flag beta when β0 ≥ this.' },
+  {
+    name: 'rho_s_over_Ln_max',
+    default: 0.1,
+    meaning: 'Flag rho_s_over_Ln when max ρ_s/L_n ≥ this (0.1 is common practice).',
+  },
+  {
+    name: 'integral_rel_error_max',
+    default: 1e-4,
+    meaning: 'Flag under_resolved when the estimated relative error of the integrals exceeds this.',
+  },
 ];
 
 const INPUT_NAMES = inputs.map((i) => i.name);
@@ -301,8 +362,12 @@ const S = {
   rhoS: 10,
   lD: 11,
   vDiVti: 12,
-  mask: 13,
-  count: 14,
+  vDiA: 13,
+  vDeA: 14,
+  vEA: 15,
+  intErr: 16,
+  mask: 17,
+  count: 18,
 } as const;
 
 interface ProfileArrays {
@@ -319,6 +384,137 @@ interface ProfileArrays {
   jTheta_Am2: number[];
   B_T: number[];
 }
+
+/** Parameters of the point being integrated, set once per point (no allocation per point). */
+const P = {
+  te0: 0,
+  ti0: 0,
+  pe0: 0,
+  pi0: 0,
+  b02: 0,
+  b0: 0,
+  invA2: 0,
+  ge: 1,
+  gi: 1,
+  phi0: 0,
+  z: 1,
+  miOverE: 0,
+  sqrtMiOverE: 0,
+  ld0: 0,
+};
+
+/** Local values at one radius (written by `local`). */
+const L = {
+  p: 0,
+  b: 0,
+  dB: 0,
+  dpdr: 0,
+  teR: 0,
+  tiR: 0,
+  er: 0,
+  vde: 0,
+  vdi: 0,
+  ve: 0,
+  j: 0,
+  rhoI: 0,
+  rhoS: 0,
+  ld: 0,
+  xGe: 0,
+};
+
+/** Pressure and field at radius r (what the integrals need); returns exp(−r²/a²). */
+function pressureAndField(r: number): number {
+  const s = r * r * P.invA2;
+  const eS = Math.exp(-s);
+  // exp(−γ s); γ = 1 reuses exp(−s).
+  const xGe = P.ge === 1 ? eS : Math.exp(-P.ge * s);
+  const xGi = P.gi === 1 ? eS : Math.exp(-P.gi * s);
+  const pe = P.pe0 * xGe;
+  const pi = P.pi0 * xGi;
+  const p = pe + pi;
+  const b2 = P.b02 - 2 * MU0 * p;
+  const b = b2 > 0 ? Math.sqrt(b2) : 0;
+  L.p = p;
+  L.b = b;
+  // B − B0 = −2μ0 p/(B + B0): no cancellation at low β.
+  L.dB = b2 > 0 ? (-2 * MU0 * p) / (b + P.b0) : -P.b0;
+  const invLn = 2 * r * P.invA2;
+  L.dpdr = -invLn * (P.ge * pe + P.gi * pi);
+  // T(r) = T0 exp((1−γ)s) = T0 exp(−γs)/exp(−s); no underflow for s ≤ 4 (core) and γ ≤ 10.
+  L.teR = (P.te0 * xGe) / eS;
+  L.tiR = (P.ti0 * xGi) / eS;
+  L.xGe = xGe;
+  return eS;
+}
+
+/** Drifts, current and ordering parameters at r after `pressureAndField(r)` returned eS. */
+function drifts(r: number, eS: number): void {
+  const invLn = 2 * r * P.invA2;
+  const invB = 1 / L.b;
+  const invZ = 1 / P.z;
+  L.vde = P.ge * L.teR * invLn * invB;
+  L.vdi = -P.gi * L.tiR * invLn * invB * invZ;
+  L.er = P.phi0 * invLn * eS;
+  L.ve = -L.er * invB;
+  L.j = L.dpdr * invB;
+  // ρ_i = sqrt(T_i m_i/e)/(Z B); drift-wave ρ_s = c_s0/ω_ci = sqrt(Z T_e m_i/e)/(Z B).
+  L.rhoI = P.sqrtMiOverE * Math.sqrt(L.tiR) * invZ * invB * invLn;
+  L.rhoS = Math.sqrt(P.z * L.teR * P.miOverE) * invZ * invB * invLn;
+  // λ_D ∝ sqrt(T/n) = exp((2−γ_e)s/2) = sqrt(exp(−γ_e s))/exp(−s).
+  L.ld = ((P.ld0 * Math.sqrt(L.xGe)) / eS) * invLn;
+}
+
+/**
+ * End-corrected trapezoid sums of g = 2πr(B − B0) and g = 2πr p on a uniform grid, fed node by
+ * node after `pressureAndField(r)`; `finish` adds the Euler–Maclaurin correction −h²/12·[g′]₀^R.
+ */
+class Trapezoid {
+  private sumF = 0;
+  private sumW = 0;
+  private gFPrev = 0;
+  private gWPrev = 0;
+  private dgF0 = 0;
+  private dgW0 = 0;
+  flux = 0;
+  w = 0;
+  reset(): void {
+    this.sumF = this.sumW = this.gFPrev = this.gWPrev = this.dgF0 = this.dgW0 = 0;
+  }
+  /** Node at r (the first node is r = 0). */
+  add(r: number, first: boolean): void {
+    const gF = 2 * Math.PI * r * L.dB;
+    const gW = 2 * Math.PI * r * L.p;
+    if (first) {
+      this.dgF0 = 2 * Math.PI * L.dB;
+      this.dgW0 = 2 * Math.PI * L.p;
+    } else {
+      this.sumF += 0.5 * (gF + this.gFPrev);
+      this.sumW += 0.5 * (gW + this.gWPrev);
+    }
+    this.gFPrev = gF;
+    this.gWPrev = gW;
+  }
+  /** After the last node (at r, still in L): the corrected integrals with step h. */
+  finish(r: number, h: number): void {
+    // g′ = 2π(f + r f′); dB/dr = −μ0 (dp/dr)/B from B dB/dr = −μ0 dp/dr.
+    const dgWEnd = 2 * Math.PI * (L.p + r * L.dpdr);
+    const dgFEnd = L.b > 0 ? 2 * Math.PI * (L.dB + (r * -MU0 * L.dpdr) / L.b) : NaN;
+    const corr = (h * h) / 12;
+    this.flux = h * this.sumF - (Number.isFinite(dgFEnd) ? corr * (dgFEnd - this.dgF0) : 0);
+    this.w = h * this.sumW - corr * (dgWEnd - this.dgW0);
+  }
+}
+const fine = new Trapezoid();
+const coarse = new Trapezoid();
+
+interface Limits {
+  rhoI: number;
+  ld: number;
+  beta: number;
+  rhoS: number;
+  intErr: number;
+}
+const NO_LIMITS: Limits = { rhoI: Infinity, ld: Infinity, beta: Infinity, rhoS: Infinity, intErr: Infinity };
 
 /**
  * One point: integrates over the grid and writes the scalars into `res`. No allocation unless
@@ -337,26 +533,30 @@ function kernel(
   z: number,
   nrIn: number,
   rmaxA: number,
-  rhoMax: number,
-  ldMax: number,
-  betaMax: number,
+  lim: Limits,
   res: Float64Array,
   prof: ProfileArrays | null,
 ): void {
   const nr = Math.max(2, Math.round(nrIn));
   const rmax = rmaxA * a;
   const h = rmax / (nr - 1);
-  const invA2 = 1 / (a * a);
-  const pe0 = n0 * E * te0;
-  const pi0 = (n0 / z) * E * ti0;
-  const b02 = b0 * b0;
-  const twoMu0 = 2 * MU0;
-  const miOverE = MP_OVER_E * mu; // m_i/e
-  const sqrtMiOverE = Math.sqrt(miOverE);
-  const invZ = 1 / z;
-  const ld0 = Math.sqrt((EPS0_OVER_E * te0) / n0);
-  // Last node of the core r ≤ 2a (tolerance so that 2a on the grid counts).
-  const iCore = Math.min(nr - 1, Math.floor((2 * a) / h + 1e-9));
+  P.te0 = te0;
+  P.ti0 = ti0;
+  P.pe0 = n0 * E * te0;
+  P.pi0 = (n0 / z) * E * ti0;
+  P.b0 = b0;
+  P.b02 = b0 * b0;
+  P.invA2 = 1 / (a * a);
+  P.ge = ge;
+  P.gi = gi;
+  P.phi0 = phi0;
+  P.z = z;
+  P.miOverE = MP_OVER_E * mu; // m_i/e
+  P.sqrtMiOverE = Math.sqrt(P.miOverE);
+  P.ld0 = Math.sqrt((EPS0_OVER_E * te0) / n0);
+  const rEdge = 2 * a;
+  // Nodes strictly inside the window r < 2a (tolerance: a node at 2a is the edge, evaluated below).
+  const iCore = Math.min(nr - 1, Math.ceil(rEdge / h - 1e-9) - 1);
 
   let vDiPk = 0,
     vDePk = 0,
@@ -367,122 +567,115 @@ function kernel(
     rhoSMax = 0,
     ldMaxV = 0,
     vDiVtiMax = 0;
-  let sumFlux = 0,
-    sumW = 0;
-  let gFluxPrev = 0,
-    gWPrev = 0;
-  let dgFlux0 = 0,
-    dgW0 = 0,
-    dgFluxEnd = 0,
-    dgWEnd = 0;
 
+  // Coarse grid for the error estimate: ⌈nr/2⌉ nodes. For odd nr they are the even fine nodes
+  // (accumulated in the same pass); for even nr a second, half-length pass follows.
+  const mCoarse = Math.max(2, Math.ceil(nr / 2));
+  const coarseInline = nr % 2 === 1;
+  fine.reset();
+  coarse.reset();
   for (let i = 0; i < nr; i++) {
     const r = i * h;
-    const s = r * r * invA2;
-    const eS = Math.exp(-s);
-    // exp(−γ s), shared with the local temperatures below; γ = 1 reuses exp(−s).
-    const xGe = ge === 1 ? eS : Math.exp(-ge * s);
-    const xGi = gi === 1 ? eS : Math.exp(-gi * s);
-    const pe = pe0 * xGe;
-    const pi = pi0 * xGi;
-    const p = pe + pi;
-    const b2 = b02 - twoMu0 * p;
-    const b = b2 > 0 ? Math.sqrt(b2) : 0;
-    const dB = b2 > 0 ? (-twoMu0 * p) / (b + b0) : -b0;
-    const invLn = 2 * r * invA2;
-    const dpdr = -invLn * (ge * pe + gi * pi);
-
-    // Integrands g = 2πr f; trapezoid sums with weight 1/2 at both ends (applied after the loop).
-    const gFlux = 2 * Math.PI * r * dB;
-    const gW = 2 * Math.PI * r * p;
-    if (i === 0) {
-      dgFlux0 = 2 * Math.PI * dB;
-      dgW0 = 2 * Math.PI * p;
-    } else {
-      sumFlux += 0.5 * (gFlux + gFluxPrev);
-      sumW += 0.5 * (gW + gWPrev);
-    }
-    gFluxPrev = gFlux;
-    gWPrev = gW;
+    const eS = pressureAndField(r);
+    fine.add(r, i === 0);
+    if (coarseInline && i % 2 === 0) coarse.add(r, i === 0);
     if (i === nr - 1) {
-      // g′ = 2π(f + r f′); dB/dr = −μ0 (dp/dr)/B from B dB/dr = −μ0 dp/dr.
-      dgWEnd = 2 * Math.PI * (p + r * dpdr);
-      dgFluxEnd = b > 0 ? 2 * Math.PI * (dB + (r * -MU0 * dpdr) / b) : NaN;
+      fine.finish(r, h);
+      if (coarseInline) coarse.finish(r, 2 * h);
     }
-
-    if (i <= iCore || prof) {
-      const invB = 1 / b;
-      // T(r) = T0 exp((1−γ)s) = T0 exp(−γs)/exp(−s); no underflow for s ≤ 4 (core) and γ ≤ 10,
-      // and the profile arrays beyond the core tolerate it.
-      const teR = (te0 * xGe) / eS;
-      const tiR = (ti0 * xGi) / eS;
-      const vde = ge * teR * invLn * invB;
-      const vdi = -gi * tiR * invLn * invB * invZ;
-      const er = phi0 * invLn * eS;
-      const ve = -er * invB;
-      const j = dpdr * invB;
-      if (prof) {
-        prof.r_m.push(r);
-        prof.n_m3.push(n0 * eS);
-        prof.p_Pa.push(p);
-        prof.Te_eV.push(teR);
-        prof.Ti_eV.push(tiR);
-        prof.phi_V.push(phi0 * eS);
-        prof.Er_Vm.push(er);
-        prof.vDe_ms.push(vde);
-        prof.vDi_ms.push(vdi);
-        prof.vE_ms.push(ve);
-        prof.jTheta_Am2.push(j);
-        prof.B_T.push(b);
-      }
-      if (i <= iCore) {
-        if (Math.abs(vdi) > Math.abs(vDiPk)) vDiPk = vdi;
-        if (Math.abs(vde) > Math.abs(vDePk)) vDePk = vde;
-        if (Math.abs(ve) > Math.abs(vEPk)) vEPk = ve;
-        if (Math.abs(j) > Math.abs(jPk)) {
-          jPk = j;
-          rPk = r;
-        }
-        // ρ_i = sqrt(T_i m_i/e)/(Z B); ρ_s = c_s m_i/(Z e B) with c_s² = (Z γ_e T_e + γ_i T_i) e/m_i.
-        const rhoI = sqrtMiOverE * Math.sqrt(tiR) * invZ * invB * invLn;
-        const rhoS = Math.sqrt((z * ge * teR + gi * tiR) * miOverE) * invZ * invB * invLn;
-        const ld = ((ld0 * Math.sqrt(xGe)) / eS) * invLn; // λ_D ∝ sqrt(T/n) = exp((2−γ_e)s/2)
-        const vv = gi * rhoI;
-        // `!(x <= max)` keeps NaN visible in the maximum.
-        if (!(rhoI <= rhoIMax)) rhoIMax = rhoI;
-        if (!(rhoS <= rhoSMax)) rhoSMax = rhoS;
-        if (!(ld <= ldMaxV)) ldMaxV = ld;
-        if (!(vv <= vDiVtiMax)) vDiVtiMax = vv;
-      }
+    if (i > iCore && !prof) continue;
+    drifts(r, eS);
+    if (prof) {
+      prof.r_m.push(r);
+      prof.n_m3.push(n0 * eS);
+      prof.p_Pa.push(L.p);
+      prof.Te_eV.push(L.teR);
+      prof.Ti_eV.push(L.tiR);
+      prof.phi_V.push(phi0 * eS);
+      prof.Er_Vm.push(L.er);
+      prof.vDe_ms.push(L.vde);
+      prof.vDi_ms.push(L.vdi);
+      prof.vE_ms.push(L.ve);
+      prof.jTheta_Am2.push(L.j);
+      prof.B_T.push(L.b);
+    }
+    if (i > iCore) continue;
+    if (Math.abs(L.vdi) > Math.abs(vDiPk)) vDiPk = L.vdi;
+    if (Math.abs(L.vde) > Math.abs(vDePk)) vDePk = L.vde;
+    if (Math.abs(L.ve) > Math.abs(vEPk)) vEPk = L.ve;
+    if (Math.abs(L.j) > Math.abs(jPk)) {
+      jPk = L.j;
+      rPk = r;
+    }
+    // `!(x <= max)` keeps NaN visible in the maximum.
+    if (!(L.rhoI <= rhoIMax)) rhoIMax = L.rhoI;
+    if (!(L.rhoS <= rhoSMax)) rhoSMax = L.rhoS;
+    if (!(L.ld <= ldMaxV)) ldMaxV = L.ld;
+    const vv = gi * L.rhoI;
+    if (!(vv <= vDiVtiMax)) vDiVtiMax = vv;
+  }
+  if (!coarseInline) {
+    const hc = rmax / (mCoarse - 1);
+    for (let i = 0; i < mCoarse; i++) {
+      const r = i * hc;
+      pressureAndField(r);
+      coarse.add(r, i === 0);
+      if (i === mCoarse - 1) coarse.finish(r, hc);
     }
   }
-  // Trapezoid: the loop summed full interval averages; add the Euler–Maclaurin end correction.
-  const corr = (h * h) / 12;
-  const flux = h * sumFlux - (Number.isFinite(dgFluxEnd) ? corr * (dgFluxEnd - dgFlux0) : 0);
-  const wperp = h * sumW - corr * (dgWEnd - dgW0);
 
-  const beta0 = (twoMu0 * (pe0 + pi0)) / b02;
+  // The window edge r = 2a itself. A peak that is largest there (strictly) sits at the edge.
+  let edge = false;
+  drifts(rEdge, pressureAndField(rEdge));
+  if (Math.abs(L.vdi) > Math.abs(vDiPk)) ((vDiPk = L.vdi), (edge = true));
+  if (Math.abs(L.vde) > Math.abs(vDePk)) ((vDePk = L.vde), (edge = true));
+  if (Math.abs(L.ve) > Math.abs(vEPk)) ((vEPk = L.ve), (edge = true));
+  if (Math.abs(L.j) > Math.abs(jPk)) ((jPk = L.j), (rPk = rEdge), (edge = true));
+  if (!(L.rhoI <= rhoIMax)) rhoIMax = L.rhoI;
+  if (!(L.rhoS <= rhoSMax)) rhoSMax = L.rhoS;
+  if (!(L.ld <= ldMaxV)) ldMaxV = L.ld;
+  if (!(gi * L.rhoI <= vDiVtiMax)) vDiVtiMax = gi * L.rhoI;
+
+  // Drifts at r = a.
+  drifts(a, pressureAndField(a));
+  res[S.vDiA] = L.vdi;
+  res[S.vDeA] = L.vde;
+  res[S.vEA] = L.ve;
+
+  const flux = fine.flux;
+  const wperp = fine.w;
+  const errW = Math.abs(wperp - coarse.w) / Math.abs(wperp);
+  const errF = Math.abs(flux - coarse.flux) / Math.abs(flux);
+  // The flux is undefined (NaN) where B² < 0 at the edge, which the beta flag reports.
+  const intErr = Number.isFinite(errF) && errF > errW ? errF : errW;
+
+  const beta0 = (2 * MU0 * (P.pe0 + P.pi0)) / P.b02;
   res[S.vDi] = vDiPk;
   res[S.vDe] = vDePk;
   res[S.vE] = vEPk;
   res[S.rPeak] = rPk;
   res[S.jPeak] = jPk;
   res[S.beta0] = beta0;
-  res[S.dBaxis] = beta0 < 1 ? Math.sqrt(1 - beta0) - 1 : -1;
+  res[S.dBaxis] = fieldDepression(beta0);
   res[S.flux] = flux;
   res[S.wperp] = wperp;
   res[S.rhoI] = rhoIMax;
   res[S.rhoS] = rhoSMax;
   res[S.lD] = ldMaxV;
   res[S.vDiVti] = vDiVtiMax;
+  res[S.intErr] = intErr;
   let mask = 0;
-  if (!(rhoIMax < rhoMax)) mask |= 1;
-  if (!(ldMaxV < ldMax)) mask |= 2;
-  if (!(beta0 < betaMax)) mask |= 4;
+  if (!(rhoIMax < lim.rhoI)) mask |= 1;
+  if (!(ldMaxV < lim.ld)) mask |= 2;
+  if (!(beta0 < lim.beta)) mask |= 4;
+  if (!(rhoSMax < lim.rhoS)) mask |= 8;
+  if (!(intErr <= lim.intErr)) mask |= 16;
+  if (edge) mask |= 32;
   res[S.mask] = mask;
 }
 
 const scratch = new Float64Array(S.count);
+const limits: Limits = { ...NO_LIMITS };
 
 function evaluateChunk(inp: Record<string, Float64Array>, n: number, out: ChunkOutput, th?: Thresholds): void {
   const [n0c, tec, tic, b0c, ac, phic, gec, gic, muc, zc, nrc, rmc] = inputColumns(
@@ -505,9 +698,11 @@ function evaluateChunk(inp: Record<string, Float64Array>, n: number, out: ChunkO
   ];
   const cols = outputColumns(outputs, out, n);
   const valid = cols[cols.length - 1]!;
-  const rhoMax = thresholdValue(thresholds, th, 'rho_i_over_Ln_max');
-  const ldMax = thresholdValue(thresholds, th, 'lambdaD_over_Ln_max');
-  const betaMax = thresholdValue(thresholds, th, 'beta_max');
+  limits.rhoI = thresholdValue(thresholds, th, 'rho_i_over_Ln_max');
+  limits.ld = thresholdValue(thresholds, th, 'lambdaD_over_Ln_max');
+  limits.beta = thresholdValue(thresholds, th, 'beta_max');
+  limits.rhoS = thresholdValue(thresholds, th, 'rho_s_over_Ln_max');
+  limits.intErr = thresholdValue(thresholds, th, 'integral_rel_error_max');
   const res = scratch;
   for (let k = 0; k < n; k++) {
     kernel(
@@ -523,9 +718,7 @@ function evaluateChunk(inp: Record<string, Float64Array>, n: number, out: ChunkO
       zc[k]!,
       nrc[k]!,
       rmc[k]!,
-      rhoMax,
-      ldMax,
-      betaMax,
+      limits,
       res,
       null,
     );
@@ -565,9 +758,7 @@ function profile(v: Record<string, number>): Profile {
     d('Z'),
     d('nr'),
     d('rmax_over_a'),
-    Infinity,
-    Infinity,
-    Infinity,
+    NO_LIMITS,
     new Float64Array(S.count),
     prof,
   );
@@ -576,7 +767,7 @@ function profile(v: Record<string, number>): Profile {
 
 export const columnProfile: ModelDefinition = {
   id: 'column-profile',
-  version: '1.0.0',
+  version: '1.1.0',
   title: 'Gaussian column profile',
   summary:
     'Radial profiles of a Gaussian plasma column: peak drifts and diamagnetic current, axis beta and field depression, diamagnetic flux and stored energy, ordering maxima in the core.',

@@ -6,6 +6,13 @@
  * which tends to the Boltzmann relation exp(φ/T0) as γ → 1. γ = 1 is evaluated with the
  * exponential exactly. Near γ = 1 the power is computed as exp(log1p(a)/(γ−1)) so that no digits
  * are lost when (γ−1)/γ·φ/T0 is tiny (the naive pow form loses ~1e-9 relative at |γ−1| = 1e-7).
+ *
+ * The departure from Boltzmann, δ = (n/n0)/exp(φ/T0) − 1, is O(γ−1) while both ratios are O(1):
+ * dividing them loses ε/|γ−1| relative (1e-7 at γ − 1 = 1e-9). Version 1.1 writes it as
+ *   δ = expm1( (log1p(a) − a)/(γ−1) − a ),  a = ((γ−1)/γ) φ/T0,
+ * (exact algebra: log1p(a)/(γ−1) − φ/T0 = (log1p(a) − a)/(γ−1) + a/(γ−1) − φ/T0 and
+ * a/(γ−1) − φ/T0 = −a), with log1p(a) − a from a cancellation-free series for small |a|.
+ * A density ratio that overflows a double is flagged (`overflow`), never reported valid.
  */
 import { ELECTRON_MASS, ELEMENTARY_CHARGE, PROTON_MASS, VACUUM_PERMITTIVITY } from '../constants.js';
 import { evaluateViaChunk, inputColumns, invalidatingMask, outputColumns } from './common.js';
@@ -107,7 +114,8 @@ const outputs: OutputSpec[] = [
     symbol: 'δ',
     unit: '1',
     kind: 'number',
-    meaning: 'Relative departure from the Boltzmann relation, (n/n0)/exp(φ/T0) − 1.',
+    meaning:
+      'Relative departure from the Boltzmann relation, (n/n0)/exp(φ/T0) − 1, computed without cancellation near γ = 1.',
   },
   {
     name: 'Epar_Vm',
@@ -162,6 +170,13 @@ const flags: FlagSpec[] = [
     meaning:
       'The potential lies beyond the polytropic cutoff: for γ > 1 no electrons reach it (n = 0); for γ < 1 the relation has no real solution.',
   },
+  {
+    code: 'overflow',
+    bit: 1,
+    invalidates: true,
+    meaning:
+      'The density ratio n/n0 (or n) exceeds the largest double (φ/T0 ≳ 709 for γ = 1): the relation gives no usable density there.',
+  },
 ];
 
 const thresholds: ThresholdSpec[] = [];
@@ -172,6 +187,25 @@ const EPS0_OVER_E = VACUUM_PERMITTIVITY / ELEMENTARY_CHARGE;
 /** ln(m_p/(2π m_e)); ln(m_i/(2π m_e)) = this + ln(μ). */
 const LN_MP_OVER_2PI_ME = Math.log(PROTON_MASS / (2 * Math.PI * ELECTRON_MASS));
 const EXP_MINUS_HALF = Math.exp(-0.5);
+
+/**
+ * log1p(a) − a without cancellation. For |a| < 0.5 through u = a/(2 + a), log1p(a) = 2 atanh(u):
+ * log1p(a) − a = 2Σ_{k≥1} u^(2k+1)/(2k+1) − 2u²/(1 − u) (both terms exact in sign, |u| < 1/3).
+ */
+export function log1pMinusX(a: number): number {
+  if (!(Math.abs(a) < 0.5)) return Math.log1p(a) - a;
+  const u = a / (2 + a);
+  const u2 = u * u;
+  let term = u * u2;
+  let sum = 0;
+  for (let k = 3; k < 80; k += 2) {
+    const t = term / k;
+    sum += t;
+    if (Math.abs(t) <= 1e-17 * Math.abs(sum)) break;
+    term *= u2;
+  }
+  return 2 * sum - (2 * u2) / (1 - u);
+}
 
 function evaluateChunk(inp: Record<string, Float64Array>, n: number, out: ChunkOutput): void {
   const [Tc, n0c, phic, gc, Lc, muc] = inputColumns(INPUT_NAMES, inp, n) as [
@@ -218,6 +252,7 @@ function evaluateChunk(inp: Record<string, Float64Array>, n: number, out: ChunkO
     if (g === 1) {
       nr = bz;
       tr = 1;
+      dev[k] = 0;
       sheath[k] = EXP_MINUS_HALF;
       cutoff[k] = NaN;
       floating[k] = -0.5 * t0 * (1 + LN_MP_OVER_2PI_ME + Math.log(mu));
@@ -228,23 +263,27 @@ function evaluateChunk(inp: Record<string, Float64Array>, n: number, out: ChunkO
       if (a > -1) {
         nr = Math.exp(Math.log1p(a) / gm1);
         tr = 1 + a;
+        dev[k] = Math.expm1(log1pMinusX(a) / gm1 - a);
       } else {
         mask |= 1;
         nr = g > 1 ? 0 : NaN;
         tr = g > 1 ? 0 : NaN;
+        dev[k] = nr / bz - 1;
       }
       sheath[k] = Math.exp(-Math.log1p(gm1 / 2) / gm1);
       cutoff[k] = g > 1 ? (-g * t0) / gm1 : NaN;
       floating[k] = NaN;
     }
+    const nabs = n0 * nr;
+    if (nabs === Infinity) mask |= 2;
     nRel[k] = nr;
-    nAbs[k] = n0 * nr;
+    nAbs[k] = nabs;
     tRel[k] = tr;
     pRel[k] = nr * tr;
     boltz[k] = bz;
-    dev[k] = nr / bz - 1;
     epar[k] = (g * t0 * tr) / lpar;
-    lD[k] = nr > 0 ? Math.sqrt((EPS0_OVER_E * t0 * tr) / (n0 * nr)) : NaN;
+    // An overflowed density has no Debye length (NaN), never 0.
+    lD[k] = nr > 0 && nabs < Infinity ? Math.sqrt((EPS0_OVER_E * t0 * tr) / nabs) : NaN;
     presheath[k] = (-g * t0) / (g + 1);
     fl[k] = mask;
     valid[k] = mask & INVALID_MASK ? 0 : 1;
@@ -253,7 +292,7 @@ function evaluateChunk(inp: Record<string, Float64Array>, n: number, out: ChunkO
 
 export const parallelBalance: ModelDefinition = {
   id: 'parallel-balance',
-  version: '1.0.0',
+  version: '1.1.0',
   title: 'Parallel force balance',
   summary:
     'Electron density, temperature and pressure along B from the Boltzmann relation and its polytropic generalisation, with the cutoff, sheath edge, presheath and floating-wall potential.',

@@ -39,6 +39,10 @@ describe('model registry', () => {
       ['rho_i_over_Ln_max', 0.1],
       ['lambdaD_over_Ln_max', 0.1],
       ['beta_max', 1],
+      ['nu_over_omega_i_max', 1],
+      ['nu_over_omega_e_max', 1],
+      ['v_over_c_max', 0.1],
+      ['rho_s_over_Ln_max', 0.1],
     ]);
   });
 
@@ -110,6 +114,10 @@ describe('resolveInputs', () => {
       rho_i_over_Ln_max: 0.1,
       lambdaD_over_Ln_max: 0.1,
       beta_max: 0.5,
+      nu_over_omega_i_max: 1,
+      nu_over_omega_e_max: 1,
+      v_over_c_max: 0.1,
+      rho_s_over_Ln_max: 0.1,
     });
     expect(() => resolveThresholds(cf, { beta_max: -1, nope: 1 })).toThrow(ValidationError);
   });

@@ -39,7 +39,11 @@ function toCanonical(
   }
 }
 
-/** Values of a linear or log grid axis; endpoints are set exactly. */
+/**
+ * Values of a linear or log grid axis; endpoints are set exactly. A log axis is stepped in
+ * log10 and a value whose exponent is an integer to within rounding is the exact power of ten
+ * (1–1000 over 31 points gives exactly 10 and 100, so an equality filter on them finds the rows).
+ */
 export function gridValues(kind: 'linear' | 'log', min: number, max: number, count: number): Float64Array {
   const v = new Float64Array(count);
   if (count === 1) {
@@ -49,9 +53,14 @@ export function gridValues(kind: 'linear' | 'log', min: number, max: number, cou
   if (kind === 'linear') {
     for (let k = 0; k < count; k++) v[k] = min + ((max - min) * k) / (count - 1);
   } else {
-    const a = Math.log(min);
-    const b = Math.log(max);
-    for (let k = 0; k < count; k++) v[k] = Math.exp(a + ((b - a) * k) / (count - 1));
+    const a = Math.log10(min);
+    const b = Math.log10(max);
+    for (let k = 0; k < count; k++) {
+      const t = a + ((b - a) * k) / (count - 1);
+      const d = Math.round(t);
+      // 10^d is exact for |d| ≤ 22; beyond that the nearest double is what `1e<d>` parses to.
+      v[k] = Math.abs(t - d) <= 1e-12 * Math.max(1, Math.abs(t)) ? Number(`1e${d}`) : 10 ** t;
+    }
   }
   v[0] = min;
   v[count - 1] = max;

@@ -5,7 +5,7 @@ import type { ModelDefinition, Thresholds } from '../models/types.js';
 import { resolveAxis, type ResolvedAxis } from './axes.js';
 import { makeAxisFiller } from './design.js';
 import { resolveFixed, type ExpressionSource, type InputSource } from './fixed.js';
-import { MAX_POINTS_HARD } from './limits.js';
+import { MAX_POINTS_HARD, MAX_STORED_COLUMNS } from './limits.js';
 import { safeParseSweepDefinition, summarise } from './parse.js';
 import { saltelliPointCount } from './sampling/saltelli.js';
 import { MAX_SOBOL_DIMENSIONS, MAX_SOBOL_INDEX } from './sampling/sobol.js';
@@ -149,6 +149,14 @@ export function checkSweep(raw: unknown): { ok: true; compiled: CompiledSweep } 
     } catch (err) {
       const details = (err as { details?: ErrorDetail[] }).details;
       errors.push(...(details?.length ? details : [{ path: 'derived', message: (err as Error).message }]));
+    }
+    // Every input, output and derived column takes one stored numeric slot.
+    const fixedColumns = model.inputs.length + model.outputs.length;
+    if (fixedColumns + definition.derived.length > MAX_STORED_COLUMNS) {
+      errors.push({
+        path: 'derived',
+        message: `${model.id} stores ${fixedColumns} input and output columns, so a sweep of it may add at most ${MAX_STORED_COLUMNS - fixedColumns} derived columns (got ${definition.derived.length})`,
+      });
     }
   }
 

@@ -91,6 +91,14 @@ export function resolveFixed(
         if (message) errors.push({ path, message });
         byName.set(name, { name, kind: 'constant', value, from: 'fixed' });
       } catch (err) {
+        // A closed expression over the physical constants ("39.948 * m_u / m_p") is a constant too.
+        const value = constantExpressionValue(text, path);
+        if (value !== null) {
+          const message = checkInputValue(spec, value);
+          if (message) errors.push({ path, message });
+          byName.set(name, { name, kind: 'constant', value, from: 'fixed' });
+          continue;
+        }
         errors.push(
           ...detailsOf(err, path).map((d) => ({
             ...d,
@@ -125,6 +133,17 @@ export function resolveFixed(
   });
 
   return { sources, order: topologicalOrder(sources, errors) };
+}
+
+/** The value of an expression with no input symbols (numbers, pi, q_e, m_p, …), or null if it is not one. */
+function constantExpressionValue(text: string, path: string): number | null {
+  try {
+    const fn = compileExpression(text, [], path);
+    const v = fn(new Map());
+    return Number.isFinite(v) ? v : null;
+  } catch {
+    return null;
+  }
 }
 
 /** Kahn's algorithm over expression inputs; anything left over sits on a cycle. */

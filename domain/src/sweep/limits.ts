@@ -6,4 +6,6 @@ export const MAX_AXIS_COUNT = 10_000;
 export const MAX_AXES = 16;
 export const MAX_RANDOM_SAMPLES = 10_000_000;
 export const MAX_DERIVED = 16;
+/** Numeric columns one stored result row holds (inputs + outputs + derived; api RESULT_SLOTS). */
+export const MAX_STORED_COLUMNS = 64;
 export const MAX_TAGS = 20;

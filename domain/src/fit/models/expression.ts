@@ -1,5 +1,6 @@
 import { all, create, type MathNode } from 'mathjs';
 import { ValidationError, type ErrorDetail } from '../../errors.js';
+import { ambiguousSymbol, EXPRESSION_CONSTANT_NAMES, EXPRESSION_CONSTANT_VALUES } from '../../expression-constants.js';
 import { resolveBounds, validationFail, type CheckedData } from '../input.js';
 import type { CompiledModel, FitInput } from '../types.js';
 
@@ -73,7 +74,9 @@ const OPERATORS = new Set([
   'not',
   'xor',
 ]);
-const CONSTANTS = new Set(['pi', 'PI', 'e', 'E', 'tau']);
+// A bare `e` is refused (ambiguous: elementary charge or Euler's number); physical constants come
+// from expression-constants.ts under unambiguous names (q_e, m_e, …), shadowed by x columns/params.
+const CONSTANTS = new Set(['pi', 'PI', 'E', 'tau', ...EXPRESSION_CONSTANT_NAMES]);
 export const MAX_EXPRESSION_LENGTH = 2000;
 
 export interface ParsedExpression {
@@ -119,7 +122,9 @@ export function parseExpression(expr: string): ParsedExpression {
       }
       case 'SymbolNode': {
         const isCallee = parent?.type === 'FunctionNode' && (parent as unknown as { fn: MathNode }).fn === nd;
-        if (!isCallee) symbols.add((nd as unknown as { name: string }).name);
+        const ambiguous = isCallee ? null : ambiguousSymbol((nd as unknown as { name: string }).name);
+        if (ambiguous) problems.push(ambiguous);
+        else if (!isCallee) symbols.add((nd as unknown as { name: string }).name);
         return;
       }
       default:
@@ -169,7 +174,7 @@ export function compileExpression(input: FitInput, data: CheckedData): CompiledM
   const { n } = data;
   const start = Float64Array.from(names.map((k) => given[k]!));
   const { min, max } = resolveBounds(input, names, start);
-  const scope: Record<string, number> = {};
+  const scope: Record<string, number> = { ...EXPRESSION_CONSTANT_VALUES };
   const cols = data.x;
   const evaluate = (p: Float64Array, out: Float64Array): void => {
     for (let j = 0; j < names.length; j++) scope[names[j]!] = p[j]!;
