@@ -1,11 +1,11 @@
-import { checkInput, type CheckedData } from './input.js';
+import { checkInput, validationFail, type CheckedData } from './input.js';
 import { LIBRARY_MAX_POINTS } from './engine/library-stage.js';
 import { runFit } from './engine/run-fit.js';
 import { compileExpression } from './models/expression.js';
 import { compileExponential } from './models/exponential.js';
 import { compilePolytropic } from './models/polytropic.js';
 import { compilePowerLaw } from './models/power-law.js';
-import type { CompiledModel, FitInput, FitResult } from './types.js';
+import { DEFAULT_SIGMA_MODE, type CompiledModel, type FitInput, type FitResult } from './types.js';
 
 function compile(request: FitInput, data: CheckedData): CompiledModel {
   switch (request.model) {
@@ -33,13 +33,49 @@ function strided(data: CheckedData, maxPoints: number): CheckedData {
 }
 
 /**
+ * Checks `fixed` and `sigmaMode` before compiling, and returns the request with the fixed values as
+ * start values (so expression models see them as parameters and the models' own limits check them).
+ */
+function withFixedStarts(request: FitInput): FitInput {
+  const fixed = request.fixed ?? {};
+  for (const [name, v] of Object.entries(fixed)) {
+    if (!Number.isFinite(v)) validationFail(`fixed.${name}`, `must be a finite number, got ${String(v)}`);
+    if (request.bounds?.[name] !== undefined)
+      validationFail(`fixed.${name}`, 'a parameter is either fixed or bounded, not both');
+  }
+  if (request.sigmaMode !== undefined && request.sigmaMode !== 'absolute' && request.sigmaMode !== 'relative')
+    validationFail('sigmaMode', `must be "absolute" or "relative", got ${String(request.sigmaMode)}`);
+  if (request.sigmaMode === 'absolute' && request.sigma === undefined)
+    validationFail('sigmaMode', '"absolute" needs the σ column (weights) it takes as the measurement error');
+  if (Object.keys(fixed).length === 0) return request;
+  return { ...request, params: { ...request.params, ...fixed } };
+}
+
+/** Full-model index → fixed value; every fixed name must be a parameter of the compiled model. */
+function fixedIndices(request: FitInput, model: CompiledModel): Map<number, number> {
+  const out = new Map<number, number>();
+  for (const [name, v] of Object.entries(request.fixed ?? {})) {
+    const j = model.paramNames.indexOf(name);
+    if (j < 0)
+      validationFail(
+        `fixed.${name}`,
+        `is not a parameter of ${request.model} (parameters: ${model.paramNames.join(', ')})`,
+      );
+    out.set(j, v);
+  }
+  return out;
+}
+
+/**
  * Fits one of the reduced models to column data. Throws ValidationError for bad input, too few
  * points and structurally singular problems; a fit that does not converge comes back with
- * `converged: false` and a message, never as a converged result.
+ * `converged: false`, a message and advice, never as a converged result.
  */
-export function fitModel(request: FitInput): FitResult {
+export function fitModel(original: FitInput): FitResult {
+  const request = withFixedStarts(original);
   const data = checkInput(request);
   const model = compile(request, data);
+  const fixed = fixedIndices(request, model);
   let sub: { model: CompiledModel; data: CheckedData } | undefined;
   if (data.n > LIBRARY_MAX_POINTS) {
     const subData = strided(data, LIBRARY_MAX_POINTS);
@@ -49,5 +85,5 @@ export function fitModel(request: FitInput): FitResult {
       sub = undefined; // the subsample alone may be degenerate; the full data were accepted
     }
   }
-  return runFit(request.model, model, data, sub);
+  return runFit(request.model, model, data, { fixed, sigmaMode: request.sigmaMode ?? DEFAULT_SIGMA_MODE }, sub);
 }

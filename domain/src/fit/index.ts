@@ -1,6 +1,16 @@
 // Fit engine: reduced models fitted by Levenberg–Marquardt with standard errors (SPEC §8).
 export { fitModel } from './fit-model.js';
 export { fitRequestSchema, type FitRequest } from './schema.js';
-export { FIT_MODEL_KINDS } from './types.js';
-export type { FitInput, FitResult, FitModelKind, FitParameter, ParameterBound, Column as FitColumn } from './types.js';
+export { DEFAULT_SIGMA_MODE, FIT_MODEL_KINDS } from './types.js';
+export type {
+  FitAdvice,
+  FitInput,
+  FitResult,
+  FitModelKind,
+  FitParameter,
+  ParameterBound,
+  SigmaMode,
+  Column as FitColumn,
+} from './types.js';
 export { regularizedBeta, tQuantile, tTwoSidedTail } from './stats/t-quantile.js';
+export { chiSquareUpperTail } from './stats/chi-square.js';

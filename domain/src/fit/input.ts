@@ -72,7 +72,10 @@ export function startValue(input: FitInput, name: string, guess: number): number
 export function checkParamNames(input: FitInput, names: string[]): void {
   for (const key of Object.keys(input.params ?? {})) {
     if (!names.includes(key))
-      fail(`params.${key}`, `is not a parameter of ${input.model} (parameters: ${names.join(', ')})`);
+      fail(
+        `${input.fixed?.[key] !== undefined ? 'fixed' : 'params'}.${key}`,
+        `is not a parameter of ${input.model} (parameters: ${names.join(', ')})`,
+      );
   }
 }
 
@@ -103,6 +106,8 @@ export function resolveBounds(
     max[j] = Math.min(own[name]?.max ?? Infinity, req.max ?? Infinity);
     if (!(min[j]! < max[j]!)) fail(`bounds.${name}`, `min (${min[j]}) must be below max (${max[j]})`);
     if (start[j]! < min[j]! || start[j]! > max[j]!) {
+      if (input.fixed?.[name] !== undefined)
+        fail(`fixed.${name}`, `value ${start[j]} lies outside the parameter's range [${min[j]}, ${max[j]}]`);
       fail(`params.${name}`, `start value ${start[j]} lies outside the bounds [${min[j]}, ${max[j]}]`);
     }
   });

@@ -65,23 +65,37 @@ describe('polytropic with the density scale n0', () => {
     expect(Math.abs(byName(result, 'n0').value / 2e18 - 1)).toBeLessThan(1e-8);
   });
 
-  it('fits n0 when params.n0 is given even for data that look normalised (n0 = 1.2)', () => {
-    const y = phi.map((p) => density(p, 1.2, 4, 1.2));
-    expect(fitsScale({ model: 'polytropic', x: {}, xNames: [], y }, Float64Array.from(y))).toBe(false);
-    const result = fitModel({ model: 'polytropic', x: { phi_V: phi }, xNames: ['phi_V'], y, params: { n0: 1 } });
+  // Issue 15: data with γ = 1.3, Te = 4 eV and n0 = 3 (1 % noise) used to fit to γ ≈ 6 with n0 silently fixed
+  // at 1, because max |y| lay in [0.2, 5]. n0 is now always fitted unless the request says normalised.
+  it('fits n0 for y in the range that used to be taken as normalised (γ = 1.3, Te = 4 eV, n0 = 3)', () => {
+    const noise = normalSource(1303);
+    const y = phi.map((p) => density(p, 1.3, 4, 3) * (1 + 0.01 * noise()));
+    expect(fitsScale({ model: 'polytropic', x: {}, xNames: [], y })).toBe(true);
+    const result = fitModel({ model: 'polytropic', x: { phi_V: phi }, xNames: ['phi_V'], y });
     expect(result.converged).toBe(true);
-    expect(byName(result, 'n0').value).toBeCloseTo(1.2, 8);
-    expect(byName(result, 'gamma').value).toBeCloseTo(1.2, 8);
-    expect(byName(result, 'Te_eV').value).toBeCloseTo(4, 8);
+    expect(result.parameters.map((p) => p.name)).toEqual(['gamma', 'Te_eV', 'n0']);
+    for (const [name, truth] of [
+      ['gamma', 1.3],
+      ['Te_eV', 4],
+      ['n0', 3],
+    ] as const) {
+      const q = byName(result, name);
+      expect(Math.abs(q.value - truth), name).toBeLessThan(3 * q.stdError);
+    }
+    expect(result.r2).toBeGreaterThan(0.99);
   });
 
-  it('an already-normalised fit still returns exactly two parameters', () => {
+  it('normalised: true fits exactly γ and Te with n0 = 1', () => {
     const noise = normalSource(2718);
     const y = phi.map((p) => density(p, 1.4, 5, 1) + 0.01 * noise());
-    const result = fitModel({ model: 'polytropic', x: { phi_V: phi }, xNames: ['phi_V'], y });
+    const result = fitModel({ model: 'polytropic', x: { phi_V: phi }, xNames: ['phi_V'], y, normalised: true });
     expect(result.converged).toBe(true);
     expect(result.parameters.map((p) => p.name)).toEqual(['gamma', 'Te_eV']);
     expect(result.covariance).toHaveLength(2);
+    expect(Math.abs(byName(result, 'gamma').value - 1.4)).toBeLessThan(3 * byName(result, 'gamma').stdError);
+    expect(() =>
+      fitModel({ model: 'polytropic', x: { phi_V: phi }, xNames: ['phi_V'], y, normalised: true, params: { n0: 1 } }),
+    ).toThrow(/normalised/);
   });
 
   it('rejects a start n0 ≤ 0 naming the field', () => {

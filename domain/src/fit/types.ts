@@ -4,6 +4,10 @@ export type FitModelKind = 'power-law' | 'exponential' | 'polytropic' | 'express
 
 export const FIT_MODEL_KINDS: readonly FitModelKind[] = ['power-law', 'exponential', 'polytropic', 'expression'];
 
+export type SigmaMode = 'absolute' | 'relative';
+
+export const DEFAULT_SIGMA_MODE: SigmaMode = 'relative';
+
 export type Column = Float64Array | readonly number[];
 
 export interface ParameterBound {
@@ -17,8 +21,17 @@ export interface FitInput {
   x: Record<string, Column>;
   xNames: string[];
   y: Column;
-  /** One standard deviation per point; turns the fit into weighted least squares (reduced χ²). */
+  /** One standard deviation per point; turns the fit into weighted least squares (weights 1/σ²). */
   sigma?: Column;
+  /**
+   * With σ: 'relative' (default, as curve_fit's absolute_sigma=False) scales the covariance by the
+   * reduced χ²; 'absolute' takes σ as the true measurement error, covariance (JᵀWJ)⁻¹ unscaled.
+   */
+  sigmaMode?: SigmaMode;
+  /** Parameters held at a value: not fitted, stdError 0, not counted in the degrees of freedom. */
+  fixed?: Record<string, number>;
+  /** Polytropic only: y is n/n0 already, so n0 = 1 and is not fitted. Default false (n0 is fitted). */
+  normalised?: boolean;
   /** mathjs expression, for `model: 'expression'`. */
   expr?: string;
   /** Start values by parameter name (required for `expression`, optional overrides otherwise). */
@@ -31,8 +44,20 @@ export interface FitInput {
 export interface FitParameter {
   name: string;
   value: number;
-  /** Standard error from s²·(JᵀJ)⁻¹; NaN when the covariance cannot be formed. */
+  /** Standard error from s²·(JᵀJ)⁻¹; 0 for a fixed parameter; NaN when the covariance cannot be formed. */
   stdError: number;
+  /** Held at its value by the request (not fitted). */
+  fixed: boolean;
+}
+
+/** Why a fit did not converge and where to start again (absent when it converged). */
+export interface FitAdvice {
+  /** 'start': the data can determine the parameters, the path from these start values failed; 'data': they cannot. */
+  suspect: 'start' | 'data';
+  /** The reason in words. */
+  reason: string;
+  /** The optimiser's last point, by parameter name (fixed ones included), to start again from. */
+  lastIterate: Record<string, number>;
 }
 
 export interface FitResult {
@@ -54,6 +79,20 @@ export interface FitResult {
   message: string;
   /** Reduced χ² = Σ((y − f)/σ)² / dof, present only when sigma is given. */
   chi2red?: number;
+  /** χ² = Σ((y − f)/σ)², its upper-tail p-value at dof, and the σ mode used; only when sigma is given. */
+  chi2?: number;
+  chi2PValue?: number;
+  sigmaMode?: SigmaMode;
+  /**
+   * Akaike and Bayesian information criteria, least-squares form with additive constants dropped:
+   * n·ln(χ²/n) + 2k and n·ln(χ²/n) + k·ln n, χ² the weighted (or plain) residual sum of squares,
+   * k the number of free parameters (Burnham & Anderson 2002, §2.2; common practice).
+   */
+  aic: number;
+  bic: number;
+  /** Parameter correlation matrix in parameter order; NaN where a variance is 0 (fixed) or undefined. */
+  correlation: number[][];
+  advice?: FitAdvice;
   /** Observed minus fitted, per point. */
   residuals: Float64Array;
   fitted: Float64Array;

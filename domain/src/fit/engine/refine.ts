@@ -1,7 +1,11 @@
 import { check, stepFor, STALL_TOL, STEP_TOL, type Linearisation } from './linearisation.js';
 import type { Problem } from './problem.js';
 
+/** How the refinement stopped: the advice for a failed fit starts from this. */
+export type StopReason = 'converged' | 'nonfinite' | 'stalled' | 'singular' | 'budget';
+
 export interface RefineOutcome {
+  stop: StopReason;
   iterations: number;
   converged: boolean;
   message: string;
@@ -102,12 +106,14 @@ export function refine(
     const st = check(prob, params, r, jac, STEP_TOL);
     if (st.converged)
       return {
+        stop: 'converged',
         iterations: it,
         converged: true,
         message: 'converged: Gauss–Newton step below 1e-9 of |p| + standard error',
       };
     if (!Number.isFinite(st.lin.rss))
       return {
+        stop: 'nonfinite',
         iterations: it,
         converged: false,
         message: 'not converged: the model is not finite at the current parameters',
@@ -142,12 +148,14 @@ export function refine(
       const final = check(prob, params, r, jac, STALL_TOL);
       if (final.converged)
         return {
+          stop: 'converged',
           iterations: it + 1,
           converged: true,
           message:
             'converged to the rounding limit: no further decrease, Gauss–Newton step below 1e-6 of |p| + standard error',
         };
       return {
+        stop: 'stalled',
         iterations: it + 1,
         converged: false,
         message:
@@ -157,11 +165,11 @@ export function refine(
   }
   if (singularSeen) {
     return {
+      stop: 'singular',
       iterations: budget,
       converged: false,
-      message:
-        'not converged: singular problem (rank-deficient JᵀJ); the parameters cannot all be determined from these data',
+      message: 'not converged: singular problem (rank-deficient JᵀJ) at the last iterate',
     };
   }
-  return { iterations: budget, converged: false, message: `not converged within ${budget} iterations` };
+  return { stop: 'budget', iterations: budget, converged: false, message: `not converged within ${budget} iterations` };
 }

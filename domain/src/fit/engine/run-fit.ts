@@ -1,24 +1,38 @@
-import { requireMorePointsThanParams, type CheckedData } from '../input.js';
-import type { CompiledModel, FitModelKind, FitResult } from '../types.js';
+import { requireMorePointsThanParams, validationFail, type CheckedData } from '../input.js';
+import type { CompiledModel, FitModelKind, FitResult, SigmaMode } from '../types.js';
+import { solveWithActiveBounds } from './active-set.js';
+import { adviseOnFailure } from './advice.js';
+import { reduceModel, type ReducedModel } from './fixed.js';
 import { libraryStage } from './library-stage.js';
 import { check, STEP_TOL } from './linearisation.js';
 import { Problem } from './problem.js';
 import { refine } from './refine.js';
 import { summarise } from './summarise.js';
 
+export interface RunOptions {
+  /** Full-model parameter index → value held fixed. */
+  fixed: ReadonlyMap<number, number>;
+  sigmaMode: SigmaMode;
+}
+
 /**
- * Runs both stages (library LM, then our own refinement) and computes the statistics at the end point.
+ * Runs both stages (library LM, then our own refinement) on the free parameters and computes the
+ * statistics at the end point, then puts the fixed parameters back in their places.
  * `sub`, for large data: the same model compiled on a strided subsample. The library allocates
  * a matrix row object per point and iteration, so it only brings the start close on the
  * subsample; the allocation-free refinement then uses every point.
  */
 export function runFit(
   kind: FitModelKind,
-  model: CompiledModel,
+  fullModel: CompiledModel,
   data: CheckedData,
+  options: RunOptions,
   sub?: { model: CompiledModel; data: CheckedData },
 ): FitResult {
+  const reduced = reduceModel(fullModel, options.fixed);
+  const model = reduced.model;
   const p = model.paramNames.length;
+  if (p === 0) validationFail('fixed', 'every parameter is fixed; leave at least one free to fit');
   requireMorePointsThanParams(data.n, p);
   const prob = new Problem(model, data.y, data.sigma);
   const r = new Float64Array(data.n);
@@ -28,7 +42,7 @@ export function runFit(
   const libraryBudget = Math.max(1, Math.min(100, Math.floor(data.maxIterations / 2)));
   let lib = prob;
   if (sub) {
-    lib = new Problem(sub.model, sub.data.y, sub.data.sigma);
+    lib = new Problem(reduceModel(sub.model, options.fixed).model, sub.data.y, sub.data.sigma);
     lib.scale.set(prob.scale);
   }
   const libIts = libraryStage(prob, lib, params, libraryBudget, r, jac);
@@ -47,6 +61,18 @@ export function runFit(
     }
   }
 
+  // A parameter on a bound: finish by the active set (the clamped steps cannot settle the others).
+  const bounded = solveWithActiveBounds(
+    prob,
+    model,
+    params,
+    data.maxIterations,
+    data.y,
+    data.sigma,
+    (m, y, sigma) => new Problem(m, y, sigma),
+  );
+  if (bounded) outcome = { ...bounded, iterations: outcome.iterations + bounded.iterations };
+
   const final = check(prob, params, r, jac, STEP_TOL);
   const singular = final.singular;
   let converged = outcome.converged && !singular;
@@ -56,10 +82,10 @@ export function runFit(
     message += `; at a bound: ${atBound.join(', ')} (their standard errors assume the bound is not active)`;
   }
   if (singular) {
-    message = `not converged: singular problem (rank-deficient JᵀJ, reciprocal condition ${final.lin.rcond.toExponential(2)}); the parameters cannot all be determined from these data`;
+    message = `not converged: singular problem (rank-deficient JᵀJ, reciprocal condition ${final.lin.rcond.toExponential(2)}) at the last iterate`;
     converged = false;
   }
-  return summarise(
+  const result = summarise(
     kind,
     model,
     data,
@@ -70,5 +96,43 @@ export function runFit(
     converged,
     message,
     singular,
+    options.sigmaMode,
   );
+  if (!converged) {
+    const start = Float64Array.from(model.start);
+    prob.clamp(start);
+    const why = adviseOnFailure(prob, model.paramNames, start, params, singular ? 'singular' : outcome.stop, final.lin);
+    const full = reduced.expand(params);
+    result.advice = {
+      ...why,
+      lastIterate: Object.fromEntries(fullModel.paramNames.map((name, j) => [name, full[j]!])),
+    };
+    result.message = `${message}; suspect the ${why.suspect === 'start' ? 'start values' : 'data'}: ${why.reason}`;
+  }
+  return expandFixed(result, fullModel, reduced, params);
+}
+
+/** Puts the fixed parameters back: value as held, stdError 0, zero covariance, correlation NaN. */
+function expandFixed(result: FitResult, full: CompiledModel, reduced: ReducedModel, params: Float64Array): FitResult {
+  if (reduced.free.length === full.paramNames.length) return result;
+  const values = reduced.expand(params);
+  const slot = new Map(reduced.free.map((j, k) => [j, k]));
+  const names = full.paramNames;
+  const pick = (m: number[][], fill: number) =>
+    names.map((_, a) =>
+      names.map((__, b) => {
+        const ka = slot.get(a);
+        const kb = slot.get(b);
+        return ka !== undefined && kb !== undefined ? m[ka]![kb]! : fill;
+      }),
+    );
+  return {
+    ...result,
+    parameters: names.map((name, j) => {
+      const k = slot.get(j);
+      return k !== undefined ? result.parameters[k]! : { name, value: values[j]!, stdError: 0, fixed: true };
+    }),
+    covariance: pick(result.covariance, 0),
+    correlation: pick(result.correlation, NaN),
+  };
 }

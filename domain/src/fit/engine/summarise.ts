@@ -1,9 +1,24 @@
 import type { CheckedData } from '../input.js';
-import type { CompiledModel, FitModelKind, FitResult } from '../types.js';
+import { chiSquareUpperTail } from '../stats/chi-square.js';
+import type { CompiledModel, FitModelKind, FitResult, SigmaMode } from '../types.js';
 import { covarianceOf, type Linearisation } from './linearisation.js';
 import type { Problem } from './problem.js';
 
-/** Result assembly: fitted values, residuals, goodness of fit and the scaled covariance at the end point. */
+/** Correlation r_ab = C_ab / sqrt(C_aa·C_bb); NaN where a variance is 0 or not finite. */
+export function correlationOf(cov: number[][]): number[][] {
+  return cov.map((row, a) =>
+    row.map((c, b) => {
+      const d = Math.sqrt(cov[a]![a]! * cov[b]![b]!);
+      return d > 0 && Number.isFinite(d) ? Math.max(-1, Math.min(1, c / d)) : NaN;
+    }),
+  );
+}
+
+/**
+ * Result assembly at the end point: fitted values, residuals, goodness of fit, information criteria
+ * and the covariance, scaled by s² = RSS/dof unweighted, by the reduced χ² for relative σ, unscaled for
+ * absolute σ (curve_fit's absolute_sigma=True: (JᵀWJ)⁻¹).
+ */
 export function summarise(
   kind: FitModelKind,
   model: CompiledModel,
@@ -15,6 +30,7 @@ export function summarise(
   converged: boolean,
   message: string,
   singular: boolean,
+  sigmaMode: SigmaMode,
 ): FitResult {
   const { n } = data;
   const p = params.length;
@@ -35,12 +51,20 @@ export function summarise(
     tss += (data.y[i]! - mean) ** 2;
   }
   const dof = n - p;
-  // s² is RSS/dof, or the reduced χ² when σ is given (weights 1/σ²).
-  const s2 = (data.sigma ? chi2 : rss) / dof;
+  const weighted = data.sigma !== undefined;
+  const s2 = weighted ? (sigmaMode === 'absolute' ? 1 : chi2 / dof) : rss / dof;
   const cov: number[][] = singular ? Array.from(params, () => Array.from(params, () => NaN)) : covarianceOf(lin, p, s2);
+  // Least-squares AIC/BIC on the weighted sum of squares (plain RSS when unweighted), k free parameters.
+  const ss = weighted ? chi2 : rss;
+  const logLike = n * Math.log(ss / n);
   return {
     model: kind,
-    parameters: model.paramNames.map((name, j) => ({ name, value: params[j]!, stdError: Math.sqrt(cov[j]![j]!) })),
+    parameters: model.paramNames.map((name, j) => ({
+      name,
+      value: params[j]!,
+      stdError: Math.sqrt(cov[j]![j]!),
+      fixed: false,
+    })),
     rss,
     r2: tss > 0 ? 1 - rss / tss : rss === 0 ? 1 : 0,
     rmse: Math.sqrt(rss / n),
@@ -50,7 +74,10 @@ export function summarise(
     iterations,
     converged,
     message,
-    ...(data.sigma ? { chi2red: chi2 / dof } : {}),
+    ...(weighted ? { chi2red: chi2 / dof, chi2, chi2PValue: chiSquareUpperTail(chi2, dof), sigmaMode } : {}),
+    aic: logLike + 2 * p,
+    bic: logLike + p * Math.log(n),
+    correlation: correlationOf(cov),
     residuals,
     fitted,
     covariance: cov,

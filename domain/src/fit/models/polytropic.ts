@@ -3,25 +3,17 @@ import { solveLeastSquares } from '../linalg.js';
 import type { CompiledModel, FitInput } from '../types.js';
 
 /**
- * Normalised data look like n/n0: their largest |y| lies in this range. Outside it (a raw
- * density column in m⁻³, or a current in A) the fit adds the scale `n0` as a third parameter.
+ * Whether the polytropic fit also fits the scale n0: always, unless the request says the data are
+ * already n/n0 (`normalised: true`). No guess from the data's magnitude: a probe current in mA or a
+ * density in 1e18 m⁻³ lies in any range, and a silently fixed n0 biases γ and Te.
  */
-export const NORMALISED_MAX_RANGE = { low: 0.2, high: 5 } as const;
-
-/**
- * Whether the polytropic fit also fits the scale n0: when the request gives a start value or
- * bounds for `n0`, or when max |y| lies outside [0.2, 5] (the data are clearly not n/n0).
- */
-export function fitsScale(input: FitInput, y: Float64Array): boolean {
-  if (input.params?.n0 !== undefined || input.bounds?.n0 !== undefined) return true;
-  let peak = 0;
-  for (let i = 0; i < y.length; i++) peak = Math.max(peak, Math.abs(y[i]!));
-  return !(peak >= NORMALISED_MAX_RANGE.low && peak <= NORMALISED_MAX_RANGE.high);
+export function fitsScale(input: FitInput): boolean {
+  return input.normalised !== true;
 }
 
 /**
- * y = n0·[1 + ((γ−1)/γ)·φ/Te]^(1/(γ−1)), parameters `gamma`, `Te_eV` and, when `fitsScale`
- * says so, `n0` (in y's unit); otherwise y is n/n0 (n0 = 1). x = φ in volts.
+ * y = n0·[1 + ((γ−1)/γ)·φ/Te]^(1/(γ−1)), parameters `gamma`, `Te_eV` and `n0` (in y's unit);
+ * with `normalised: true` y is n/n0 (n0 = 1, not fitted). x = φ in volts.
  *
  * Written as ln(y/n0) = (t/γ)·g(z) with t = φ/Te, z = (1 − 1/γ)·t and g(z) = ln(1+z)/z, which is
  * smooth through z = 0: γ = 1 gives g = 1 and y = n0·exp(φ/Te) exactly, and near γ = 1 the
@@ -31,10 +23,13 @@ export function fitsScale(input: FitInput, y: Float64Array): boolean {
 export function compilePolytropic(input: FitInput, data: CheckedData): CompiledModel {
   if (data.x.length !== 1)
     validationFail('x', `polytropic takes exactly one x column (the potential φ), got ${data.x.length}`);
-  checkParamNames(input, ['gamma', 'Te_eV', 'n0']);
+  const withScale = fitsScale(input);
+  if (!withScale && (input.params?.n0 !== undefined || input.bounds?.n0 !== undefined)) {
+    validationFail('normalised', 'with normalised data n0 is 1 and not fitted; drop the start value or bounds of n0');
+  }
+  checkParamNames(input, withScale ? ['gamma', 'Te_eV', 'n0'] : ['gamma', 'Te_eV']);
   const { n, y } = data;
   const phi = data.x[0]!;
-  const withScale = fitsScale(input, y);
   const names = withScale ? ['gamma', 'Te_eV', 'n0'] : ['gamma', 'Te_eV'];
   const guess = boltzmannGuess(phi, y, n, input);
   const startList = [startValue(input, 'gamma', 1), startValue(input, 'Te_eV', guess.te)];

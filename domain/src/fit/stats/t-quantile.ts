@@ -6,7 +6,7 @@
  */
 
 /** ln Γ(x) for x > 0, Lanczos approximation (g = 7, 9 terms; ~1e-15 relative). */
-function lnGamma(x: number): number {
+export function lnGamma(x: number): number {
   const c = [
     0.99999999999980993, 676.5203681218851, -1259.1392167224028, 771.32342877765313, -176.61502916214059,
     12.507343278686905, -0.13857109526572012, 9.9843695780195716e-6, 1.5056327351493116e-7,
