@@ -99,22 +99,37 @@ describe('power law on a noiseless cross-field sweep (SPEC §13.2)', () => {
     expect(Math.abs(p.exp_Ln_m.value + 1)).toBeLessThan(1e-9);
     // vDi = −Ti/(B·Ln) exactly for γ_i = Z = 1 (T in volts): C = −1 m/s per V/(T·m).
     expect(Math.abs(p.C.value + 1)).toBeLessThan(1e-9);
-    for (const q of Object.values(p) as {
+    const qs = Object.values(p) as {
       stdError: number;
       unit: string | null;
+      fixed: boolean;
       ci95: { low: number; high: number };
-    }[]) {
-      expect(q.stdError).toBeGreaterThanOrEqual(0);
+    }[];
+    qs.forEach((q, j) => {
+      // The standard error is the root of the covariance diagonal, and the interval is ± t·stdError.
+      expect(q.stdError).toBe(Math.sqrt(fit.covariance[j][j]));
       expect(q.stdError).toBeLessThan(1e-9);
-      expect(q.ci95.low).toBeLessThanOrEqual(q.ci95.high);
-    }
+      expect(q.fixed).toBe(false);
+      // Half-width t·stdError, up to the rounding of value ± half-width.
+      expect(Math.abs((q.ci95.high - q.ci95.low) / 2 - fit.confidence.t * q.stdError)).toBeLessThanOrEqual(
+        4e-16 * Math.abs((q.ci95.high + q.ci95.low) / 2) + 1e-9 * q.stdError,
+      );
+    });
+    // t(0.975, dof): a positive finite quantile above the normal 1.96 (Student-t, common practice).
+    expect(fit.confidence.t).toBeGreaterThan(1.96);
     expect(p.exp_B_T.unit).toBe('1');
     // Column units as the sweep stores them (canonical: SI, temperatures in eV).
     expect(fit.units).toMatchObject({ B_T: 'T', Ti_eV: 'eV', Ln_m: 'm' });
     expect(fit.r2).toBeGreaterThan(1 - 1e-12);
     expect(fit.dof).toBe(fit.n - 4);
     expect(fit.rss).toBeLessThan(1e-12 * fit.n);
-    expect(fit.iterations).toBeGreaterThanOrEqual(0);
+    // The exact log–log start of a noiseless power law needs no more than a few refinement steps.
+    expect(Number.isInteger(fit.iterations)).toBe(true);
+    expect(fit.iterations).toBeLessThanOrEqual(5);
+    // Every fit carries the information criteria and a correlation matrix in parameter order.
+    expect(fit.correlation).toHaveLength(4);
+    expect(fit.correlation[1][1]).toBeCloseTo(1, 12);
+    expect(typeof fit.aic).toBe('number');
   });
 
   it('stores the request, the versions, who ran it, and the plot data', async () => {

@@ -48,7 +48,7 @@ describe('stored fit result', () => {
     // Polytropic relation, SPEC §3.2, γ = 1.4, Te = 5 eV, a small deterministic perturbation.
     const phi = Array.from({ length: 12 }, (_, i) => -10 + i);
     const y = phi.map((p, i) => (1 + (0.4 / 1.4) * (p / 5)) ** (1 / 0.4) * (1 + 0.01 * Math.cos(3 * i)));
-    const r = req({ model: 'polytropic', y: 'n', x: 'phi' });
+    const r = req({ model: 'polytropic', y: 'n', x: 'phi', normalised: true });
     const d = data({ n: y, phi }, { phi: 'V' });
     const { input } = engineInput(r, d);
     const s = buildStoredResult(r, d, fitModel(input), false);

@@ -1,6 +1,8 @@
 import {
+  retardationRegion,
   tQuantile,
   type FitInput,
+  type FitOutcomeView,
   type FitParameterView,
   type FitPlotData,
   type FitRequest,
@@ -16,28 +18,8 @@ export const CONFIDENCE_METHOD =
 
 export type { FitParameterView, FitPlotData };
 
-/** What a completed (or non-converged) fit stores in fits.result. */
-export interface StoredFitResult {
-  parameters: FitParameterView[];
-  confidence: { level: number; method: string; t: number | null; dof: number };
-  rss: number | null;
-  r2: number | null;
-  rmse: number | null;
-  residualSd: number | null;
-  chi2red?: number | null;
-  dof: number;
-  n: number;
-  dropped: number;
-  iterations: number;
-  converged: boolean;
-  message: string;
-  /** Power law on all-negative y: fitted |y|, then C carries the sign back. */
-  signRestored: boolean;
-  covariance: (number | null)[][];
-  /** Canonical units of the columns used (y, x, weights), for labels. */
-  units: Record<string, string>;
-  plot: FitPlotData;
-}
+/** What a completed (or non-converged) fit stores in fits.result: the contract's outcome shape. */
+export type StoredFitResult = FitOutcomeView;
 
 /** JSON has no NaN or ∞: they become null (the ui shows "—"). */
 export function finite(v: number): number | null {
@@ -55,6 +37,28 @@ export function needsSignFlip(req: Pick<FitRequest, 'model'>, y: Float64Array): 
   return true;
 }
 
+/**
+ * Probe-retarding: the rows inside the voltage window (the request's `range`, else the retardation
+ * region found in the data), so the stored plot shows exactly the points fitted.
+ */
+export function probeWindow(req: FitRequest, data: FitData): { data: FitData; region?: StoredFitResult['region'] } {
+  if (req.model !== 'probe-retarding') return { data };
+  const x = xNamesOf(req)[0]!;
+  const v = data.data[x]!;
+  const auto = req.range === undefined;
+  const found = auto ? retardationRegion(v, data.data[req.y]!) : null;
+  const [vMin, vMax] = req.range ?? [found!.vMin, found!.vMax];
+  const keep: number[] = [];
+  for (let i = 0; i < data.n; i++) if (v[i]! >= vMin && v[i]! <= vMax) keep.push(i);
+  const columns = Object.fromEntries(
+    Object.entries(data.data).map(([name, col]) => [name, Float64Array.from(keep, (i) => col[i]!)]),
+  );
+  return {
+    data: { ...data, n: keep.length, data: columns },
+    region: { vMin, vMax, automatic: auto, used: keep.length, of: data.n },
+  };
+}
+
 /** The engine's input for a request and its extracted data. */
 export function engineInput(req: FitRequest, data: FitData): { input: FitInput; flipped: boolean } {
   const xNames = xNamesOf(req);
@@ -63,7 +67,17 @@ export function engineInput(req: FitRequest, data: FitData): { input: FitInput; 
   if (flipped) y = y.map((v) => -v);
   const x: Record<string, Float64Array> = {};
   for (const name of xNames) x[name] = data.data[name]!;
-  const params = flipped && req.params?.C !== undefined ? { ...req.params, C: -req.params.C } : req.params;
+  // A sign-flipped power law fits −y: C's start, fixed value and bounds change sign with it.
+  const flipC = <T extends Record<string, number> | undefined>(rec: T): T =>
+    flipped && rec?.C !== undefined ? ({ ...rec, C: -rec.C } as T) : rec;
+  const bounds = req.bounds
+    ? Object.fromEntries(
+        Object.entries(req.bounds).map(([name, [lo, hi]]) => {
+          const [a, b] = flipped && name === 'C' ? [hi === null ? null : -hi, lo === null ? null : -lo] : [lo, hi];
+          return [name, { ...(a !== null ? { min: a } : {}), ...(b !== null ? { max: b } : {}) }];
+        }),
+      )
+    : undefined;
   return {
     input: {
       model: req.model,
@@ -72,7 +86,14 @@ export function engineInput(req: FitRequest, data: FitData): { input: FitInput; 
       y,
       sigma: req.weights ? data.data[req.weights] : undefined,
       expr: req.expr,
-      params,
+      params: flipC(req.params),
+      fixed: flipC(req.fixed),
+      bounds,
+      sigmaMode: req.sigmaMode,
+      normalised: req.normalised,
+      range: req.range,
+      sheathSlope: req.sheathSlope,
+      probe: req.probe,
       maxIterations: req.maxIterations,
     },
     flipped,
@@ -90,6 +111,15 @@ function paramUnit(req: FitRequest, name: string, units: Map<string, string>): s
       // n0 is the density scale, in y's unit (m^-3 for a density column); γ is a pure number.
       if (name === 'n0') return units.get(req.y) || null;
       return name === 'Te_eV' ? 'eV' : '1';
+    case 'probe-retarding':
+    case 'probe-double': {
+      const yu = units.get(req.y) || null;
+      const xu = units.get(xs[0]!) || null;
+      if (name === 'I_is') return yu;
+      if (name === 'V_f') return xu;
+      if (name === 'Te_eV') return 'eV';
+      return yu && xu ? `${yu}/${xu}` : null;
+    }
     default:
       return null;
   }
@@ -102,7 +132,13 @@ function sample(col: ArrayLike<number>, stride: number, m: number): (number | nu
 }
 
 /** Confidence intervals, units, the sign restored, the plot subsample: the fit as stored and shown. */
-export function buildStoredResult(req: FitRequest, data: FitData, r: FitResult, flipped: boolean): StoredFitResult {
+export function buildStoredResult(
+  req: FitRequest,
+  data: FitData,
+  r: FitResult,
+  flipped: boolean,
+  region?: StoredFitResult['region'],
+): StoredFitResult {
   const s = flipped ? -1 : 1;
   const fitted = flipped ? r.fitted.map((v) => -v) : r.fitted;
   const residuals = flipped ? r.residuals.map((v) => -v) : r.residuals;
@@ -117,7 +153,9 @@ export function buildStoredResult(req: FitRequest, data: FitData, r: FitResult, 
       value: finite(value),
       stdError: finite(p.stdError),
       unit: paramUnit(req, p.name, units),
-      ci95: Number.isFinite(half) && Number.isFinite(value) ? { low: value - half, high: value + half } : null,
+      ci95:
+        !p.fixed && Number.isFinite(half) && Number.isFinite(value) ? { low: value - half, high: value + half } : null,
+      fixed: p.fixed,
     };
   });
   const xNames = xNamesOf(req);
@@ -133,6 +171,24 @@ export function buildStoredResult(req: FitRequest, data: FitData, r: FitResult, 
     rmse: finite(r.rmse),
     residualSd: finite(r.residualSd),
     ...(r.chi2red !== undefined ? { chi2red: finite(r.chi2red) } : {}),
+    ...(r.chi2 !== undefined ? { chi2: finite(r.chi2), chi2PValue: finite(r.chi2PValue ?? NaN) } : {}),
+    ...(r.sigmaMode ? { sigmaMode: r.sigmaMode } : {}),
+    aic: finite(r.aic),
+    bic: finite(r.bic),
+    correlation: r.correlation.map((row, i) => row.map((v, j) => finite((i === 0) !== (j === 0) ? s * v : v))),
+    derived: (r.derived ?? []).map((d) => ({ ...d, value: finite(d.value), stdError: finite(d.stdError) })),
+    ...(region ? { region } : {}),
+    ...(r.advice
+      ? {
+          advice: {
+            ...r.advice,
+            lastIterate:
+              flipped && r.advice.lastIterate.C !== undefined
+                ? { ...r.advice.lastIterate, C: -r.advice.lastIterate.C }
+                : r.advice.lastIterate,
+          },
+        }
+      : {}),
     dof: r.dof,
     n: r.n,
     dropped: data.dropped,

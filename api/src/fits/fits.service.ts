@@ -4,13 +4,15 @@ import {
   ValidationError,
   fitModel,
   type DomainError,
+  type FitCreatedView,
   type FitRequest,
   type FitResult,
+  type FitView,
 } from '@driftgrid/domain';
 import type { AuthUser } from '../auth/current-user.js';
 import { Clock } from '../common/clock.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
-import { buildStoredResult, engineInput, type StoredFitResult } from './fit-result.js';
+import { buildStoredResult, engineInput, probeWindow, type StoredFitResult } from './fit-result.js';
 import { FitRunner } from './fit-runner.js';
 import { FitSources, type FitData, type SourceKind } from './fit-sources.js';
 import type { FitListQuery } from './dto/fit.dto.js';
@@ -65,10 +67,10 @@ export class FitsService implements OnApplicationBootstrap, OnModuleDestroy {
   }
 
   /** Runs a fit (or queues it when long) and stores it with its request, versions and owner. */
-  create(user: AuthUser, req: FitRequest): { status: 201 | 202; body: unknown } {
+  create(user: AuthUser, req: FitRequest): { status: 201 | 202; body: FitCreatedView } {
     const kind = req.source.kind as SourceKind;
     const sourceId = parseSourceId(req.source.id);
-    const data = this.sources.load(user, kind, sourceId, req);
+    const { data, region } = probeWindow(req, this.sources.load(user, kind, sourceId, req));
     if (data.n === 0) {
       throw new ValidationError(
         `y: too few points: no rows left after the filter${data.dropped ? ` and dropping ${data.dropped} row(s) with a missing value` : ''}`,
@@ -89,7 +91,7 @@ export class FitsService implements OnApplicationBootstrap, OnModuleDestroy {
     };
     if (data.n >= QUEUED_FIT_POINTS) {
       const row = this.repo.insert({ ...base, status: 'queued', progress: PROGRESS.queued });
-      this.track(this.runQueued(row.id, req, data, input, flipped));
+      this.track(this.runQueued(row.id, req, data, input, flipped, region));
       return {
         status: 202,
         body: { id: row.id, status: 'queued', progress: PROGRESS.queued, n: data.n, dropped: data.dropped },
@@ -97,7 +99,7 @@ export class FitsService implements OnApplicationBootstrap, OnModuleDestroy {
     }
     // Validation errors of the engine (too few points, singular, bad expression) are 400s and store nothing.
     const result = fitModel(input);
-    const stored = buildStoredResult(req, data, result, flipped);
+    const stored = buildStoredResult(req, data, result, flipped, region);
     const row = this.repo.insert({
       ...base,
       ...this.outcome(result, stored),
@@ -124,13 +126,14 @@ export class FitsService implements OnApplicationBootstrap, OnModuleDestroy {
     data: FitData,
     input: ReturnType<typeof engineInput>['input'],
     flipped: boolean,
+    region: StoredFitResult['region'],
   ): Promise<void> {
     try {
       await new Promise<void>((r) => setImmediate(r));
       this.repo.update(id, { status: 'running', progress: PROGRESS.running });
       const result = await this.runner.run(input);
       this.repo.update(id, { progress: PROGRESS.fitted });
-      const stored = buildStoredResult(req, data, result, flipped);
+      const stored = buildStoredResult(req, data, result, flipped, region);
       this.repo.update(id, { ...this.outcome(result, stored), progress: PROGRESS.done, finishedAt: this.clock.now() });
     } catch (e) {
       const err = e as DomainError;
@@ -183,15 +186,15 @@ export class FitsService implements OnApplicationBootstrap, OnModuleDestroy {
   }
 
   /** The SPEC §6 fit shape; the list leaves out the plot arrays and the covariance. */
-  present(row: FitRow, full: boolean) {
+  present(row: FitRow, full: boolean): FitView {
     const result = row.result ? (JSON.parse(row.result) as StoredFitResult) : null;
-    const request = JSON.parse(row.request) as FitRequest & { source: { kind: SourceKind; id: number } };
+    const request = JSON.parse(row.request) as FitView['request'];
     const { plot, covariance, ...summary } = result ?? ({} as Partial<StoredFitResult>);
     return {
       id: row.id,
-      status: row.status,
+      status: row.status as FitView['status'],
       progress: row.progress,
-      model: row.model,
+      model: row.model as FitView['model'],
       source: { kind: row.sourceKind, id: row.sourceId, name: this.repo.sourceName(row.sourceKind, row.sourceId) },
       y: request.y,
       x: request.x,

@@ -5,6 +5,9 @@ import { compileExpression } from './models/expression.js';
 import { compileExponential } from './models/exponential.js';
 import { compilePolytropic } from './models/polytropic.js';
 import { compilePowerLaw } from './models/power-law.js';
+import { compileProbeDouble, compileProbeRetarding } from './models/probe.js';
+import { probeDensity } from './probe/density.js';
+import { retardationRegion } from './probe/region.js';
 import { DEFAULT_SIGMA_MODE, type CompiledModel, type FitInput, type FitResult } from './types.js';
 
 function compile(request: FitInput, data: CheckedData): CompiledModel {
@@ -17,6 +20,10 @@ function compile(request: FitInput, data: CheckedData): CompiledModel {
       return compilePolytropic(request, data);
     case 'expression':
       return compileExpression(request, data);
+    case 'probe-retarding':
+      return compileProbeRetarding(request, data);
+    case 'probe-double':
+      return compileProbeDouble(request, data);
   }
 }
 
@@ -73,7 +80,10 @@ function fixedIndices(request: FitInput, model: CompiledModel): Map<number, numb
  */
 export function fitModel(original: FitInput): FitResult {
   const request = withFixedStarts(original);
-  const data = checkInput(request);
+  const checked = checkInput(request);
+  if ((request.model === 'probe-retarding' || request.model === 'probe-double') && checked.x.length !== 1)
+    validationFail('x', `${request.model} takes exactly one x column (the probe voltage V)`);
+  const { data, region } = selectRegion(request, checked);
   const model = compile(request, data);
   const fixed = fixedIndices(request, model);
   let sub: { model: CompiledModel; data: CheckedData } | undefined;
@@ -85,5 +95,36 @@ export function fitModel(original: FitInput): FitResult {
       sub = undefined; // the subsample alone may be degenerate; the full data were accepted
     }
   }
-  return runFit(request.model, model, data, { fixed, sigmaMode: request.sigmaMode ?? DEFAULT_SIGMA_MODE }, sub);
+  const result = runFit(request.model, model, data, { fixed, sigmaMode: request.sigmaMode ?? DEFAULT_SIGMA_MODE }, sub);
+  if (region) result.region = region;
+  if (request.probe && (request.model === 'probe-retarding' || request.model === 'probe-double'))
+    result.derived = [probeDensity(result, request.probe)];
+  return result;
+}
+
+/** Probe-retarding: only the points in the retardation window (`range`, else chosen automatically). */
+function selectRegion(request: FitInput, data: CheckedData): { data: CheckedData; region?: FitResult['region'] } {
+  if (request.model !== 'probe-retarding') return { data };
+  const v = data.x[0]!;
+  const auto = request.range === undefined;
+  const [vMin, vMax] =
+    request.range ??
+    (() => {
+      const r = retardationRegion(v, data.y);
+      return [r.vMin, r.vMax] as const;
+    })();
+  const keep: number[] = [];
+  for (let i = 0; i < data.n; i++) if (v[i]! >= vMin && v[i]! <= vMax) keep.push(i);
+  if (keep.length === data.n) return { data, region: { vMin, vMax, automatic: auto, used: data.n, of: data.n } };
+  const pick = (col: Float64Array) => Float64Array.from(keep, (i) => col[i]!);
+  return {
+    data: {
+      ...data,
+      n: keep.length,
+      x: data.x.map(pick),
+      y: pick(data.y),
+      sigma: data.sigma ? pick(data.sigma) : undefined,
+    },
+    region: { vMin, vMax, automatic: auto, used: keep.length, of: data.n },
+  };
 }

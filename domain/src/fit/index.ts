@@ -1,6 +1,5 @@
 // Fit engine: reduced models fitted by Levenberg–Marquardt with standard errors (SPEC §8).
 export { fitModel } from './fit-model.js';
-export { fitRequestSchema, type FitRequest } from './schema.js';
 export { DEFAULT_SIGMA_MODE, FIT_MODEL_KINDS } from './types.js';
 export type {
   FitAdvice,
@@ -14,3 +13,5 @@ export type {
 } from './types.js';
 export { regularizedBeta, tQuantile, tTwoSidedTail } from './stats/t-quantile.js';
 export { chiSquareUpperTail } from './stats/chi-square.js';
+export { retardationRegion, type ProbeRegion } from './probe/region.js';
+export { probeDensity, DEFAULT_SHEATH_FACTOR, type ProbeGeometry, type DerivedQuantity } from './probe/density.js';

@@ -105,6 +105,9 @@ export function resolveBounds(
     min[j] = Math.max(own[name]?.min ?? -Infinity, req.min ?? -Infinity);
     max[j] = Math.min(own[name]?.max ?? Infinity, req.max ?? Infinity);
     if (!(min[j]! < max[j]!)) fail(`bounds.${name}`, `min (${min[j]}) must be below max (${max[j]})`);
+    // A start the model guessed (not given) moves inside the bounds; a given one outside them is an error.
+    if (input.params?.[name] === undefined && input.fixed?.[name] === undefined)
+      start[j] = Math.min(Math.max(start[j]!, min[j]!), max[j]!);
     if (start[j]! < min[j]! || start[j]! > max[j]!) {
       if (input.fixed?.[name] !== undefined)
         fail(`fixed.${name}`, `value ${start[j]} lies outside the parameter's range [${min[j]}, ${max[j]}]`);

@@ -1,8 +1,16 @@
 /** Public shapes of the fit engine (SPEC §6 and §8). */
 
-export type FitModelKind = 'power-law' | 'exponential' | 'polytropic' | 'expression';
+export type FitModelKind =
+  'power-law' | 'exponential' | 'polytropic' | 'expression' | 'probe-retarding' | 'probe-double';
 
-export const FIT_MODEL_KINDS: readonly FitModelKind[] = ['power-law', 'exponential', 'polytropic', 'expression'];
+export const FIT_MODEL_KINDS: readonly FitModelKind[] = [
+  'power-law',
+  'exponential',
+  'polytropic',
+  'expression',
+  'probe-retarding',
+  'probe-double',
+];
 
 export type SigmaMode = 'absolute' | 'relative';
 
@@ -32,6 +40,12 @@ export interface FitInput {
   fixed?: Record<string, number>;
   /** Polytropic only: y is n/n0 already, so n0 = 1 and is not fitted. Default false (n0 is fitted). */
   normalised?: boolean;
+  /** Probe-retarding: fit only points with V in [lo, hi]; without it the retardation region is chosen automatically. */
+  range?: readonly [number, number];
+  /** Probe models: add a linear term for the sheath expansion (probe-retarding) or the slope (probe-double). */
+  sheathSlope?: boolean;
+  /** Probe models: collecting area and ion mass, for the density from I_is (result `derived`). */
+  probe?: { area_m2: number; mu: number; h?: number };
   /** mathjs expression, for `model: 'expression'`. */
   expr?: string;
   /** Start values by parameter name (required for `expression`, optional overrides otherwise). */
@@ -93,6 +107,10 @@ export interface FitResult {
   /** Parameter correlation matrix in parameter order; NaN where a variance is 0 (fixed) or undefined. */
   correlation: number[][];
   advice?: FitAdvice;
+  /** Quantities computed from the parameters (probe density n_m3), errors by the delta method. */
+  derived?: { name: string; value: number; stdError: number; unit: string; method: string }[];
+  /** Probe-retarding: the voltage window fitted (residuals and fitted values cover only its points). */
+  region?: { vMin: number; vMax: number; automatic: boolean; used: number; of: number };
   /** Observed minus fitted, per point. */
   residuals: Float64Array;
   fitted: Float64Array;

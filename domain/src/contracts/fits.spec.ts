@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { fitRequestSchema } from './schema.js';
+import { fitRequestSchema } from './fits.js';
 
 // Request shape of POST /api/fits, SPEC §6.
 describe('fitRequestSchema', () => {
