@@ -6,6 +6,9 @@
 export interface ErrorDetail {
   /** Field path, dot-separated (`axes.0.min`, `inputs.Te_eV`). */
   path: string;
+  /** The field as the form labels it ("T_e axis · From", "Name"); shown with the message instead of the path. */
+  label?: string;
+  /** A phrase that completes the label: "must be greater than 0". */
   message: string;
   line?: number;
   column?: string;

@@ -82,6 +82,60 @@ describe('sweep life cycle', () => {
     expect(res.body.details.map((d: { path: string }) => d.path)).toContain('model');
   });
 
+  it('answers 400 with every problem, each with its field label and a message free of paths', async () => {
+    const res = await t.http
+      .post('/api/sweeps')
+      .set(auth(researcher))
+      .send(
+        smallSweep({
+          name: '',
+          fixed: { Ti_eV: 'Te_eVV' },
+          axes: [
+            { param: 'Te_eV', kind: 'log', min: 1, max: 100, count: 7 },
+            { param: 'B_T', kind: 'linear', min: 0.05, max: 500, count: 5 },
+          ],
+        }),
+      );
+    expect(res.status).toBe(400);
+    const details = res.body.details as { path: string; label: string; message: string }[];
+    expect(details.map((d) => [d.path, d.label])).toEqual(
+      expect.arrayContaining([
+        ['name', 'Name'],
+        ['fixed.Ti_eV', 'T_i fixed value'],
+        ['axes.1.max', 'B axis · To'],
+      ]),
+    );
+    expect(details.find((d) => d.path === 'fixed.Ti_eV')!.message).toBe(
+      'unknown input or output `Te_eVV`; did you mean `Te_eV`?',
+    );
+    expect(res.body.message).toMatch(/^Invalid sweep definition: Name: must not be empty \(and 2 more\)$/);
+  });
+
+  it('refuses over quota in the admin’s words: the limit, what is used and what the sweep would add', async () => {
+    const me = await t.http.get('/api/auth/me').set(auth(researcher));
+    const userId = me.body.user?.id ?? me.body.id;
+    const put = await t.http.put(`/api/admin/quotas/users/${userId}`).set(auth(admin)).send({ maxPointsPerSweep: 20 });
+    expect(put.status).toBe(200);
+    try {
+      const preview = await t.http.post('/api/sweeps/preview').set(auth(researcher)).send(smallSweep());
+      expect(preview.body.quota.violations).toEqual([
+        expect.objectContaining({
+          limit: 'maxPointsPerSweep',
+          label: 'Points per sweep',
+          usage: 0,
+          requested: 35,
+          message: 'limit 20 points; this sweep has 35',
+        }),
+      ]);
+      const res = await t.http.post('/api/sweeps').set(auth(researcher)).send(smallSweep());
+      expect(res.status).toBe(429);
+      expect(res.body.message).toBe('Quota exceeded — Points per sweep: limit 20 points; this sweep has 35');
+      expect(res.body.details[0]).toMatchObject({ path: 'maxPointsPerSweep', label: 'Points per sweep' });
+    } finally {
+      await t.http.put(`/api/admin/quotas/users/${userId}`).set(auth(admin)).send({ maxPointsPerSweep: null });
+    }
+  });
+
   it('hides a private sweep from other users with 404 and lets admins see it', async () => {
     const res = await t.http
       .post('/api/sweeps')

@@ -138,7 +138,85 @@ describe.runIf(run)('sweep builder', () => {
     await page.getByTestId('derived-expr-0').fill('vE_ms / nonsense');
     await expect
       .poll(async () => (await page.getByTestId('preview-errors').textContent()) ?? '', { timeout: 10000 })
-      .toMatch(/derived\.0\.expr/);
+      .toMatch(/Derived column 1 · Expression: unknown input or output `nonsense`/);
     await page.close();
+  });
+
+  it('shows every problem at once, each beside its field in the form’s words, and none before typing', async () => {
+    const page = await browser.newPage();
+    await signIn(page, server.baseUrl);
+    await page.goto(server.baseUrl + '/sweeps/new');
+    await page.getByTestId('reset-builder').click();
+    await page.getByTestId('sweep-builder').waitFor();
+    // Nothing typed yet: no "must not be empty" greets the user.
+    await page.waitForTimeout(400);
+    expect(await page.getByTestId('sweep-builder').textContent()).not.toMatch(/must not be empty/i);
+
+    // Three problems in three places: an emptied name (structure), an axis bound that is no
+    // quantity and a misspelt input in a fixed value (both need the model).
+    await page.getByTestId('sweep-name').fill('x');
+    await page.getByTestId('sweep-name').fill('');
+    await mode(page, 'Te_eV', 'Axis');
+    await page.getByTestId('axis-min-Te_eV').fill('abc');
+    await page.getByTestId('axis-max-Te_eV').fill('100');
+    await mode(page, 'Ti_eV', 'Fixed');
+    await page.getByTestId('fixed-Ti_eV').fill('Te_eVV');
+
+    const describedError = async (testId: string) =>
+      page.getByTestId(testId).evaluate((el) => {
+        const ids = (el.getAttribute('aria-describedby') ?? '').split(/\s+/).filter(Boolean);
+        return ids.map((id) => document.getElementById(id)?.textContent ?? '').join(' ');
+      });
+    await expect
+      .poll(() => describedError('fixed-Ti_eV'), { timeout: 10000 })
+      .toBe('unknown input or output `Te_eVV`; did you mean `Te_eV`?');
+    expect(await describedError('sweep-name')).toMatch(/must not be empty/);
+    expect(await describedError('axis-min-Te_eV')).toMatch(/expected a quantity in eV .*unknown unit `abc`/);
+
+    const listed = page.getByTestId('preview-errors');
+    expect(await listed.textContent()).toMatch(/^3 problems to fix/);
+    const text = (await listed.textContent()) ?? '';
+    expect(text).toContain('Name: must not be empty');
+    expect(text).toContain('T_e axis · From: expected a quantity in eV');
+    expect(text).toContain('T_i fixed value: unknown input or output `Te_eVV`; did you mean `Te_eV`?');
+    // Never a JSON path, never the unit parser's own words.
+    expect(await page.getByTestId('sweep-builder').textContent()).not.toMatch(/\b(axes|fixed|derived)\.\w|Unit "/);
+    await page.close();
+  });
+
+  it('keeps the preview in view while the form scrolls: a summary bar at 1024 × 768, a side panel at 1440', async () => {
+    for (const [width, testId] of [
+      [1024, 'preview-summary'],
+      [1440, 'preview-side'],
+    ] as const) {
+      const ctx = await browser.newContext({ viewport: { width, height: 768 } });
+      const page = await ctx.newPage();
+      await signIn(page, server.baseUrl);
+      await page.goto(server.baseUrl + '/sweeps/new');
+      await page.getByTestId('load-example').click();
+      await page.getByTestId('example-deuterium-edge-grid.json').click();
+      // Scroll to the last field of the form, as someone filling it in would.
+      await page.getByTestId('sweep-tags').scrollIntoViewIfNeeded();
+      await page.getByTestId('sweep-tags').click();
+      const box = await page.getByTestId(testId).boundingBox();
+      expect(box, `${testId} at ${width}`).not.toBeNull();
+      expect(box!.y, `${testId} top at ${width}`).toBeGreaterThanOrEqual(0);
+      expect(box!.y + Math.min(box!.height, 120), `${testId} at ${width}`).toBeLessThanOrEqual(768);
+      if (width === 1024) {
+        await expect
+          .poll(() => page.getByTestId('summary-points').textContent(), { timeout: 10000 })
+          .toBe('13,950 points');
+        await page.getByTestId('summary-quota').waitFor({ timeout: 15000 });
+        // The sample point's flag count matches the full preview below the form.
+        const flags = await page.getByTestId('preview-sample').getByTestId('flags').getAttribute('data-count');
+        expect(await page.getByTestId('summary-flags').getAttribute('data-count')).toBe(flags);
+      } else {
+        expect(await page.getByTestId('preview-summary').isVisible()).toBe(false);
+        expect(await page.getByTestId('submit-sweep').isVisible()).toBe(true);
+        const submit = await page.getByTestId('submit-sweep').boundingBox();
+        expect(submit!.y + submit!.height).toBeLessThanOrEqual(768);
+      }
+      await ctx.close();
+    }
   });
 });

@@ -113,15 +113,16 @@ describe('QuotasService', () => {
     expect(v.violations).toEqual([
       {
         limit: 'maxPointsPerSweep',
+        label: 'Points per sweep',
         value: 1000,
-        usage: 1001,
+        usage: 0,
         requested: 1001,
-        message: 'maxPointsPerSweep is 1,000 points; this sweep has 1,001',
+        message: 'limit 1,000 points; this sweep has 1,001',
       },
     ]);
     expect(() => quotas.assertAllowed(rosa, 'researcher', 1550)).toThrow(QuotaError);
     expect(() => quotas.assertAllowed(rosa, 'researcher', 1550)).toThrow(
-      'maxPointsPerSweep is 1,000 points; this sweep has 1,550',
+      'Quota exceeded — Points per sweep: limit 1,000 points; this sweep has 1,550',
     );
   });
 
@@ -169,11 +170,10 @@ describe('QuotasService', () => {
     expect(v.violations[0]).toMatchObject({
       value: 2,
       usage: 2,
-      message: 'maxRunningSweeps is 2; you already have 2 queued or running',
+      label: 'Sweeps queued or running at once',
+      message: 'limit 2; 2 already queued or running; this sweep would add 1',
     });
-    expect(v.violations[1]!.message).toBe(
-      'maxPointsPer30Days is 1,000 points; you have used 700 in the last 30 days and this sweep has 301',
-    );
+    expect(v.violations[1]!.message).toBe('limit 1,000 points; 700 used in the last 30 days; this sweep would add 301');
     const stored = quotas.verdict(rosa, 'researcher', 501).violations.find((x) => x.limit === 'maxStoredPoints');
     expect(stored).toMatchObject({ value: 1200, usage: 700, requested: 501 });
   });
@@ -232,9 +232,11 @@ describe('QuotasService', () => {
     expect(results.filter((r) => r.status === 'fulfilled')).toHaveLength(3);
     const refused = results.filter((r): r is PromiseRejectedResult => r.status === 'rejected');
     expect(refused).toHaveLength(7);
-    expect(refused.every((r) => r.reason instanceof QuotaError && /maxRunningSweeps is 3/.test(r.reason.message))).toBe(
-      true,
-    );
+    expect(
+      refused.every(
+        (r) => r.reason instanceof QuotaError && /Sweeps queued or running at once: limit 3;/.test(r.reason.message),
+      ),
+    ).toBe(true);
     expect(quotas.usage(rosa).runningSweeps).toBe(3);
   });
 

@@ -1,30 +1,26 @@
-import type { Quota, QuotaKey, QuotaUsage, QuotaViolation } from '@driftgrid/domain';
+import { QUOTA_LABELS, type Quota, type QuotaKey, type QuotaUsage, type QuotaViolation } from '@driftgrid/domain';
 
 const fmt = (n: number) => n.toLocaleString('en-US');
 
 /**
- * Each limit against the usage plus the requested sweep. Per sweep the "usage" is the sweep's own
- * size; for running sweeps the request counts as one more sweep.
+ * Each limit against the usage plus the requested sweep, in the admin's words (QUOTA_LABELS): what
+ * is already used and what this sweep would add are said separately. The per-sweep limit has no
+ * usage; for running sweeps the request counts as one more sweep.
  */
 export function findViolations(quota: Quota, usage: QuotaUsage, points: number): QuotaViolation[] {
   const out: QuotaViolation[] = [];
   const add = (limit: QuotaKey, used: number, requested: number, message: string) =>
-    out.push({ limit, value: quota[limit], usage: used, requested, message });
+    out.push({ limit, label: QUOTA_LABELS[limit].label, value: quota[limit], usage: used, requested, message });
 
   if (points > quota.maxPointsPerSweep) {
-    add(
-      'maxPointsPerSweep',
-      points,
-      points,
-      `maxPointsPerSweep is ${fmt(quota.maxPointsPerSweep)} points; this sweep has ${fmt(points)}`,
-    );
+    add('maxPointsPerSweep', 0, points, `limit ${fmt(quota.maxPointsPerSweep)} points; this sweep has ${fmt(points)}`);
   }
   if (usage.runningSweeps + 1 > quota.maxRunningSweeps) {
     add(
       'maxRunningSweeps',
       usage.runningSweeps,
       1,
-      `maxRunningSweeps is ${fmt(quota.maxRunningSweeps)}; you already have ${fmt(usage.runningSweeps)} queued or running`,
+      `limit ${fmt(quota.maxRunningSweeps)}; ${fmt(usage.runningSweeps)} already queued or running; this sweep would add 1`,
     );
   }
   if (usage.pointsLast30Days + points > quota.maxPointsPer30Days) {
@@ -32,7 +28,7 @@ export function findViolations(quota: Quota, usage: QuotaUsage, points: number):
       'maxPointsPer30Days',
       usage.pointsLast30Days,
       points,
-      `maxPointsPer30Days is ${fmt(quota.maxPointsPer30Days)} points; you have used ${fmt(usage.pointsLast30Days)} in the last 30 days and this sweep has ${fmt(points)}`,
+      `limit ${fmt(quota.maxPointsPer30Days)} points; ${fmt(usage.pointsLast30Days)} used in the last 30 days; this sweep would add ${fmt(points)}`,
     );
   }
   if (usage.storedPoints + points > quota.maxStoredPoints) {
@@ -40,8 +36,13 @@ export function findViolations(quota: Quota, usage: QuotaUsage, points: number):
       'maxStoredPoints',
       usage.storedPoints,
       points,
-      `maxStoredPoints is ${fmt(quota.maxStoredPoints)} points; you store ${fmt(usage.storedPoints)} and this sweep has ${fmt(points)}`,
+      `limit ${fmt(quota.maxStoredPoints)} points; ${fmt(usage.storedPoints)} stored; this sweep would add ${fmt(points)}`,
     );
   }
   return out;
+}
+
+/** "Points per sweep: limit 1,000 points; this sweep has 13,950" — one refusal as a sentence. */
+export function violationSentence(v: QuotaViolation): string {
+  return `${v.label}: ${v.message}`;
 }

@@ -17,7 +17,7 @@ import { AuditService } from '../admin/audit.service.js';
 import { Clock } from '../common/clock.js';
 import { UsersRepository } from '../users/users.repository.js';
 import { DEFAULT_ROLE_QUOTAS } from './quota-defaults.js';
-import { findViolations } from './quota-messages.js';
+import { findViolations, violationSentence } from './quota-messages.js';
 import { QuotasRepository, type OverrideFields } from './quotas.repository.js';
 
 export const ROLLING_WINDOW_MS = 30 * 24 * 3600_000;
@@ -90,8 +90,8 @@ export class QuotasService implements OnModuleInit {
     const v = this.verdict(userId, role, points);
     if (v.allowed) return;
     throw new QuotaError(
-      `Quota exceeded: ${v.violations.map((x) => x.message).join('; ')}`,
-      v.violations.map((x) => ({ path: x.limit, message: x.message })),
+      `Quota exceeded — ${v.violations.map(violationSentence).join('; ')}`,
+      v.violations.map((x) => ({ path: x.limit, label: x.label, message: x.message })),
     );
   }
 

@@ -3,6 +3,7 @@ import {
   ConflictError,
   checkSweep,
   planChunks,
+  summariseSweepErrors,
   ValidationError,
   type CompiledSweep,
   type ErrorDetail,
@@ -93,11 +94,7 @@ export class SweepsService {
     opts: { enforceQuota?: boolean } = {},
   ): Promise<{ id: number; status: string; points: number }> {
     const checked = checkSweep(raw);
-    if (!checked.ok)
-      throw new ValidationError(
-        `Invalid sweep definition: ${checked.errors[0].path}: ${checked.errors[0].message}`,
-        checked.errors,
-      );
+    if (!checked.ok) throw new ValidationError(summariseSweepErrors(checked.errors), checked.errors);
     // The raw body is stored as the definition, so nothing unchecked may ride along in it.
     const unknown = unknownKeys(raw, checked.compiled.definition);
     if (unknown.length)

@@ -6,6 +6,14 @@ import { emailSchema, passwordSchema, ROLE_NAMES, type PublicUser, type RoleName
 export const QUOTA_KEYS = ['maxPointsPerSweep', 'maxRunningSweeps', 'maxPointsPer30Days', 'maxStoredPoints'] as const;
 export type QuotaKey = (typeof QUOTA_KEYS)[number];
 
+/** Each limit as the admin page, the builder and the api's refusals name it. */
+export const QUOTA_LABELS: Record<QuotaKey, { label: string; unit: string }> = {
+  maxPointsPerSweep: { label: 'Points per sweep', unit: 'points' },
+  maxRunningSweeps: { label: 'Sweeps queued or running at once', unit: 'sweeps' },
+  maxPointsPer30Days: { label: 'Points per rolling 30 days', unit: 'points' },
+  maxStoredPoints: { label: 'Stored points', unit: 'points' },
+};
+
 /** Upper bound for any quota value: far above any sweep a server can hold, below 2^53. */
 export const QUOTA_MAX = 1_000_000_000_000;
 
@@ -50,9 +58,14 @@ export interface QuotaUsage {
 
 export interface QuotaViolation {
   limit: QuotaKey;
+  /** QUOTA_LABELS[limit].label: "Points per sweep". */
+  label: string;
   value: number;
+  /** What is already used before this sweep (0 for the per-sweep limit: nothing is used up front). */
   usage: number;
+  /** What this sweep would add. */
   requested: number;
+  /** Completes the label: "limit 1,000 points; this sweep has 13,950". */
   message: string;
 }
 

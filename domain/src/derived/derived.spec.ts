@@ -55,9 +55,9 @@ describe('compileDerived', () => {
   it('rejects unknown symbols naming them', () => {
     const [d] = detailsOf(() => compileDerived([{ name: 'x', expr: 'vE_ms / v_Di' }], symbols));
     expect(d!.path).toBe('derived.0.expr');
-    expect(d!.message).toMatch(/unknown symbol "v_Di"/);
+    expect(d!.message).toMatch(/unknown input or output `v_Di`; did you mean `vDi_ms`\?/);
     const [u] = detailsOf(() => compileDerived([{ name: 'x', expr: 'Te_eV * 1 cm' }], symbols));
-    expect(u!.message).toMatch(/unknown symbol "cm"/);
+    expect(u!.message).toMatch(/unknown input or output `cm`/);
     const [e] = detailsOf(() => compileDerived([{ name: 'x', expr: 'e * phi' }], symbols));
     expect(e!.message).toMatch(/"e" is ambiguous/);
   });
@@ -124,7 +124,9 @@ describe('compileExpression', () => {
         ]),
       ),
     ).toBeCloseTo(Math.PI + 3, 14);
-    expect(() => compileExpression('Ti_eV', ['Te_eV'], 'fixed.Ti_eV')).toThrow(/fixed.Ti_eV.*unknown symbol "Ti_eV"/);
+    expect(() => compileExpression('Ti_eV', ['Te_eV'], 'fixed.Ti_eV')).toThrow(
+      /fixed.Ti_eV.*unknown input or output `Ti_eV`; did you mean `Te_eV`\?/,
+    );
     expect(() => compileExpression('  ', ['Te_eV'], 'fixed.Ti_eV')).toThrow(/non-empty/);
   });
 });

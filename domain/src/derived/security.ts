@@ -9,6 +9,7 @@
  * (`import`, `createUnit`, `evaluate`, `parse`, `compile`, `simplify`, `derivative`, …).
  * Compiled expressions are evaluated with a scope that holds only numbers.
  */
+import { unknownSymbolMessage } from '../suggest.js';
 import type { MathNode } from 'mathjs';
 import { ValidationError, type ErrorDetail } from '../errors.js';
 import { ambiguousSymbol, EXPRESSION_CONSTANT_NAMES, EXPRESSION_CONSTANT_VALUES } from '../expression-constants.js';
@@ -144,13 +145,7 @@ function check(
       else if (ambiguousSymbol(name)) errors.push(problem(path, ambiguousSymbol(name)!));
       else if (ALLOWED_FUNCTIONS.has(name) || BLOCKED_FUNCTIONS.has(name))
         errors.push(problem(path, `"${name}" is a function, not a value`));
-      else
-        errors.push(
-          problem(
-            path,
-            `unknown symbol "${name}"; allowed symbols: ${[...allowed].join(', ')}${allowed.size ? ', ' : ''}pi and the physical constants ${[...EXPRESSION_CONSTANT_NAMES].join(', ')}`,
-          ),
-        );
+      else errors.push(problem(path, unknownSymbolMessage(name, [...allowed, 'pi', ...EXPRESSION_CONSTANT_NAMES])));
       return;
     }
     case 'ParenthesisNode':

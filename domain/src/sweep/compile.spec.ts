@@ -210,13 +210,62 @@ describe('compileSweep: errors with paths', () => {
       ],
       thresholds: { beta_max: 1, bogus: 2 },
     });
-    expect(errors['fixed.B_T']).toMatch(/also swept by axes.1/);
-    expect(errors['fixed.Tx_eV']).toMatch(/not an input of cross-field/);
+    expect(errors['fixed.B_T']).toMatch(/also swept along an axis/);
+    expect(errors['fixed.Tx_eV']).toBe('`Tx_eV` is not an input of Cross-field drifts; did you mean `Te_eV`?');
     expect(errors['axes.1.max']).toMatch(/B_T must be > 0 and ≤ 100 T; got 500/);
-    expect(errors['axes.2.param']).toMatch(/"Lx_m" is not an input/);
-    expect(errors['axes.3.param']).toMatch(/already swept by axes.0/);
+    expect(errors['axes.2.param']).toBe('`Lx_m` is not an input of Cross-field drifts; did you mean `Ln_m`?');
+    expect(errors['axes.3.param']).toBe('T_e is already swept by axis 1');
     expect(errors['axes.4.values.1']).toMatch(/gamma_e must be > 0/);
     expect(errors['thresholds.bogus']).toMatch(/unknown threshold/);
+  });
+
+  it('reports structural and model problems together, each at its own path and label', () => {
+    const r = checkSweep({
+      ...edge,
+      name: '',
+      fixed: { ...(edge.fixed as object), Ti_eV: 'Te_eVV' },
+      axes: [
+        { param: 'Te_eV', kind: 'log', min: '', max: 1000, count: 31 },
+        { param: 'B_T', kind: 'linear', min: 0.1, max: 500, count: 5 },
+      ],
+      derived: [
+        { name: '1bad', expr: 'vE_ms' },
+        { name: 'ok', expr: 'vE_ms / nope' },
+      ],
+    });
+    if (r.ok) throw new Error('expected a rejection');
+    const byPath = Object.fromEntries(r.errors.map((e) => [e.path, e]));
+    expect(Object.keys(byPath).sort()).toEqual(
+      ['axes.0.min', 'axes.1.max', 'derived.0.name', 'derived.1.expr', 'fixed.Ti_eV', 'name'].sort(),
+    );
+    // The B axis is the second axis as written, although the broken first one was set aside.
+    expect(byPath['axes.1.max']).toMatchObject({ label: 'B axis · To', message: expect.stringMatching(/≤ 100 T/) });
+    expect(byPath['axes.0.min']!.label).toBe('T_e axis · From');
+    expect(byPath['name']!.label).toBe('Name');
+    expect(byPath['fixed.Ti_eV']).toMatchObject({
+      label: 'T_i fixed value',
+      message: 'unknown input or output `Te_eVV`; did you mean `Te_eV`?',
+    });
+    expect(byPath['derived.1.expr']).toMatchObject({
+      label: 'Derived column 2 · Expression',
+      message: expect.stringMatching(/unknown input or output `nope`/),
+    });
+    // No message or label carries a JSON path.
+    for (const e of r.errors) expect(`${e.label} ${e.message}`).not.toMatch(/\b(axes|fixed|derived)\.\w/);
+  });
+
+  it('says which name was meant for a misspelt input in a value or an expression', () => {
+    expect(errorsOf({ ...edge, fixed: { ...(edge.fixed as object), Ti_eV: '2*Te_eW' } })['fixed.Ti_eV']).toBe(
+      'unknown input or output `Te_eW`; did you mean `Te_eV`?',
+    );
+    expect(errorsOf({ ...edge, fixed: { ...(edge.fixed as object), Ti_eV: 'Te_eV * Te_eVV' } })['fixed.Ti_eV']).toMatch(
+      /unknown input or output `Te_eVV`; did you mean `Te_eV`\?/,
+    );
+    // A real unit still reads as a quantity; a wrong one says which unit is wanted.
+    expect(compileSweep({ ...edge, fixed: { ...(edge.fixed as object), Ti_eV: '20 eV' } }).totalPoints).toBe(13950);
+    expect(errorsOf({ ...edge, fixed: { ...(edge.fixed as object), Ti_eV: '20 cm' } })['fixed.Ti_eV']).toMatch(
+      /expected a quantity in eV/,
+    );
   });
 
   it('rejects an unknown model', () => {

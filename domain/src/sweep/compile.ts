@@ -8,6 +8,9 @@ import { resolveFixed, type ExpressionSource, type InputSource } from './fixed.j
 import { MAX_POINTS_HARD, MAX_STORED_COLUMNS } from './limits.js';
 import { safeParseSweepDefinition, summarise } from './parse.js';
 import { saltelliPointCount } from './sampling/saltelli.js';
+import { inputSymbol, labelSweepErrors } from './labels.js';
+import { recoverDefinition } from './recover.js';
+import { nearestName } from '../suggest.js';
 import { MAX_SOBOL_DIMENSIONS, MAX_SOBOL_INDEX } from './sampling/sobol.js';
 import type { SweepDefinition } from './schema.js';
 
@@ -78,8 +81,31 @@ export function compileSweep(raw: unknown): CompiledSweep {
 /** As compileSweep, but returns the errors instead of throwing (for previews). */
 export function checkSweep(raw: unknown): { ok: true; compiled: CompiledSweep } | { ok: false; errors: ErrorDetail[] } {
   const parsed = safeParseSweepDefinition(raw);
-  if (!parsed.ok) return { ok: false, errors: parsed.errors };
-  const definition = parsed.definition;
+  if (parsed.ok) {
+    const result = checkDefinition(parsed.definition);
+    return result.ok ? result : { ok: false, errors: labelSweepErrors(result.errors, raw) };
+  }
+  // One structural problem must not hide the others: check what did parse (the broken parts left
+  // out) against the model as well, and report both, each with its own path.
+  const errors = [...parsed.errors];
+  const rest = recoverDefinition(raw, parsed.errors);
+  if (rest) {
+    const more = checkDefinition(rest.definition);
+    if (!more.ok) {
+      const seen = new Set(errors.map((e) => e.path));
+      for (const e of more.errors) {
+        const path = rest.originalPath(e.path);
+        if (!seen.has(path)) errors.push({ ...e, path });
+      }
+    }
+  }
+  return { ok: false, errors: labelSweepErrors(errors, raw) };
+}
+
+/** The model-level checks of a structurally valid definition. */
+function checkDefinition(
+  definition: SweepDefinition,
+): { ok: true; compiled: CompiledSweep } | { ok: false; errors: ErrorDetail[] } {
   const errors: ErrorDetail[] = [];
 
   let model: ModelDefinition;
@@ -100,16 +126,18 @@ export function checkSweep(raw: unknown): { ok: true; compiled: CompiledSweep } 
   const axes: (ResolvedAxis | null)[] = definition.axes.map((axis, i) => {
     const spec = model.inputs.find((s) => s.name === axis.param);
     if (!spec) {
+      const names = model.inputs.map((s) => s.name);
+      const near = nearestName(axis.param, names);
       errors.push({
         path: `axes.${i}.param`,
-        message: `"${axis.param}" is not an input of ${model.id} (inputs: ${model.inputs.map((s) => s.name).join(', ')})`,
+        message: `\`${axis.param}\` is not an input of ${model.title}${near ? `; did you mean \`${near}\`?` : ` (inputs: ${names.join(', ')})`}`,
       });
       return null;
     }
     if (axisOf.has(axis.param)) {
       errors.push({
         path: `axes.${i}.param`,
-        message: `${axis.param} is already swept by axes.${axisOf.get(axis.param)}`,
+        message: `${inputSymbol(model, axis.param)} is already swept by axis ${axisOf.get(axis.param)! + 1}`,
       });
       return null;
     }
@@ -129,7 +157,10 @@ export function checkSweep(raw: unknown): { ok: true; compiled: CompiledSweep } 
 
   const totalPoints = designPoints(definition, axes);
   if (totalPoints > MAX_POINTS_HARD)
-    errors.push({ path: 'axes', message: `${totalPoints} points exceed the limit of ${MAX_POINTS_HARD}` });
+    errors.push({
+      path: 'axes',
+      message: `${totalPoints.toLocaleString('en-US')} points exceed the limit of ${MAX_POINTS_HARD.toLocaleString('en-US')}`,
+    });
   if (definition.sampling.kind === 'sobol') {
     if (axes.length > MAX_SOBOL_DIMENSIONS)
       errors.push({ path: 'axes', message: `Sobol sampling supports at most ${MAX_SOBOL_DIMENSIONS} axes` });

@@ -4,6 +4,9 @@ import { compileExpression } from '../derived/index.js';
 import { checkInputValue } from '../models/index.js';
 import type { ModelDefinition } from '../models/types.js';
 import { parseQuantity } from '../units/index.js';
+import { math } from '../units/math.js';
+import { nearestName, unknownSymbolMessage } from '../suggest.js';
+import { ambiguousSymbol, EXPRESSION_CONSTANT_NAMES } from '../expression-constants.js';
 
 /** How each model input gets its value in a sweep. */
 export type InputSource =
@@ -68,11 +71,15 @@ export function resolveFixed(
     const path = `fixed.${name}`;
     const spec = model.inputs.find((s) => s.name === name);
     if (!spec) {
-      errors.push({ path, message: `is not an input of ${model.id} (inputs: ${inputNames.join(', ')})` });
+      const near = nearestName(name, inputNames);
+      errors.push({
+        path,
+        message: `\`${name}\` is not an input of ${model.title}${near ? `; did you mean \`${near}\`?` : ` (inputs: ${inputNames.join(', ')})`}`,
+      });
       continue;
     }
     if (axisOf.has(name)) {
-      errors.push({ path, message: `is also swept by axes.${axisOf.get(name)}; an input is either fixed or swept` });
+      errors.push({ path, message: `is also swept along an axis; an input is either fixed or swept` });
       continue;
     }
     if (typeof raw === 'number') {
@@ -84,6 +91,22 @@ export function resolveFixed(
     const text = raw.trim();
     const symbols = symbolsOf(text);
     const deps = symbols ? [...symbols].filter((s) => known.has(s)) : [];
+    // A name that is neither an input nor a unit is a typo of an input far more often than an unknown
+    // unit: say so instead of the unit parser's 'Unit "Te" not found'.
+    const stranger = symbols
+      ? [...symbols].find(
+          (s) =>
+            !known.has(s) &&
+            !math.Unit.isValuelessUnit(s) &&
+            !EXPRESSION_CONSTANT_NAMES.has(s) &&
+            s !== 'pi' &&
+            ambiguousSymbol(s) === null,
+        )
+      : undefined;
+    if (stranger !== undefined) {
+      errors.push({ path, message: unknownSymbolMessage(stranger, inputNames) });
+      continue;
+    }
     if (deps.length === 0) {
       try {
         const value = parseQuantity(path, text, spec.unit);
@@ -167,10 +190,10 @@ function topologicalOrder(sources: InputSource[], errors: ErrorDetail[]): Expres
   }
   const cyclic = [...pending].filter(([, k]) => k > 0).map(([n]) => n);
   for (const name of cyclic) {
-    const others = cyclic.filter((n) => n !== name).map((n) => `fixed.${n}`);
+    const others = cyclic.filter((n) => n !== name);
     errors.push({
       path: `fixed.${name}`,
-      message: `expressions form a cycle (${[`fixed.${name}`, ...others].join(' → ')}); break it with a number or an axis`,
+      message: `expressions form a cycle (${[name, ...others].join(' → ')}); break it with a number or an axis`,
     });
   }
   return order;

@@ -14,7 +14,13 @@ export {
   type SweepSampling,
   type SweepDerived,
 } from './schema.js';
-export { parseSweepDefinition, safeParseSweepDefinition, issuesToDetails } from './parse.js';
+export {
+  parseSweepDefinition,
+  safeParseSweepDefinition,
+  issuesToDetails,
+  summarise as summariseSweepErrors,
+} from './parse.js';
+export { sweepFieldLabel, labelSweepErrors, inputSymbol } from './labels.js';
 export {
   compileSweep,
   checkSweep,

@@ -1,5 +1,6 @@
 import type { z } from 'zod';
 import { ValidationError, type ErrorDetail } from '../errors.js';
+import { labelSweepErrors } from './labels.js';
 import { sweepDefinitionSchema, type SweepDefinition } from './schema.js';
 
 /** zod issues as ErrorDetails with dot paths (`axes.1.max`). */
@@ -22,7 +23,10 @@ export function safeParseSweepDefinition(
 /** Structural validation; throws ValidationError listing every problem. */
 export function parseSweepDefinition(raw: unknown): SweepDefinition {
   const result = safeParseSweepDefinition(raw);
-  if (!result.ok) throw new ValidationError(summarise(result.errors), result.errors);
+  if (!result.ok) {
+    const errors = labelSweepErrors(result.errors, raw);
+    throw new ValidationError(summarise(errors), errors);
+  }
   return result.definition;
 }
 
@@ -30,5 +34,5 @@ export function summarise(errors: readonly ErrorDetail[]): string {
   const first = errors[0];
   if (!first) return 'The sweep definition is invalid';
   const more = errors.length > 1 ? ` (and ${errors.length - 1} more)` : '';
-  return `Invalid sweep definition: ${first.path} ${first.message}${more}`;
+  return `Invalid sweep definition: ${first.label ?? first.path}: ${first.message}${more}`;
 }

@@ -56,7 +56,10 @@ export function parseQuantity(field: string, value: number | string, unit: strin
   try {
     parsed = math.unit(text) as Unit;
   } catch (err) {
-    fail(field, unit, value, (err as Error).message);
+    // mathjs says 'Unit "abc" not found.'; the user reads "unknown unit `abc`".
+    const raw = (err as Error).message;
+    const unknownUnit = /^Unit "([^"]+)" not found/.exec(raw);
+    fail(field, unit, value, unknownUnit ? `unknown unit \`${unknownUnit[1]}\`` : raw.replace(/\.$/, ''));
   }
   if (parsed.value === null) fail(field, unit, value, 'no number given');
 

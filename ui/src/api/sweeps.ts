@@ -4,7 +4,7 @@
  * queryOptions() factory so a component can prefetch or share the exact query a hook runs.
  */
 import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { HeatmapSeries, LineSeries, SweepSummary } from '@driftgrid/domain';
+import type { ErrorDetail, HeatmapSeries, LineSeries, QuotaVerdict, SweepSummary } from '@driftgrid/domain';
 import { api, ApiError, type Page, type Query } from './client.js';
 import { afterSuccess, type MutationHandlers } from './mutations.js';
 import { queryKeys } from './queryKeys.js';
@@ -72,14 +72,13 @@ export interface ResultsPage {
 /** The server's verdict from POST /api/sweeps/preview. */
 export interface ServerPreview {
   ok: boolean;
-  errors: { path: string; message: string }[];
+  /** Each with the field's label (`T_e axis · From`) beside the machine path. */
+  errors: ErrorDetail[];
   points: number | null;
   chunks: number | null;
   estimate: { seconds: number; kernelPointsPerSecond: number; persistRowsPerSecond: number } | null;
-  quota: {
-    allowed: boolean;
-    violations: { limit: string; value: number; usage: number; requested: number; message: string }[];
-  } | null;
+  /** Violations carry the admin's label of each limit. */
+  quota: QuotaVerdict | null;
 }
 
 /** One row of the archived-sweeps list (Downloads). */

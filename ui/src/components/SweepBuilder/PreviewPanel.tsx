@@ -12,7 +12,8 @@ export interface PreviewPanelProps {
   compiled: CompiledSweep | null;
   sample: PointEvaluation | null;
   sampleError: string | null;
-  localErrors: { path: string; message: string }[];
+  /** Problems shown beside their fields, each with the field's label. */
+  localErrors: { path: string; label?: string; message: string }[];
   server: ServerPreview | undefined;
   serverLoading: boolean;
   serverError: string | null;
@@ -41,7 +42,7 @@ export function PreviewPanel({
   const violations = server?.quota?.violations ?? [];
   const me = useMe();
   return (
-    <Paper withBorder p="md" radius="sm" data-testid="sweep-preview">
+    <Paper withBorder p="md" radius="sm" data-testid="sweep-preview" id="sweep-preview">
       <Stack gap="sm">
         <Title order={2} fz="h4">
           Preview
@@ -57,8 +58,8 @@ export function PreviewPanel({
             <Stack gap={2}>
               {localErrors.map((e, i) => (
                 <Text fz="xs" key={i}>
-                  <Text span ff="monospace" fz="xs" fw={600}>
-                    {e.path || 'definition'}
+                  <Text span fz="xs" fw={600}>
+                    {e.label ?? 'Sweep definition'}:
                   </Text>{' '}
                   {e.message}
                 </Text>
@@ -135,9 +136,8 @@ export function PreviewPanel({
                 >
                   <Stack gap={2}>
                     {violations.map((v) => (
-                      <Text fz="sm" key={v.limit} data-testid="quota-violation">
-                        <strong>{v.limit}</strong>: limit {formatCount(v.value)}, used {formatCount(v.usage)}, this
-                        sweep {formatCount(v.requested)} — {v.message}
+                      <Text fz="sm" key={v.limit} data-testid="quota-violation" data-limit={v.limit}>
+                        <strong>{v.label}</strong>: {v.message}.
                       </Text>
                     ))}
                   </Stack>

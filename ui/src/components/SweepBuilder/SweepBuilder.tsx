@@ -1,6 +1,7 @@
 import {
   ActionIcon,
   Alert,
+  Box,
   Button,
   FileButton,
   Grid,
@@ -37,9 +38,12 @@ import {
   axisNames,
   choiceOf,
   errorsByField,
+  fieldGroupOf,
+  fieldKeyOf,
   fromDefinition,
   initialState,
   modelOf,
+  shownErrors,
   toDefinition,
   type BuilderState,
   type InputChoice,
@@ -48,6 +52,8 @@ import {
 import { exampleDefinitions } from './examples.js';
 import { InputRow } from './InputRow.js';
 import { PreviewPanel } from './PreviewPanel.js';
+import { PreviewSummary } from './PreviewSummary.js';
+import classes from './SweepBuilder.module.css';
 
 function slug(name: string): string {
   return (
@@ -82,6 +88,11 @@ export function SweepBuilder() {
   const navigate = useNavigate();
   const [state, setState, draft] = useDraft<BuilderState>('sweep-builder', initialState());
   const [importError, setImportError] = useState<string | null>(null);
+  // Parts of the form edited so far; their errors show at once. Everything shows after a submit
+  // attempt, an import or a restored draft.
+  const [edited, setEdited] = useState<ReadonlySet<string>>(() => new Set());
+  const [showAll, setShowAll] = useState(draft.restored);
+  const touch = (group: string) => setEdited((prev) => (prev.has(group) ? prev : new Set(prev).add(group)));
   const model = modelOf(state) ?? models[0]!;
   const definition = useMemo(() => toDefinition(state), [state]);
 
@@ -129,15 +140,20 @@ export function SweepBuilder() {
         : {},
     [submitError, state],
   );
-  const fieldErrors = { ...serverFieldErrors, ...localFieldErrors };
+  const fieldErrors = shownErrors({ ...serverFieldErrors, ...localFieldErrors }, edited, showAll);
+  // The same problems, listed in the preview with their labels.
+  const listedErrors = local.errors.filter((e) => showAll || edited.has(fieldGroupOf(fieldKeyOf(e.path, state))));
   const quotaRefused = preview.data?.quota && !preview.data.quota.allowed;
-  const canSubmit = local.compiled !== null && !submit.isPending && !quotaRefused;
+  const canSubmit = !submit.isPending && !quotaRefused;
 
   const onSubmit = () => {
     if (!canSubmit) return;
-    // Submit exactly what is on screen now, not the debounced copy.
+    // Submit exactly what is on screen now, not the debounced copy; problems not shown yet appear.
     const res = checkSweep(definition);
-    if (!res.ok) return;
+    if (!res.ok) {
+      setShowAll(true);
+      return;
+    }
     submit.mutate(definition);
   };
   const onKeyDown = (e: KeyboardEvent) => {
@@ -147,8 +163,13 @@ export function SweepBuilder() {
     }
   };
 
-  const update = (patch: Partial<BuilderState>) => setState((s) => ({ ...s, ...patch }));
-  const setChoice = (name: string, next: InputChoice) =>
+  const update = (patch: Partial<BuilderState>) => {
+    for (const k of Object.keys(patch)) touch(k);
+    setState((s) => ({ ...s, ...patch }));
+  };
+  const setChoice = (name: string, next: InputChoice) => {
+    touch(`input.${name}`);
+    touch('axes');
     setState((s) => {
       const prev = s.inputs[s.model]?.[name];
       const order = (s.axisOrder[s.model] ?? []).filter((n) => n !== name);
@@ -161,9 +182,15 @@ export function SweepBuilder() {
         axisOrder: { ...s.axisOrder, [s.model]: axisOrder },
       };
     });
+  };
+  const setDerived = (i: number, patch: Partial<{ name: string; expr: string }>) => {
+    touch(`derived.${i}`);
+    setState((s) => ({ ...s, derived: s.derived.map((x, k) => (k === i ? { ...x, ...patch } : x)) }));
+  };
   const load = (raw: unknown) => {
     try {
       setState(fromDefinition(raw));
+      setShowAll(true);
       setImportError(null);
       submit.reset();
     } catch (err) {
@@ -242,6 +269,8 @@ export function SweepBuilder() {
             onClick={() => {
               draft.clear();
               submit.reset();
+              setEdited(new Set());
+              setShowAll(false);
             }}
           >
             Start over
@@ -268,6 +297,15 @@ export function SweepBuilder() {
 
       <Grid gutter="lg">
         <Grid.Col span={{ base: 12, lg: 7 }}>
+          <Box hiddenFrom="lg" mb="md" className={classes.summary}>
+            <PreviewSummary
+              points={local.compiled?.totalPoints ?? null}
+              problems={listedErrors.length}
+              server={local.compiled ? preview.data : undefined}
+              serverLoading={preview.isFetching || (local.compiled !== null && !serverEnabled)}
+              sampleFlags={local.sample ? local.sample.flags.length : null}
+            />
+          </Box>
           <Stack gap="md">
             <Paper withBorder p="md" radius="sm">
               <Stack gap="sm">
@@ -422,11 +460,7 @@ export function SweepBuilder() {
                       aria-label={`Derived column ${i + 1} name`}
                       data-testid={`derived-name-${i}`}
                       value={d.name}
-                      onChange={(e) =>
-                        update({
-                          derived: state.derived.map((x, k) => (k === i ? { ...x, name: e.currentTarget.value } : x)),
-                        })
-                      }
+                      onChange={(e) => setDerived(i, { name: e.currentTarget.value })}
                       error={fieldErrors[`derived.${i}.name`]}
                     />
                     <TextInput
@@ -436,11 +470,7 @@ export function SweepBuilder() {
                       aria-label={`Derived column ${i + 1} expression`}
                       data-testid={`derived-expr-${i}`}
                       value={d.expr}
-                      onChange={(e) =>
-                        update({
-                          derived: state.derived.map((x, k) => (k === i ? { ...x, expr: e.currentTarget.value } : x)),
-                        })
-                      }
+                      onChange={(e) => setDerived(i, { expr: e.currentTarget.value })}
                       error={fieldErrors[`derived.${i}.expr`] ?? fieldErrors[`derived.${i}`]}
                       spellCheck={false}
                     />
@@ -501,41 +531,41 @@ export function SweepBuilder() {
           </Stack>
         </Grid.Col>
         <Grid.Col span={{ base: 12, lg: 5 }}>
-          <div style={{ position: 'sticky', top: 12 }}>
-            <Stack gap="sm">
+          <div className={classes.side} data-testid="preview-side">
+            <div className={classes.sideScroll}>
               <PreviewPanel
                 compiled={local.compiled}
                 sample={local.sample}
                 sampleError={local.sampleError}
-                localErrors={local.errors}
+                localErrors={listedErrors}
                 server={local.compiled ? preview.data : undefined}
                 serverLoading={preview.isFetching || (local.compiled !== null && !serverEnabled)}
                 serverError={preview.error instanceof Error ? preview.error.message : null}
               />
-              {submitError ? (
-                <Alert
-                  color="red"
-                  variant="light"
-                  title={submitError.status === 429 ? 'Refused by your quota' : 'The server did not accept the sweep'}
-                  data-testid="submit-error"
-                >
-                  {submitError.message}
-                </Alert>
-              ) : null}
-              <Button
-                type="submit"
-                size="md"
-                leftSection={<IconPlayerPlay size={18} />}
-                disabled={!canSubmit}
-                loading={submit.isPending}
-                data-testid="submit-sweep"
+            </div>
+            {submitError ? (
+              <Alert
+                color="red"
+                variant="light"
+                title={submitError.status === 429 ? 'Refused by your quota' : 'The server did not accept the sweep'}
+                data-testid="submit-error"
               >
-                Submit sweep
-              </Button>
-              <Text fz="xs" c="dimmed" ta="center">
-                Ctrl+Enter submits from any field. Your input is kept as a draft until you submit.
-              </Text>
-            </Stack>
+                {submitError.message}
+              </Alert>
+            ) : null}
+            <Button
+              type="submit"
+              size="md"
+              leftSection={<IconPlayerPlay size={18} />}
+              disabled={!canSubmit}
+              loading={submit.isPending}
+              data-testid="submit-sweep"
+            >
+              Submit sweep
+            </Button>
+            <Text fz="xs" c="dimmed" ta="center">
+              Ctrl+Enter submits from any field. Your input is kept as a draft until you submit.
+            </Text>
           </div>
         </Grid.Col>
       </Grid>

@@ -217,3 +217,26 @@ export function errorsByField(
   }
   return out;
 }
+
+/**
+ * The part of the form a field key belongs to, for "edited yet?": `input.Te_eV.min` → `input.Te_eV`,
+ * `derived.0.expr` → `derived.0`, `sampling.samples` → `sampling`, `tags.2` → `tags`.
+ */
+export function fieldGroupOf(key: string): string {
+  const parts = key.split('.');
+  if (parts[0] === 'input' || parts[0] === 'derived') return parts.slice(0, 2).join('.');
+  return parts[0] ?? key;
+}
+
+/**
+ * Errors for the parts of the form already edited (or all of them once the user tried to submit or
+ * loaded a definition): an untouched empty form does not greet anyone with "must not be empty".
+ */
+export function shownErrors(
+  byField: Record<string, string>,
+  edited: ReadonlySet<string>,
+  showAll: boolean,
+): Record<string, string> {
+  if (showAll) return byField;
+  return Object.fromEntries(Object.entries(byField).filter(([k]) => edited.has(fieldGroupOf(k))));
+}
