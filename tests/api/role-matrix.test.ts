@@ -30,6 +30,7 @@ export const ROLE_MATRIX: Record<string, Who> = {
   'POST /api/auth/password': ALL,
   'POST /api/tokens': ALL,
   'GET /api/tokens': ALL,
+  'GET /api/tokens/active': ALL,
   'DELETE /api/tokens/{id}': ALL,
   'POST /api/admin/invitations': ADMIN,
   'GET /api/admin/invitations': ADMIN,

@@ -7,6 +7,7 @@ import {
   type PasswordResetConfirm,
   type PasswordResetRequest,
   type LoginResponse,
+  type TokensRevoked,
 } from '@driftgrid/domain';
 import type { AuthUser } from '../auth/current-user.js';
 import { PasswordService } from '../auth/password.service.js';
@@ -16,6 +17,7 @@ import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
 import { DB_HANDLE } from '../db/db.module.js';
 import type { OpenedDatabase } from '../db/database.js';
 import { MailService } from '../mail/mail.service.js';
+import { TokensRepository } from '../tokens/tokens.repository.js';
 import { passwordResetMail } from '../mail/templates.js';
 import { UsersRepository } from '../users/users.repository.js';
 import { AccountsRepository } from './accounts.repository.js';
@@ -38,6 +40,7 @@ export class PasswordsService {
     private readonly mail: MailService,
     private readonly clock: Clock,
     private readonly auth: AuthService,
+    private readonly tokens: TokensRepository,
   ) {}
 
   /**
@@ -64,7 +67,8 @@ export class PasswordsService {
     return { message: PASSWORD_RESET_ACCEPTED };
   }
 
-  async confirmReset(req: PasswordResetConfirm): Promise<{ message: string }> {
+  /** A reset is the "I lost control" path: it also revokes every personal API token. */
+  async confirmReset(req: PasswordResetConfirm): Promise<{ message: string } & TokensRevoked> {
     const check = () => {
       const reset = this.repo.resetByHash(sha256Hex(req.token));
       const field = (message: string) => new ValidationError(message, [{ path: 'token', message }]);
@@ -79,7 +83,7 @@ export class PasswordsService {
     };
     check();
     const passwordHash = await this.passwords.hash(req.password);
-    this.handle.sqlite.transaction(() => {
+    const tokensRevoked = this.handle.sqlite.transaction(() => {
       const user = check();
       const now = this.clock.now();
       this.users.update(user.id, {
@@ -91,12 +95,19 @@ export class PasswordsService {
         sessionVersion: user.sessionVersion + 1,
       });
       this.repo.useResets(user.id, now);
+      return this.tokens.revokeAllForUser(user.id, now);
     })();
-    return { message: 'Your password has been changed; sign in with the new one' };
+    return {
+      message: `Your password has been changed${revokedWords(tokensRevoked)}; sign in with the new one`,
+      tokensRevoked,
+    };
   }
 
   /** Ends the user's other sessions and returns a fresh one for the caller. */
-  async change(user: AuthUser, req: ChangePasswordRequest): Promise<{ message: string } & LoginResponse> {
+  async change(
+    user: AuthUser,
+    req: ChangePasswordRequest,
+  ): Promise<{ message: string } & TokensRevoked & LoginResponse> {
     if (user.via !== 'session')
       throw new ForbiddenError('Change your password when signed in with it, not with an API token');
     const row = this.users.findById(user.id);
@@ -108,18 +119,25 @@ export class PasswordsService {
     const passwordHash = await this.passwords.hash(req.next);
     const now = this.clock.now();
     // Read and raise the session version in one synchronous transaction (no lost increment).
-    const updated = this.handle.sqlite.transaction(() => {
+    const { updated, tokensRevoked } = this.handle.sqlite.transaction(() => {
       const fresh = this.users.findById(user.id)!;
-      return this.users.update(user.id, {
+      const row = this.users.update(user.id, {
         passwordHash,
         updatedAt: now,
         sessionsValidAfter: now,
         sessionVersion: fresh.sessionVersion + 1,
       })!;
+      return { updated: row, tokensRevoked: req.revokeTokens ? this.tokens.revokeAllForUser(user.id, now) : 0 };
     })();
     return {
-      message: 'Your password has been changed; your other sessions have been signed out',
+      message: `Your password has been changed; your other sessions have been signed out${revokedWords(tokensRevoked)}`,
+      tokensRevoked,
       ...this.auth.issue(updated),
     };
   }
+}
+
+function revokedWords(n: number): string {
+  if (n === 0) return '';
+  return n === 1 ? ' and your 1 personal API token was revoked' : ` and your ${n} personal API tokens were revoked`;
 }

@@ -84,7 +84,7 @@ export function passwordResetMail(opts: {
         `someone (hopefully you) asked to reset the password of your ${PRODUCT} account.`,
       ],
       action: { label: 'Choose a new password', url: opts.url },
-      footnote: `The link works once and expires in ${opts.expiresInMinutes} minutes. If you did not ask for this, ignore this message: your password stays as it is.`,
+      footnote: `The link works once and expires in ${opts.expiresInMinutes} minutes. Choosing a new password with it also revokes all your personal API tokens (scripts using them must get new ones), in case someone else had them. If you did not ask for this, ignore this message: your password and tokens stay as they are.`,
     }),
   };
 }

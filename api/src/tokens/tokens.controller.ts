@@ -28,6 +28,12 @@ export class TokensController {
     return this.tokens.list(user, q);
   }
 
+  @Get('active')
+  @ApiOperation({ summary: 'How many of your tokens are active (not revoked, not expired)' })
+  active(@CurrentUser() user: AuthUser) {
+    return this.tokens.activeCount(user);
+  }
+
   @Delete(':id')
   @ApiOperation({ summary: 'Revoke one of your tokens' })
   revoke(@CurrentUser() user: AuthUser, @Param('id', new IdParamPipe()) id: number) {

@@ -1,5 +1,5 @@
 import { Inject, Injectable } from '@nestjs/common';
-import { and, count, desc, eq, isNull } from 'drizzle-orm';
+import { and, count, desc, eq, gt, isNull, or } from 'drizzle-orm';
 import { DB } from '../db/db.module.js';
 import type { Db } from '../db/database.js';
 import { apiTokens, users } from '../db/schema.js';
@@ -55,6 +55,34 @@ export class TokensRepository {
       .innerJoin(users, eq(users.id, apiTokens.userId))
       .where(eq(apiTokens.tokenHash, hash))
       .get();
+  }
+
+  /** Tokens that still open the api: not revoked and not expired. */
+  countActive(userId: number, now: number): number {
+    return (
+      this.db
+        .select({ n: count() })
+        .from(apiTokens)
+        .where(
+          and(
+            eq(apiTokens.userId, userId),
+            isNull(apiTokens.revokedAt),
+            or(isNull(apiTokens.expiresAt), gt(apiTokens.expiresAt, now)),
+          ),
+        )
+        .get()?.n ?? 0
+    );
+  }
+
+  /** Revokes every unrevoked token of the user; returns how many were still active (unexpired). */
+  revokeAllForUser(userId: number, now: number): number {
+    const active = this.countActive(userId, now);
+    this.db
+      .update(apiTokens)
+      .set({ revokedAt: now })
+      .where(and(eq(apiTokens.userId, userId), isNull(apiTokens.revokedAt)))
+      .run();
+    return active;
   }
 
   revoke(id: number, now: number): void {

@@ -5,6 +5,7 @@ import {
   NotFoundError,
   TOKEN_MAX_DAYS,
   ValidationError,
+  type ActiveTokenCount,
   type ApiTokenSummary,
   type CreateTokenParsed,
   type CreatedApiToken,
@@ -82,6 +83,11 @@ export class TokensService {
   list(user: AuthUser, q: PageQuery): PageOf<ApiTokenSummary> {
     const { items, total } = this.repo.listForUser(user.id, (q.page - 1) * q.pageSize, q.pageSize);
     return { items: items.map(summary), total, page: q.page, pageSize: q.pageSize };
+  }
+
+  /** Tokens that still open the api, shown where a password change offers to revoke them. */
+  activeCount(user: AuthUser): ActiveTokenCount {
+    return { count: this.repo.countActive(user.id, this.clock.now()) };
   }
 
   /** Revoking is idempotent; another user's token is a 404. */

@@ -192,10 +192,25 @@ export const passwordResetConfirmSchema = z.object({ token: oneTimeTokenSchema, 
 export type PasswordResetConfirm = z.infer<typeof passwordResetConfirmSchema>;
 
 export const changePasswordSchema = z
-  .object({ current: z.string().min(1, 'required').max(200, 'at most 200 characters'), next: passwordSchema })
+  .object({
+    current: z.string().min(1, 'required').max(200, 'at most 200 characters'),
+    next: passwordSchema,
+    /** Also revoke every personal API token of the account (a reset always does). */
+    revokeTokens: z.boolean({ error: 'must be true or false' }).default(false),
+  })
   .strict()
   .refine((p) => p.current !== p.next, { path: ['next'], message: 'must differ from the current password' });
 export type ChangePasswordRequest = z.infer<typeof changePasswordSchema>;
+
+/** How many personal API tokens a change or reset revoked (a reset revokes them all). */
+export interface TokensRevoked {
+  tokensRevoked: number;
+}
+
+/** GET /api/tokens/active: unrevoked, unexpired personal API tokens of the caller. */
+export interface ActiveTokenCount {
+  count: number;
+}
 
 /** The same answer whether or not the address is registered. */
 export const PASSWORD_RESET_ACCEPTED =

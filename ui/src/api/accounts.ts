@@ -9,14 +9,19 @@ import { api } from './client.js';
 import { afterSuccess, type MutationHandlers } from './mutations.js';
 import { queryKeys } from './queryKeys.js';
 
-export type PasswordChanged = { message: string; accessToken: string; user: SessionUser };
+export type PasswordChanged = { message: string; tokensRevoked: number; accessToken: string; user: SessionUser };
+type ChangeBody = { current: string; next: string; revokeTokens: boolean };
 type Message = { message: string };
 
 /** Other sessions are signed out by the change; this one continues on the fresh token. */
-export function useChangePassword(handlers?: MutationHandlers<PasswordChanged, { current: string; next: string }>) {
+export function useChangePassword(handlers?: MutationHandlers<PasswordChanged, ChangeBody>) {
+  const qc = useQueryClient();
   return useMutation({
-    mutationFn: (body: { current: string; next: string }) => api.post<PasswordChanged>('/auth/password', body),
-    ...afterSuccess((res) => setSession({ accessToken: res.accessToken, user: res.user }), handlers),
+    mutationFn: (body: ChangeBody) => api.post<PasswordChanged>('/auth/password', body),
+    ...afterSuccess((res) => {
+      setSession({ accessToken: res.accessToken, user: res.user });
+      if (res.tokensRevoked) void qc.invalidateQueries({ queryKey: queryKeys.tokens.all() });
+    }, handlers),
   });
 }
 

@@ -42,6 +42,7 @@ export const queryKeys = {
   tokens: {
     all: () => ['tokens'] as const,
     list: (params: KeyParams = {}) => ['tokens', 'list', params] as const,
+    active: () => ['tokens', 'active'] as const,
   },
   admin: {
     all: () => ['admin'] as const,

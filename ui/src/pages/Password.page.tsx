@@ -5,18 +5,21 @@ import { ApiError } from '../api/client.js';
 import { useChangePassword } from '../api/accounts.js';
 import { ctrlEnter } from '../components/AdminShared/ctrlEnter.js';
 import { PageHeader } from '../components/PageHeader/PageHeader.js';
+import { RevokeTokensOption } from '../components/RevokeTokensOption/RevokeTokensOption.js';
 
 /** Change the password you sign in with (needs the current one). */
 export default function PasswordPage() {
   const [current, setCurrent] = useState('');
   const [next, setNext] = useState('');
   const [repeat, setRepeat] = useState('');
+  const [revokeTokens, setRevokeTokens] = useState(false);
   const [errors, setErrors] = useState<{ current?: string; next?: string; repeat?: string; form?: string }>({});
   const change = useChangePassword({
     onSuccess: () => {
       setCurrent('');
       setNext('');
       setRepeat('');
+      setRevokeTokens(false);
     },
     onError: (err) => {
       if (err instanceof ApiError)
@@ -30,7 +33,7 @@ export default function PasswordPage() {
   });
   const submit = () => {
     const e: typeof errors = {};
-    const parsed = changePasswordSchema.safeParse({ current, next });
+    const parsed = changePasswordSchema.safeParse({ current, next, revokeTokens });
     if (!parsed.success) for (const i of parsed.error.issues) e[String(i.path[0]) as 'current' | 'next'] ??= i.message;
     if (next !== repeat) e.repeat = 'does not match the new password';
     setErrors(e);
@@ -80,6 +83,7 @@ export default function PasswordPage() {
             autoComplete="new-password"
             required
           />
+          <RevokeTokensOption checked={revokeTokens} onChange={setRevokeTokens} />
           <Button type="submit" loading={change.isPending}>
             Change password
           </Button>
