@@ -7,6 +7,7 @@ import { HttpErrorFilter } from './common/http-error.filter.js';
 import type { AppConfig } from './config/app-config.js';
 import { ConfigModule } from './config/config.module.js';
 import { DbModule } from './db/db.module.js';
+import { ReadsModule } from './reads/reads.module.js';
 import { HealthModule } from './health/health.module.js';
 import { SeedModule } from './seed/seed.module.js';
 import { UsersModule } from './users/users.module.js';
@@ -27,6 +28,7 @@ export class AppModule {
         ConfigModule.forRoot(config),
         ClockModule,
         DbModule,
+        ReadsModule,
         UsersModule,
         AuthModule,
         HealthModule,

@@ -31,7 +31,9 @@ let bigId: number;
 const auth = () => ({ authorization: `Bearer ${token}` });
 
 beforeAll(async () => {
-  t = await startTestApp();
+  // One user plays all 50 clients here: the per-user cap on heavy reads and their time budget are
+  // lifted so every request is served; tests/api/read-pool.test.ts checks the cap and the budget.
+  t = await startTestApp({ READ_PER_USER: '64', READ_BUDGET_MS: '120000', READ_QUEUE_MAX: '1000' });
   token = await t.login(DEMO.researcher);
   const small = await t.http
     .post('/api/sweeps')

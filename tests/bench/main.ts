@@ -15,12 +15,16 @@ import { benchQueries } from './scenarios/catalogue-queries.js';
 import { benchExport } from './scenarios/export.js';
 import { benchFitApi, benchFitDomain } from './scenarios/fit.js';
 import { benchKernels } from './scenarios/kernels.js';
+import { benchLoad } from './scenarios/load.js';
 import { benchScaling } from './scenarios/scaling.js';
 import { benchStorage } from './scenarios/storage.js';
 import { benchEmbeddedSweep } from './scenarios/sweep-embedded.js';
 import { benchRedisSweep } from './scenarios/sweep-redis.js';
 
 const RESULTS = path.join(REPO, 'bench', 'results.json');
+
+/** Thrown to skip the remaining scenarios when BENCH_ONLY names one. */
+class OnlyDone extends Error {}
 
 /** Runs one scenario and prints how long it took (the quick run must stay under a minute). */
 async function step<T>(name: string, fn: () => Promise<T> | T): Promise<T> {
@@ -52,7 +56,13 @@ export async function main(): Promise<number> {
     );
   }
   let failure: unknown;
+  // BENCH_ONLY=load runs one scenario alone (the load scenario starts its own api and sweeps).
+  const only = process.env.BENCH_ONLY;
   try {
+    if (only === 'load') {
+      await step('load', () => benchLoad(cfg, report));
+      throw new OnlyDone();
+    }
     await step('kernels', () => benchKernels(cfg, report));
     await step('fit (domain)', () => benchFitDomain(cfg, report));
     const kept = await step('embedded sweeps', () => benchEmbeddedSweep(cfg, report));
@@ -67,8 +77,9 @@ export async function main(): Promise<number> {
     }
     await step('scaling', () => benchScaling(cfg, report));
     await step('redis', () => benchRedisSweep(cfg, report));
+    await step('load', () => benchLoad(cfg, report));
   } catch (e) {
-    failure = e;
+    if (!(e instanceof OnlyDone)) failure = e;
   } finally {
     await cleanupAll();
     process.off('SIGINT', onSignal);

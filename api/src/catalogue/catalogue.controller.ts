@@ -14,6 +14,7 @@ import {
 import { Roles, SignedIn } from '../auth/access.decorators.js';
 import { CurrentUser, type AuthUser } from '../auth/current-user.js';
 import { openApiSchema } from '../common/openapi.js';
+import { ClientSignal } from '../reads/client-signal.js';
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
 import { CatalogueService } from './catalogue.service.js';
 
@@ -44,8 +45,9 @@ export class CatalogueController {
     @CurrentUser() user: AuthUser,
     @Param('id', ParseIntPipe) id: number,
     @Query(new ZodValidationPipe(resultsQuerySchema, 'query')) q: ResultsQuery,
+    @ClientSignal() signal: AbortSignal,
   ) {
-    return this.catalogue.results(user, id, q);
+    return this.catalogue.results(user, id, q, signal);
   }
 
   @Get(':id/series')
@@ -54,8 +56,13 @@ export class CatalogueController {
     summary:
       'Down-sampled plot data: kind=line (x, y, groupBy) or heatmap (x, y, z); slice.<param>=k or agg=mean; units on every axis',
   })
-  series(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number, @Query(seriesQuery) q: SeriesQuery) {
-    return this.catalogue.series(user, id, q);
+  series(
+    @CurrentUser() user: AuthUser,
+    @Param('id', ParseIntPipe) id: number,
+    @Query(seriesQuery) q: SeriesQuery,
+    @ClientSignal() signal: AbortSignal,
+  ) {
+    return this.catalogue.series(user, id, q, signal);
   }
 
   @Put(':id/sharing')

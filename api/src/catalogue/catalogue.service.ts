@@ -10,11 +10,11 @@ import {
 } from '@driftgrid/domain';
 import type { AuthUser } from '../auth/current-user.js';
 import { columnByName, parseFilter } from '../sweeps/results-query.js';
+import { HeavyReads } from '../reads/heavy-reads.js';
 import { layoutOf, ResultsReader } from '../sweeps/results-reader.js';
 import { SweepAccess } from '../sweeps/sweep-access.js';
 import { SweepsService } from '../sweeps/sweeps.service.js';
 import { CatalogueRepository, type CatalogueRow } from './catalogue.repository.js';
-import { SeriesService } from './series.service.js';
 
 const iso = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString());
 
@@ -46,7 +46,7 @@ export class CatalogueService {
     private readonly access: SweepAccess,
     private readonly reader: ResultsReader,
     private readonly sweeps: SweepsService,
-    private readonly seriesService: SeriesService,
+    private readonly reads: HeavyReads,
   ) {}
 
   list(user: AuthUser, q: SweepListQuery) {
@@ -54,7 +54,8 @@ export class CatalogueService {
     return { items: rows.map(summarise), total, page: q.page, pageSize: q.pageSize };
   }
 
-  results(user: AuthUser, id: number, q: ResultsQuery) {
+  /** `signal` fires when the client goes away: a heavy read it started is stopped. */
+  results(user: AuthUser, id: number, q: ResultsQuery, signal?: AbortSignal) {
     const s = this.access.readable(user, id);
     const layout = layoutOf(s);
     const filter = parseFilter(q.filter, layout);
@@ -62,11 +63,13 @@ export class CatalogueService {
       columnByName(layout, 'valid', 'valid');
       filter.valid = { ...filter.valid, eq: q.valid };
     }
-    return this.reader.page(s, { page: q.page, pageSize: q.pageSize, sort: q.sort, filter });
+    return this.reader.page(user.id, s, { page: q.page, pageSize: q.pageSize, sort: q.sort, filter }, signal);
   }
 
-  series(user: AuthUser, id: number, q: SeriesQuery) {
-    return this.seriesService.series(this.access.readable(user, id), q);
+  /** Plot data, computed on the heavy-read pool (series.service.ts runs there). */
+  series(user: AuthUser, id: number, q: SeriesQuery, signal?: AbortSignal) {
+    const s = this.access.readable(user, id);
+    return this.reads.run(user.id, { kind: 'series', sweep: s, query: q }, { signal });
   }
 
   /**

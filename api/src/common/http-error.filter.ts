@@ -10,6 +10,7 @@ import {
   ValidationError,
   type ErrorDetail,
 } from '@driftgrid/domain';
+import { ReadAbortedError, ReadBudgetError, ReadBusyError, ReadLimitError } from '../reads/read-errors.js';
 
 export interface ErrorBody {
   statusCode: number;
@@ -26,6 +27,11 @@ const DOMAIN_STATUS: [new (...a: never[]) => DomainError, number][] = [
   [QuotaError, HttpStatus.TOO_MANY_REQUESTS],
   [TooLargeError, HttpStatus.PAYLOAD_TOO_LARGE],
   [ForbiddenError, HttpStatus.FORBIDDEN],
+  // Heavy reads (api/src/reads): over the time budget or the pool is full → 503; a user over their limit → 429.
+  [ReadBudgetError, HttpStatus.SERVICE_UNAVAILABLE],
+  [ReadBusyError, HttpStatus.SERVICE_UNAVAILABLE],
+  [ReadAbortedError, HttpStatus.SERVICE_UNAVAILABLE],
+  [ReadLimitError, HttpStatus.TOO_MANY_REQUESTS],
 ];
 
 const REASON: Record<number, string> = {
@@ -83,6 +89,8 @@ export class HttpErrorFilter implements ExceptionFilter {
       res.end();
       return;
     }
+    const retry = (exception as { retryAfterSeconds?: unknown } | null)?.retryAfterSeconds;
+    if (exception instanceof DomainError && typeof retry === 'number' && retry > 0) res.setHeader('Retry-After', retry);
     res.status(body.statusCode).json(body);
   }
 

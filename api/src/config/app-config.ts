@@ -33,6 +33,15 @@ export interface AppConfig {
   loginThrottleLimit: number;
   loginThrottleTtlMs: number;
   appVersion: string;
+  /** The heavy-read pool (api/src/reads). */
+  reads: {
+    threads: number;
+    budgetMs: number;
+    perUser: number;
+    waitMs: number;
+    maxQueue: number;
+    orderCacheBytes: number;
+  };
 }
 
 export const APP_CONFIG = Symbol('APP_CONFIG');
@@ -96,5 +105,13 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
     loginThrottleLimit: e.LOGIN_THROTTLE_LIMIT ?? (e.NODE_ENV === 'test' ? 1000 : 10),
     loginThrottleTtlMs: e.LOGIN_THROTTLE_TTL_MS,
     appVersion: readAppVersion(),
+    reads: {
+      threads: e.READ_THREADS,
+      budgetMs: e.READ_BUDGET_MS,
+      perUser: e.READ_PER_USER,
+      waitMs: e.READ_WAIT_MS,
+      maxQueue: e.READ_QUEUE_MAX,
+      orderCacheBytes: Math.round(e.READ_ORDER_CACHE_MB * 1024 * 1024),
+    },
   };
 }

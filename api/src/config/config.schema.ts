@@ -45,6 +45,17 @@ export const envSchema = z.object({
   /** Sign-in and password-reset attempts per IP and e-mail address per window (default 10; 1000 under NODE_ENV=test). */
   LOGIN_THROTTLE_LIMIT: z.coerce.number().int().min(1).optional(),
   LOGIN_THROTTLE_TTL_MS: z.coerce.number().int().min(1000).default(60_000),
+  /** Heavy-read pool (sorted/filtered result pages, plot series, fit sources): threads; 0 reads on the api thread. */
+  READ_THREADS: z.coerce.number().int().min(0).max(32).default(2),
+  /** Time allowed per heavy read before it is stopped with a 503. */
+  READ_BUDGET_MS: z.coerce.number().int().min(100).max(600_000).default(5000),
+  /** Concurrent heavy reads per user, and how long one more waits for a slot before a 429. */
+  READ_PER_USER: z.coerce.number().int().min(1).max(64).default(2),
+  READ_WAIT_MS: z.coerce.number().int().min(0).max(60_000).default(1000),
+  /** Heavy reads waiting for a pool thread before the api answers busy (503). */
+  READ_QUEUE_MAX: z.coerce.number().int().min(1).max(10_000).default(64),
+  /** Memory for cached orders of sorted views (4 MB per 10^6 rows); 0 turns the cache off. */
+  READ_ORDER_CACHE_MB: z.coerce.number().min(0).max(4096).default(64),
 });
 
 export type Env = z.infer<typeof envSchema>;

@@ -3,6 +3,7 @@ import { ConflictError, ValidationError, type ErrorDetail, type FitRequest } fro
 import type { AuthUser } from '../auth/current-user.js';
 import { DatasetsService, columnsOf } from '../datasets/datasets.service.js';
 import { ResultsReader, layoutOf } from '../sweeps/results-reader.js';
+import { parseFilter } from '../sweeps/results-query.js';
 import { SweepAccess } from '../sweeps/sweep-access.js';
 
 export type SourceKind = 'sweep' | 'dataset';
@@ -119,7 +120,8 @@ export class FitSources {
     private readonly datasets: DatasetsService,
   ) {}
 
-  load(user: AuthUser, kind: SourceKind, id: number, req: FitRequest): FitData {
+  /** Sweep columns are read on the heavy-read pool (bounded in time and per user; api/src/reads). */
+  async load(user: AuthUser, kind: SourceKind, id: number, req: FitRequest): Promise<FitData> {
     const wanted = requestedColumns(req);
     const names = [...new Set(wanted.map((w) => w.name))];
     if (kind === 'sweep') {
@@ -132,7 +134,7 @@ export class FitSources {
         .map((c) => ({ name: c.name, unit: c.unit, kind: c.kind }));
       checkNames(wanted, columns, 'sweep');
       // The reader validates the filter against the sweep's columns (400 naming filter.<column>).
-      const raw = this.results.columns(s, names, req.filter);
+      const raw = await this.results.columns(user.id, s, names, parseFilter(req.filter, layoutOf(s)));
       const kept = dropMissing(raw.n, raw.data, names);
       return { source: { kind, id, name: s.name, modelVersion: s.modelVersion }, columns, ...kept };
     }

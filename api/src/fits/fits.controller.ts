@@ -22,12 +22,12 @@ export class FitsController {
       'Fit a reduced model to a sweep\'s results or a dataset: 201 with the result; 202 { id, status: "queued" } from 100,000 points on',
   })
   @ApiBody({ schema: openApiSchema(fitRequestSchema) })
-  create(
+  async create(
     @CurrentUser() user: AuthUser,
     @Body(new ZodValidationPipe(createFitSchema)) body: FitRequest,
     @Res({ passthrough: true }) res: Response,
   ) {
-    const { status, body: out } = this.fits.create(user, body);
+    const { status, body: out } = await this.fits.create(user, body);
     res.status(status);
     return out;
   }

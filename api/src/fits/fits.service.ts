@@ -67,10 +67,10 @@ export class FitsService implements OnApplicationBootstrap, OnModuleDestroy {
   }
 
   /** Runs a fit (or queues it when long) and stores it with its request, versions and owner. */
-  create(user: AuthUser, req: FitRequest): { status: 201 | 202; body: FitCreatedView } {
+  async create(user: AuthUser, req: FitRequest): Promise<{ status: 201 | 202; body: FitCreatedView }> {
     const kind = req.source.kind as SourceKind;
     const sourceId = parseSourceId(req.source.id);
-    const { data, region } = probeWindow(req, this.sources.load(user, kind, sourceId, req));
+    const { data, region } = probeWindow(req, await this.sources.load(user, kind, sourceId, req));
     if (data.n === 0) {
       throw new ValidationError(
         `y: too few points: no rows left after the filter${data.dropped ? ` and dropping ${data.dropped} row(s) with a missing value` : ''}`,

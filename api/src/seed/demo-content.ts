@@ -38,7 +38,7 @@ export async function seedDemoContent(app: INestApplication): Promise<void> {
       },
     );
     // The Boltzmann form n = A·exp(φ/s): the fitted s is the electron temperature in eV.
-    app
+    await app
       .get(FitsService)
       .create(owner, { source: { kind: 'dataset', id: ds.id }, model: 'exponential', y: 'n', x: 'phi' } as never);
     logger.log(`Seeded the demo dataset ${ds.id} and a Boltzmann fit on it`);

@@ -85,9 +85,14 @@ export function compileFilter(sweepId: number, layout: readonly StoredColumn[], 
   return { where: clauses.join(' AND '), params };
 }
 
-/** `col:asc` / `col:desc` against the whitelist; default is index order (the rowid scan). */
-export function compileSort(layout: readonly StoredColumn[], raw: unknown): string {
-  if (raw === undefined || raw === '' || raw === null) return 'id ASC';
+export interface SortSpec {
+  column: StoredColumn;
+  desc: boolean;
+}
+
+/** `col:asc` / `col:desc` against the whitelist; null is index order (the rowid scan). */
+export function parseSort(layout: readonly StoredColumn[], raw: unknown): SortSpec | null {
+  if (raw === undefined || raw === '' || raw === null) return null;
   if (typeof raw !== 'string' || raw.length > 80)
     throw new ValidationError('sort must be "column:asc" or "column:desc"', [
       { path: 'sort', message: 'expected column:asc or column:desc' },
@@ -97,11 +102,16 @@ export function compileSort(layout: readonly StoredColumn[], raw: unknown): stri
     throw new ValidationError('sort must be "column:asc" or "column:desc"', [
       { path: 'sort', message: 'expected column:asc or column:desc' },
     ]);
-  const col = columnByName(layout, m[1], 'sort');
-  const dir = (m[2] ?? 'asc').toLowerCase() === 'desc' ? 'DESC' : 'ASC';
-  if (col.kind === 'index') return `id ${dir}`;
-  // NULLs (NaN/Infinity in the model) last in either direction; ties in index order.
-  return `${col.slot} IS NULL, ${col.slot} ${dir}, id ASC`;
+  return { column: columnByName(layout, m[1], 'sort'), desc: (m[2] ?? 'asc').toLowerCase() === 'desc' };
+}
+
+/** ORDER BY for a sort; NULLs (NaN/Infinity in the model) last in either direction, ties in index order. */
+export function compileSort(layout: readonly StoredColumn[], raw: unknown): string {
+  const spec = parseSort(layout, raw);
+  if (!spec) return 'id ASC';
+  const dir = spec.desc ? 'DESC' : 'ASC';
+  if (spec.column.kind === 'index') return `id ${dir}`;
+  return `${spec.column.slot} IS NULL, ${spec.column.slot} ${dir}, id ASC`;
 }
 
 /** SELECT list that reads every column under its own name (aliases are fixed identifiers). */

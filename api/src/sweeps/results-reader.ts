@@ -1,66 +1,83 @@
 import { Inject, Injectable } from '@nestjs/common';
 import { DB_HANDLE } from '../db/db.module.js';
 import type { OpenedDatabase } from '../db/database.js';
-import { compileFilter, compileSort, columnByName, parseFilter, selectList } from './results-query.js';
-import type { StoredColumn } from './sweep-layout.js';
+import { HeavyReads } from '../reads/heavy-reads.js';
+import { OrderCache, orderKey } from '../reads/order-cache.js';
+import { shapeRows } from '../reads/read-tasks.js';
+import { columnByName, parseSort, type ResultFilter } from './results-query.js';
+import { ResultsRepository, type ResultRow } from './results.repository.js';
+import { layoutOf } from './sweep-layout.js';
 import type { SweepRow } from './sweeps.repository.js';
 
-export function layoutOf(s: SweepRow): StoredColumn[] {
-  return JSON.parse(s.columns) as StoredColumn[];
+export { layoutOf };
+
+/** Sweeps whose stored rows no longer change (their sorted orders may be cached). */
+const SETTLED = new Set(['completed', 'archived', 'failed', 'cancelled']);
+
+export interface ResultsPageQuery {
+  page: number;
+  pageSize: number;
+  sort?: string;
+  filter: ResultFilter;
 }
 
 /**
- * Reads stored results: pages for tables, whole columns for fits. Every read finishes synchronously:
- * an open better-sqlite3 iterator would block writes on the shared connection (exports read in batches).
+ * Reads stored results for tables, plots and fits. What is cheap is read here on the api's
+ * connection: a page of a complete sweep in index order (a rowid range) and any page of a sorted view
+ * whose order is cached (a few rowid look-ups). Everything else — a sort computed for the first time,
+ * filters, whole columns — goes to the heavy-read pool, bounded in time and per user (api/src/reads).
  */
 @Injectable()
 export class ResultsReader {
-  constructor(@Inject(DB_HANDLE) private readonly handle: OpenedDatabase) {}
+  private readonly repo: ResultsRepository;
 
-  page(s: SweepRow, q: { page: number; pageSize: number; sort?: unknown; filter?: unknown }) {
+  constructor(
+    @Inject(DB_HANDLE) handle: OpenedDatabase,
+    private readonly reads: HeavyReads,
+    private readonly orders: OrderCache,
+  ) {
+    this.repo = new ResultsRepository(handle.sqlite);
+  }
+
+  async page(userId: number, s: SweepRow, q: ResultsPageQuery, signal?: AbortSignal) {
     const layout = layoutOf(s);
-    const filter = parseFilter(q.filter, layout);
-    const { where, params } = compileFilter(s.id, layout, filter);
-    const order = compileSort(layout, q.sort);
-    const db = this.handle.sqlite;
-    const rows = db
-      .prepare(`SELECT ${selectList(s.id, layout)} FROM results WHERE ${where} ORDER BY ${order} LIMIT ? OFFSET ?`)
-      .all(...params, q.pageSize, (q.page - 1) * q.pageSize) as Record<string, number | null>[];
-    const total = Object.keys(filter).length
-      ? (db.prepare(`SELECT COUNT(*) AS n FROM results WHERE ${where}`).get(...params) as { n: number }).n
-      : s.pointsDone;
-    for (const r of rows)
-      for (const c of layout)
-        if (c.type === 'boolean' && r[c.name] !== null) (r as Record<string, unknown>)[c.name] = r[c.name] === 1;
-    return {
-      rows,
-      total,
-      columns: layout.map((c) => ({ name: c.name, unit: c.unit, kind: c.kind, meaning: c.meaning, type: c.type })),
-    };
+    const spec = parseSort(layout, q.sort); // a bad sort is a 400 before any work
+    const columns = layout.map((c) => ({ name: c.name, unit: c.unit, kind: c.kind, meaning: c.meaning, type: c.type }));
+    const offset = (q.page - 1) * q.pageSize;
+    const filtered = Object.keys(q.filter).length > 0;
+    const byIndex = !spec || spec.column.kind === 'index';
+    if (!filtered && byIndex && s.status !== 'running' && s.status !== 'queued' && s.pointsDone === s.points) {
+      // Every index 0…points−1 is stored: the page is a rowid range.
+      const n = Math.max(0, Math.min(q.pageSize, s.points - offset));
+      const indices = Array.from({ length: n }, (_, k) => (spec?.desc ? s.points - 1 - offset - k : offset + k));
+      return { rows: shapeRows(this.repo.rowsAt(s.id, layout, indices), layout), total: s.pointsDone, columns };
+    }
+    const key = !byIndex && SETTLED.has(s.status) ? orderKey(s, spec.column.name, spec.desc, q.filter) : null;
+    const cached = key ? this.orders.get(key) : undefined;
+    if (cached) {
+      const rows = this.repo.rowsAt(s.id, layout, cached.subarray(offset, offset + q.pageSize));
+      return { rows: shapeRows(rows, layout), total: cached.length, columns };
+    }
+    const r = await this.reads.run(userId, { kind: 'page', sweep: s, ...q }, { signal });
+    if (key && r.order) this.orders.set(key, r.order);
+    return { rows: r.rows as ResultRow[], total: r.total, columns };
   }
 
   /** Whole numeric columns of the (filtered) rows, in index order: the input of fits and plots. */
   columns(
+    userId: number,
     s: SweepRow,
     names: string[],
-    filterRaw?: unknown,
+    filter: ResultFilter,
     limit?: number,
-  ): { n: number; data: Record<string, Float64Array> } {
+    signal?: AbortSignal,
+  ): Promise<{ n: number; data: Record<string, Float64Array> }> {
     const layout = layoutOf(s);
-    const cols = names.map((n, i) => columnByName(layout, n, `columns.${i}`));
-    const { where, params } = compileFilter(s.id, layout, parseFilter(filterRaw, layout));
-    const sel = cols
-      .map((c, i) => (c.kind === 'index' ? `(id - ${s.id * 2 ** 32}) AS v${i}` : `${c.slot} AS v${i}`))
-      .join(', ');
-    const stmt = this.handle.sqlite
-      .prepare(`SELECT ${sel} FROM results WHERE ${where} ORDER BY id${limit ? ' LIMIT ' + Math.floor(limit) : ''}`)
-      .raw(true);
-    const chunks: number[][] = cols.map(() => []);
-    for (const row of stmt.iterate(...params) as IterableIterator<(number | null)[]>) {
-      for (let i = 0; i < row.length; i++) chunks[i].push(row[i] ?? NaN);
-    }
-    const data: Record<string, Float64Array> = {};
-    names.forEach((n, i) => (data[n] = Float64Array.from(chunks[i])));
-    return { n: chunks[0]?.length ?? 0, data };
+    names.forEach((n, i) => columnByName(layout, n, `columns.${i}`));
+    return this.reads.run(
+      userId,
+      { kind: 'columns', sweep: s, names, filter, ...(limit ? { limit } : {}) },
+      { signal },
+    );
   }
 }

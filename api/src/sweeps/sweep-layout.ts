@@ -9,6 +9,11 @@ export interface StoredColumn extends SweepColumn {
 
 export const ROW_SPAN = 2 ** 32;
 
+/** A sweep's stored column layout (written once when the sweep is created). */
+export function layoutOf(s: { columns: string }): StoredColumn[] {
+  return JSON.parse(s.columns) as StoredColumn[];
+}
+
 /** rowid range of a sweep's rows: [sweepId·2^32, (sweepId+1)·2^32). */
 export function rowRange(sweepId: number): { lo: number; hi: number } {
   return { lo: sweepId * ROW_SPAN, hi: (sweepId + 1) * ROW_SPAN - 1 };

@@ -1,0 +1,155 @@
+import type Database from 'better-sqlite3';
+import {
+  DomainError,
+  type ErrorDetail,
+  type HeatmapSeries,
+  type LineSeries,
+  type SeriesQuery,
+} from '@driftgrid/domain';
+import { SeriesRepository } from '../catalogue/series.repository.js';
+import { SeriesService } from '../catalogue/series.service.js';
+import type { OpenedDatabase } from '../db/database.js';
+import { compileFilter, parseSort, type ResultFilter } from '../sweeps/results-query.js';
+import { ResultsRepository, type ResultRow } from '../sweeps/results.repository.js';
+import { layoutOf, type StoredColumn } from '../sweeps/sweep-layout.js';
+import type { SweepRow } from '../sweeps/sweeps.repository.js';
+import { OrderBuilder } from './sort-order.js';
+
+/**
+ * The heavy reads, as plain data in and out so they can run on a pool thread with its own read-only
+ * connection (or inline on the api's own connection). Inputs are validated on the api thread first.
+ */
+export interface PageTask {
+  kind: 'page';
+  sweep: SweepRow;
+  page: number;
+  pageSize: number;
+  sort?: string;
+  filter: ResultFilter;
+  /** A cached order of this very view (sort and filter), when the api holds one. */
+  order?: Uint32Array;
+}
+export interface PageResult {
+  rows: ResultRow[];
+  total: number;
+  /** The order computed for a sorted view, for the api's cache. */
+  order?: Uint32Array;
+}
+export interface SeriesTask {
+  kind: 'series';
+  sweep: SweepRow;
+  query: SeriesQuery;
+}
+export interface ColumnsTask {
+  kind: 'columns';
+  sweep: SweepRow;
+  names: string[];
+  filter: ResultFilter;
+  limit?: number;
+}
+export interface ColumnsResult {
+  n: number;
+  data: Record<string, Float64Array>;
+}
+/** Test-only task: holds its thread for `ms` (checks of the budget, the limits and cancellation). */
+export interface SleepTask {
+  kind: 'sleep';
+  ms: number;
+}
+
+export type ReadTask = PageTask | SeriesTask | ColumnsTask | SleepTask;
+export interface ReadResults {
+  page: PageResult;
+  series: LineSeries | HeatmapSeries;
+  columns: ColumnsResult;
+  sleep: { slept: number };
+}
+export type ReadResultOf<T extends ReadTask> = ReadResults[T['kind']];
+
+/** What crosses the thread boundary: a value, or a domain error by name (Error objects lose their class). */
+export type ReadReply =
+  { ok: true; value: unknown } | { ok: false; error: { name: string; message: string; details?: ErrorDetail[] } };
+
+/** Runs read tasks on one connection; SQL stays in the repositories. */
+export class ReadTaskRunner {
+  private readonly results: ResultsRepository;
+  private readonly series: SeriesService;
+
+  constructor(db: Database.Database) {
+    this.results = new ResultsRepository(db);
+    this.series = new SeriesService(new SeriesRepository({ sqlite: db } as OpenedDatabase));
+  }
+
+  run(task: ReadTask): ReadReply {
+    try {
+      return { ok: true, value: this.dispatch(task) };
+    } catch (e) {
+      if (e instanceof DomainError)
+        return { ok: false, error: { name: e.name, message: e.message, details: e.details } };
+      throw e;
+    }
+  }
+
+  private dispatch(task: ReadTask): unknown {
+    switch (task.kind) {
+      case 'page':
+        return this.page(task);
+      case 'series':
+        return this.series.series(task.sweep, task.query);
+      case 'columns':
+        return this.columns(task);
+      case 'sleep': {
+        const until = Date.now() + task.ms;
+        while (Date.now() < until) {
+          /* busy on purpose: a stand-in for a long statement */
+        }
+        return { slept: task.ms };
+      }
+    }
+  }
+
+  private page(t: PageTask): PageResult {
+    const s = t.sweep;
+    const layout = layoutOf(s);
+    const q = compileFilter(s.id, layout, t.filter);
+    const spec = parseSort(layout, t.sort);
+    const offset = (t.page - 1) * t.pageSize;
+    const filtered = Object.keys(t.filter).length > 0;
+    if (!spec || spec.column.kind === 'index') {
+      const rows = this.results.pageByIndex(s.id, layout, q, spec?.desc ?? false, t.pageSize, offset);
+      return { rows: shapeRows(rows, layout), total: filtered ? this.results.count(q) : s.pointsDone };
+    }
+    const order = t.order ?? this.order(s.id, spec.column, spec.desc, q);
+    const rows = this.results.rowsAt(s.id, layout, order.subarray(offset, offset + t.pageSize));
+    return { rows: shapeRows(rows, layout), total: order.length, ...(t.order ? {} : { order }) };
+  }
+
+  private order(sweepId: number, column: StoredColumn, desc: boolean, q: ReturnType<typeof compileFilter>) {
+    const b = new OrderBuilder(1 << 16);
+    for (const batch of this.results.scanColumn(sweepId, column.slot, q))
+      for (const [i, v] of batch) b.push(i as number, v);
+    return b.sort(desc);
+  }
+
+  private columns(t: ColumnsTask): ColumnsResult {
+    const s = t.sweep;
+    const layout = layoutOf(s);
+    const exprs = t.names.map((n) => {
+      const c = layout.find((x) => x.name === n)!;
+      return c.kind === 'index' ? `(id - ${s.id * 2 ** 32})` : c.slot;
+    });
+    const cols = this.results.columns(exprs, compileFilter(s.id, layout, t.filter), t.limit);
+    const data: Record<string, Float64Array> = {};
+    t.names.forEach((n, i) => (data[n] = cols[i]!));
+    return { n: cols[0]?.length ?? 0, data };
+  }
+}
+
+/** Boolean columns are stored as 0/1 and answered as true/false. */
+export function shapeRows(rows: ResultRow[], layout: readonly StoredColumn[]): ResultRow[] {
+  const bools = layout.filter((c) => c.type === 'boolean');
+  if (bools.length)
+    for (const r of rows)
+      for (const c of bools) if (r[c.name] !== null) (r as Record<string, unknown>)[c.name] = r[c.name] === 1;
+  return rows;
+}
