@@ -1,3 +1,4 @@
+import { createSecretKey } from 'node:crypto';
 import { Inject, Injectable, UnauthorizedException } from '@nestjs/common';
 import { PassportStrategy } from '@nestjs/passport';
 import { ExtractJwt, Strategy } from 'passport-jwt';
@@ -22,7 +23,11 @@ export class JwtStrategy extends PassportStrategy(Strategy, 'jwt') {
   ) {
     super({
       jwtFromRequest: ExtractJwt.fromAuthHeaderAsBearerToken(),
-      secretOrKey: config.jwtSecret,
+      // A key object, not the string: given a string, jsonwebtoken first tries it as a PEM public key
+      // and builds the secret key from it only after that throws, on every request (≈1 ms each).
+      // passport-jwt hands it to jsonwebtoken.verify unchanged, which accepts a KeyObject; only
+      // passport-jwt's own typings are narrower.
+      secretOrKey: createSecretKey(Buffer.from(config.jwtSecret, 'utf8')) as unknown as Buffer,
       ignoreExpiration: false,
     });
   }

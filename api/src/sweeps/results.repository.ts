@@ -14,18 +14,29 @@ const SCAN_BATCH = 32_768;
  * run on the api's connection (cheap reads) and on the read pool's read-only connections (heavy reads).
  */
 export class ResultsRepository {
+  /** Prepared statements by SQL text (a sweep's SELECT list has up to 66 columns; preparing costs ~1 ms). */
+  private readonly statements = new Map<string, Database.Statement>();
+
   constructor(private readonly db: Database.Database) {}
+
+  private prepare(sql: string): Database.Statement {
+    let stmt = this.statements.get(sql);
+    if (!stmt) {
+      if (this.statements.size >= 128) this.statements.delete(this.statements.keys().next().value!);
+      stmt = this.db.prepare(sql);
+      this.statements.set(sql, stmt);
+    }
+    return stmt;
+  }
 
   /** Rows at the given point indices, returned in the order asked. */
   rowsAt(sweepId: number, layout: readonly StoredColumn[], indices: ArrayLike<number>): ResultRow[] {
     if (indices.length === 0) return [];
     const base = sweepId * ROW_SPAN;
-    const rows = this.db
-      .prepare(
-        `SELECT (id - ${base}) AS "__i", ${selectList(sweepId, layout)} FROM results
+    const rows = this.prepare(
+      `SELECT (id - ${base}) AS "__i", ${selectList(sweepId, layout)} FROM results
          WHERE id IN (SELECT ${base} + value FROM json_each(?))`,
-      )
-      .all(JSON.stringify(Array.from(indices))) as (ResultRow & { __i: number })[];
+    ).all(JSON.stringify(Array.from(indices))) as (ResultRow & { __i: number })[];
     const at = new Map(rows.map((r) => [r.__i, r]));
     const out: ResultRow[] = [];
     for (const i of Array.from(indices)) {
@@ -46,15 +57,13 @@ export class ResultsRepository {
     limit: number,
     offset: number,
   ): ResultRow[] {
-    return this.db
-      .prepare(
-        `SELECT ${selectList(sweepId, layout)} FROM results WHERE ${q.where} ORDER BY id ${desc ? 'DESC' : 'ASC'} LIMIT ? OFFSET ?`,
-      )
-      .all(...q.params, limit, offset) as ResultRow[];
+    return this.prepare(
+      `SELECT ${selectList(sweepId, layout)} FROM results WHERE ${q.where} ORDER BY id ${desc ? 'DESC' : 'ASC'} LIMIT ? OFFSET ?`,
+    ).all(...q.params, limit, offset) as ResultRow[];
   }
 
   count(q: CompiledQuery): number {
-    return (this.db.prepare(`SELECT COUNT(*) AS n FROM results WHERE ${q.where}`).get(...q.params) as { n: number }).n;
+    return (this.prepare(`SELECT COUNT(*) AS n FROM results WHERE ${q.where}`).get(...q.params) as { n: number }).n;
   }
 
   /**
@@ -63,9 +72,9 @@ export class ResultsRepository {
    */
   *scanColumn(sweepId: number, expr: string, q: CompiledQuery): Generator<Raw[]> {
     const base = sweepId * ROW_SPAN;
-    const stmt = this.db
-      .prepare(`SELECT id, ${expr} FROM results WHERE ${q.where} AND id > ? ORDER BY id LIMIT ?`)
-      .raw(true);
+    const stmt = this.prepare(`SELECT id, ${expr} FROM results WHERE ${q.where} AND id > ? ORDER BY id LIMIT ?`).raw(
+      true,
+    );
     let after = base - 1;
     for (;;) {
       const batch = stmt.all(...q.params, after, SCAN_BATCH) as Raw[];
@@ -80,9 +89,9 @@ export class ResultsRepository {
   /** Whole columns (`exprs`, whitelisted) of the rows the WHERE keeps, in index order; NULL reads as NaN. */
   columns(exprs: readonly string[], q: CompiledQuery, limit?: number): Float64Array[] {
     const sel = exprs.map((e, i) => `${e} AS v${i}`).join(', ');
-    const stmt = this.db
-      .prepare(`SELECT ${sel} FROM results WHERE ${q.where} ORDER BY id${limit ? ' LIMIT ' + Math.floor(limit) : ''}`)
-      .raw(true);
+    const stmt = this.prepare(
+      `SELECT ${sel} FROM results WHERE ${q.where} ORDER BY id${limit ? ' LIMIT ' + Math.floor(limit) : ''}`,
+    ).raw(true);
     const chunks: number[][] = exprs.map(() => []);
     for (const row of stmt.iterate(...q.params) as IterableIterator<Raw>) {
       for (let i = 0; i < row.length; i++) chunks[i]!.push(row[i] ?? NaN);

@@ -23,9 +23,11 @@ interface Tally {
   http5xx: number;
   refused: number;
   other: number;
+  /** Answers by HTTP status (and `error` for failures without one). */
+  statuses: Record<string, number>;
 }
 
-const tally = (): Tally => ({ lat: [], timeouts: 0, http5xx: 0, refused: 0, other: 0 });
+const tally = (): Tally => ({ lat: [], timeouts: 0, http5xx: 0, refused: 0, other: 0, statuses: {} });
 
 /** One GET with the client timeout; latency of every answer, failures counted by kind. */
 async function get(baseUrl: string, token: string, route: string, t: Tally): Promise<unknown> {
@@ -37,6 +39,7 @@ async function get(baseUrl: string, token: string, route: string, t: Tally): Pro
     });
     const text = await r.text();
     t.lat.push(performance.now() - t0);
+    t.statuses[r.status] = (t.statuses[r.status] ?? 0) + 1;
     if (r.status >= 500) t.http5xx++;
     else if (r.status === 429) t.refused++;
     else if (r.status !== 200) t.other++;
@@ -44,6 +47,7 @@ async function get(baseUrl: string, token: string, route: string, t: Tally): Pro
   } catch (e) {
     if ((e as Error).name === 'TimeoutError') t.timeouts++;
     else t.other++;
+    t.statuses.error = (t.statuses.error ?? 0) + 1;
     return null;
   }
 }
@@ -85,7 +89,8 @@ export async function benchLoad(cfg: BenchConfig, report: Report): Promise<void>
       const t = tally();
       await get(api.baseUrl, api.token, `${results}&page=1&sort=${col}:desc`, t);
       await get(api.baseUrl, api.token, `${results}&page=2&sort=${col}:desc`, t);
-      if (t.lat.length === 2 && !t.http5xx) {
+      if (t.statuses['200'] !== 2) report.note(`load: idle sort by ${col} answered ${JSON.stringify(t.statuses)}`);
+      else {
         cold.push(t.lat[0]!);
         second.push(t.lat[1]!);
       }
@@ -134,7 +139,9 @@ export async function benchLoad(cfg: BenchConfig, report: Report): Promise<void>
       for (let k = 0; Date.now() < until; k++) {
         const pick = (i + k) % 3;
         if (pick === 0) await get(api.baseUrl, token, `/api/sweeps?page=1&pageSize=20`, catalogue);
-        else if (pick === 1) await get(api.baseUrl, token, `/api/sweeps/${k % 2 ? running : table.id}`, browsing);
+        // The running sweep is private to its owner (the first token); the table is shared with the group.
+        else if (pick === 1)
+          await get(api.baseUrl, k % 2 ? tokens[0]! : token, `/api/sweeps/${k % 2 ? running : table.id}`, browsing);
         else await get(api.baseUrl, token, `${results}&page=${1 + ((i * 7919 + k * 104729) % pages)}`, browsing);
         await pause(100 + ((i * 37 + k * 53) % 300));
       }
@@ -210,6 +217,9 @@ export async function benchLoad(cfg: BenchConfig, report: Report): Promise<void>
       '≤',
       0,
       '0',
+    );
+    report.note(
+      `load: answers by status — catalogue ${JSON.stringify(catalogue.statuses)}, browsing ${JSON.stringify(browsing.statuses)}, re-sorting ${JSON.stringify(sorting.statuses)}`,
     );
     report.note(
       `load: the concurrent sweep was at ${progress?.progress ? `${progress.progress.done}/${progress.progress.total}` : '?'} points when the clients stopped; other non-200 answers: ${all.reduce((a, t) => a + t.other, 0)}`,
