@@ -148,6 +148,7 @@ const inputs: InputSpec[] = [
     default: 0,
     min: 0,
     max: 1e30,
+    pressureAt: 'Tn_eV',
     meaning:
       'Neutral density of the parent gas (neutral mass = ion mass); 0 means no neutrals. A pressure p gives n_n = p/(k_B T_n).',
   },

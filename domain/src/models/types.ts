@@ -19,6 +19,11 @@ export interface InputSpec {
   integer?: boolean;
   /** One line of meaning for forms and exports. */
   meaning: string;
+  /**
+   * When set, the input (a density) also accepts a pressure ("1 Pa", "7.5 mTorr"), converted as
+   * n = p/(k_B T) at the temperature input of this name.
+   */
+  pressureAt?: string;
 }
 
 export interface OutputSpec {

@@ -5,6 +5,7 @@
  */
 import { ValidationError, type ErrorDetail } from '../errors.js';
 import { parseQuantity } from '../units/parse.js';
+import { densityFromPressure, pressureInPascal } from '../units/pressure.js';
 import type { InputSpec, ModelDefinition, Thresholds } from './types.js';
 
 function fmt(x: number): string {
@@ -50,11 +51,17 @@ export function resolveInputs(model: ModelDefinition, raw: Record<string, unknow
     }
   }
   const out: Record<string, number> = {};
+  const pressures: { spec: InputSpec; pPa: number }[] = [];
   for (const spec of model.inputs) {
     const path = `inputs.${spec.name}`;
     const v = raw?.[spec.name];
     if (v === undefined) {
       out[spec.name] = spec.default;
+      continue;
+    }
+    const pPa = spec.pressureAt ? pressureInPascal(v) : null;
+    if (pPa !== null) {
+      pressures.push({ spec, pPa });
       continue;
     }
     let x: number;
@@ -77,6 +84,16 @@ export function resolveInputs(model: ModelDefinition, raw: Record<string, unknow
     }
     const msg = checkInputValue(spec, x);
     if (msg) details.push({ path, message: msg });
+    else out[spec.name] = x;
+  }
+  // Pressures convert at their temperature input once that is known (n = p/(k_B T)).
+  for (const { spec, pPa } of pressures) {
+    const t = out[spec.pressureAt!];
+    if (t === undefined) continue; // the temperature itself is invalid and already reported
+    const x = densityFromPressure(pPa, t);
+    const msg = checkInputValue(spec, x);
+    if (msg)
+      details.push({ path: `inputs.${spec.name}`, message: `${msg} (from ${pPa} Pa at ${spec.pressureAt} = ${t})` });
     else out[spec.name] = x;
   }
   if (details.length) {

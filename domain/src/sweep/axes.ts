@@ -1,7 +1,7 @@
 import type { ErrorDetail } from '../errors.js';
 import { checkInputValue } from '../models/index.js';
 import type { InputSpec } from '../models/types.js';
-import { parseQuantity } from '../units/index.js';
+import { densityFromPressure, parseQuantity, pressureInPascal } from '../units/index.js';
 import type { SweepAxis } from './schema.js';
 
 /** An axis with its bounds and values in canonical units. */
@@ -25,10 +25,23 @@ function toCanonical(
   axisUnit: string | undefined,
   unit: string,
   errors: ErrorDetail[],
+  pressureT?: number | null,
 ): number {
   try {
     // A number with an axis unit ("min": 1, "unit": "cm") is read in that unit.
     const given = typeof value === 'number' && axisUnit ? `${value} ${axisUnit}` : value;
+    // A density axis given in pressure ("0.1 Pa") converts at the fixed gas temperature.
+    const pPa = pressureT !== undefined ? pressureInPascal(given) : null;
+    if (pPa !== null) {
+      if (pressureT === null) {
+        errors.push({
+          path,
+          message: `a pressure needs a fixed neutral temperature to convert at; give the value in ${unit}`,
+        });
+        return Number.NaN;
+      }
+      return densityFromPressure(pPa, pressureT!);
+    }
     return parseQuantity(path, given, unit);
   } catch (err) {
     const details = (err as { details?: ErrorDetail[] }).details;
@@ -77,6 +90,8 @@ export function resolveAxis(
   spec: InputSpec,
   grid: boolean,
   errors: ErrorDetail[],
+  /** For an input with `pressureAt`: the fixed temperature [eV] pressures convert at (null: none). */
+  pressureT?: number | null,
 ): ResolvedAxis | null {
   const path = `axes.${i}`;
   const start = errors.length;
@@ -89,7 +104,7 @@ export function resolveAxis(
   if (axis.kind === 'list') {
     const values = new Float64Array(axis.values.length);
     axis.values.forEach((raw, k) => {
-      values[k] = toCanonical(`${path}.values.${k}`, raw, axis.unit, spec.unit, errors);
+      values[k] = toCanonical(`${path}.values.${k}`, raw, axis.unit, spec.unit, errors, pressureT);
       check(`${path}.values.${k}`, values[k]!);
     });
     if (errors.length > start) return null;
@@ -102,8 +117,8 @@ export function resolveAxis(
     return { param: axis.param, kind: 'list', unit: spec.unit, min, max, values, count: values.length };
   }
 
-  const min = toCanonical(`${path}.min`, axis.min, axis.unit, spec.unit, errors);
-  const max = toCanonical(`${path}.max`, axis.max, axis.unit, spec.unit, errors);
+  const min = toCanonical(`${path}.min`, axis.min, axis.unit, spec.unit, errors, pressureT);
+  const max = toCanonical(`${path}.max`, axis.max, axis.unit, spec.unit, errors, pressureT);
   check(`${path}.min`, min);
   check(`${path}.max`, max);
   if (axis.kind === 'log') {

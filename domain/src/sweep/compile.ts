@@ -4,7 +4,7 @@ import { allocateChunk, getModel, models, checkInputValue, resolveThresholds } f
 import type { ModelDefinition, Thresholds } from '../models/types.js';
 import { resolveAxis, type ResolvedAxis } from './axes.js';
 import { makeAxisFiller } from './design.js';
-import { resolveFixed, type ExpressionSource, type InputSource } from './fixed.js';
+import { fixedTemperature, resolveFixed, type ExpressionSource, type InputSource } from './fixed.js';
 import { MAX_POINTS_HARD, MAX_STORED_COLUMNS } from './limits.js';
 import { safeParseSweepDefinition, summarise } from './parse.js';
 import { saltelliPointCount } from './sampling/saltelli.js';
@@ -123,6 +123,10 @@ function checkDefinition(
   // Axes: each names a model input once.
   const grid = definition.sampling.kind === 'grid';
   const axisOf = new Map<string, number>();
+  definition.axes.forEach((axis, i) => {
+    if (!axisOf.has(axis.param)) axisOf.set(axis.param, i);
+  });
+  const seen = new Set<string>();
   const axes: (ResolvedAxis | null)[] = definition.axes.map((axis, i) => {
     const spec = model.inputs.find((s) => s.name === axis.param);
     if (!spec) {
@@ -134,15 +138,16 @@ function checkDefinition(
       });
       return null;
     }
-    if (axisOf.has(axis.param)) {
+    if (seen.has(axis.param)) {
       errors.push({
         path: `axes.${i}.param`,
         message: `${inputSymbol(model, axis.param)} is already swept by axis ${axisOf.get(axis.param)! + 1}`,
       });
       return null;
     }
-    axisOf.set(axis.param, i);
-    return resolveAxis(axis, i, spec, grid, errors);
+    seen.add(axis.param);
+    const pressureT = spec.pressureAt ? fixedTemperature(model, spec.pressureAt, definition.fixed, axisOf) : undefined;
+    return resolveAxis(axis, i, spec, grid, errors, pressureT);
   });
 
   const { sources, order } = resolveFixed(model, definition.fixed, axisOf, errors);

@@ -3,7 +3,7 @@ import type { ErrorDetail } from '../errors.js';
 import { compileExpression } from '../derived/index.js';
 import { checkInputValue } from '../models/index.js';
 import type { ModelDefinition } from '../models/types.js';
-import { parseQuantity } from '../units/index.js';
+import { densityFromPressure, parseQuantity, pressureInPascal } from '../units/index.js';
 import { math } from '../units/math.js';
 import { nearestName, unknownSymbolMessage } from '../suggest.js';
 import { ambiguousSymbol, EXPRESSION_CONSTANT_NAMES } from '../expression-constants.js';
@@ -89,6 +89,22 @@ export function resolveFixed(
       continue;
     }
     const text = raw.trim();
+    const pPa = spec.pressureAt ? pressureInPascal(text) : null;
+    if (pPa !== null) {
+      const t = fixedTemperature(model, spec.pressureAt!, fixed, axisOf);
+      if (t === null) {
+        errors.push({
+          path,
+          message: `a pressure converts to ${spec.name} at a fixed ${spec.pressureAt}; ${spec.pressureAt} is swept or computed here, so give ${spec.name} in ${spec.unit}`,
+        });
+        continue;
+      }
+      const value = densityFromPressure(pPa, t);
+      const message = checkInputValue(spec, value);
+      if (message) errors.push({ path, message: `${message} (from ${text} at ${spec.pressureAt} = ${t})` });
+      byName.set(name, { name, kind: 'constant', value, from: 'fixed' });
+      continue;
+    }
     const symbols = symbolsOf(text);
     const deps = symbols ? [...symbols].filter((s) => known.has(s)) : [];
     // A name that is neither an input nor a unit is a typo of an input far more often than an unknown
@@ -156,6 +172,28 @@ export function resolveFixed(
   });
 
   return { sources, order: topologicalOrder(sources, errors) };
+}
+
+/**
+ * The temperature a pressure converts at: the fixed value of input `tName` (number or quantity
+ * string) or its default; null when it is swept, an expression or unreadable.
+ */
+export function fixedTemperature(
+  model: ModelDefinition,
+  tName: string,
+  fixed: Record<string, number | string>,
+  axisOf: Map<string, number>,
+): number | null {
+  const spec = model.inputs.find((s) => s.name === tName);
+  if (!spec || axisOf.has(tName)) return null;
+  const raw = fixed[tName];
+  if (raw === undefined) return spec.default;
+  try {
+    const t = parseQuantity(`fixed.${tName}`, raw, spec.unit);
+    return checkInputValue(spec, t) ? null : t;
+  } catch {
+    return null;
+  }
 }
 
 /** The value of an expression with no input symbols (numbers, pi, q_e, m_p, …), or null if it is not one. */
