@@ -24,6 +24,11 @@ export function csvLine(fields: readonly string[]): string {
   return fields.map(csvField).join(',') + '\n';
 }
 
+/** A line of user text (names, units, meanings): every field gets the formula guard of textCell. */
+export function textLine(fields: readonly string[]): string {
+  return fields.map(textCell).join(',') + '\n';
+}
+
 /** How a stored value is written: numbers at full precision, booleans as words, NULL as empty. */
 export type CellFormat = 'number' | 'boolean';
 

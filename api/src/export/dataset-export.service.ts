@@ -3,7 +3,7 @@ import type { DatasetColumn } from '@driftgrid/domain';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
 import { DatasetsRepository, type DatasetRow } from '../datasets/datasets.repository.js';
 import { columnsOf } from '../datasets/datasets.service.js';
-import { csvLine, slugify, textCell } from './csv-format.js';
+import { csvLine, slugify, textCell, textLine } from './csv-format.js';
 import { datasetReadme } from './export-texts.js';
 import { ExportRepository } from './export.repository.js';
 import type { CsvPieces, StreamDigest } from './hashed-stream.js';
@@ -60,7 +60,8 @@ export class DatasetExportBuilder {
     });
     const columnsCsv =
       csvLine(['name', 'kind', 'unit', 'uploaded_unit', 'quantity']) +
-      columns.map((c) => csvLine([c.name, c.kind, c.canonicalUnit, c.unit, c.quantity ?? ''])).join('');
+      // Names and units are user text: the same formula guard as the data file's cells and header.
+      columns.map((c) => textLine([c.name, c.kind, c.canonicalUnit, c.unit, c.quantity ?? ''])).join('');
     const readme = datasetReadme({
       name: d.name,
       id: d.id,

@@ -5,7 +5,7 @@ import { layoutOf } from '../sweeps/results-reader.js';
 import type { StoredColumn } from '../sweeps/sweep-layout.js';
 import type { SweepRow } from '../sweeps/sweeps.repository.js';
 import { SweepsRepository } from '../sweeps/sweeps.repository.js';
-import { csvLine, formatBatch, slugify } from './csv-format.js';
+import { csvLine, formatBatch, slugify, textLine } from './csv-format.js';
 import { sweepReadme } from './export-texts.js';
 import { ExportRepository } from './export.repository.js';
 import type { CsvPieces, StreamDigest } from './hashed-stream.js';
@@ -93,7 +93,7 @@ export class SweepExportBuilder {
       archived: archivedAt !== null,
     });
     const columnsCsv =
-      csvLine(['name', 'unit', 'meaning']) + columns.map((c) => csvLine([c.name, c.unit, c.meaning])).join('');
+      csvLine(['name', 'unit', 'meaning']) + columns.map((c) => textLine([c.name, c.unit, c.meaning])).join('');
 
     return buildZip({
       date: new Date(s.finishedAt ?? s.createdAt),
@@ -108,7 +108,7 @@ export class SweepExportBuilder {
   }
 
   private *csvPieces(s: SweepRow, layout: StoredColumn[], booleans: number[]): CsvPieces {
-    yield { text: csvLine(layout.map((c) => c.name)), rows: 0 };
+    yield { text: textLine(layout.map((c) => c.name)), rows: 0 };
     for (const batch of this.rows.sweepRows(s)) yield { text: formatBatch(batch, booleans), rows: batch.length };
   }
 }
