@@ -6,6 +6,7 @@ import { DocumentBuilder, SwaggerModule } from '@nestjs/swagger';
 import helmet from 'helmet';
 import { AppModule } from './app.module.js';
 import { AppLogger } from './common/app-logger.js';
+import { noStoreOnSecrets } from './auth/no-store.js';
 import { requestContext } from './common/request-context.middleware.js';
 import type { AppConfig } from './config/app-config.js';
 import { SeedService } from './seed/seed.service.js';
@@ -27,6 +28,7 @@ export async function createApp(config: AppConfig): Promise<CreatedApp> {
   app.set('trust proxy', 'loopback');
   app.set('query parser', 'simple');
   app.use(requestContext(config));
+  app.use(noStoreOnSecrets());
   app.use(
     helmet({
       contentSecurityPolicy: {

@@ -2,6 +2,7 @@ import { createRequire } from 'node:module';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { DEV_JWT_SECRET, envSchema, type Env } from './config.schema.js';
+import { weakSecretReason } from './secret-strength.js';
 
 /** Typed configuration: the environment validated once, with derived paths. */
 export interface AppConfig {
@@ -69,6 +70,12 @@ export function loadConfig(source: NodeJS.ProcessEnv = process.env): AppConfig {
     if (e.JWT_SECRET === DEV_JWT_SECRET) {
       throw new ConfigError(
         'Refusing to start in production with the default JWT_SECRET; set JWT_SECRET (or ALLOW_INSECURE_DEMO=true for a trial).',
+      );
+    }
+    const weak = weakSecretReason(e.JWT_SECRET);
+    if (weak) {
+      throw new ConfigError(
+        `Refusing to start in production: JWT_SECRET is too easy to guess (${weak}). Use a long random value, for example the output of \`openssl rand -base64 48\`.`,
       );
     }
     if (seedDemo) {
