@@ -2,9 +2,12 @@ import Database from 'better-sqlite3';
 import { createHash } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
+import { Queue } from 'bullmq';
+import { Redis } from 'ioredis';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { CHUNK_QUEUE } from '../../worker/src/queue-names.js';
 import { DEMO, startTestApp, tempDataDir } from '../support/app.js';
-import { apiJson, apiLogin, freePort, spawnNode, startApiProcess, type Proc } from '../support/processes.js';
+import { apiJson, apiLogin, freePort, REPO, spawnNode, startApiProcess, type Proc } from '../support/processes.js';
 import { realRedis, type RedisHandle } from '../support/redis.js';
 import { smallSweep, waitForSweep } from '../support/sweeps.js';
 
@@ -153,6 +156,90 @@ describe.runIf(redis)('kill -9 of the api and of a standalone worker at seeded r
     await startApi();
     token = await apiLogin(api.baseUrl, DEMO.researcher);
     expect(await sha256Of(api.baseUrl, token, archivedId)).toBe(frozenSha);
+  });
+});
+
+/** Longest wait accepted between a worker's kill -9 and its chunk being given back (BullMQ defaults gave 30–64 s). */
+const RECOVERY_BOUND_MS = 30_000;
+
+describe.runIf(redis)('a standalone worker killed while it holds a chunk', () => {
+  it(`has the chunk given back to a live worker within ${RECOVERY_BOUND_MS / 1000} s`, async () => {
+    const dataDir = tempDataDir();
+    dirs.push(dataDir);
+    const prefix = `dgkill${process.pid}`;
+    const api = await startApiProcess({
+      DATA_DIR: dataDir,
+      REDIS_URL: redis!.url,
+      QUEUE_PREFIX: prefix,
+      CHUNK_SIZE: '1000',
+    });
+    procs.push(api.proc);
+    const workerEnv = { REDIS_URL: redis!.url, QUEUE_PREFIX: prefix, WORKER_CONCURRENCY: '1', WORKER_THREADS: '1' };
+    const connection = new Redis(redis!.url, { maxRetriesPerRequest: null });
+    const queue = new Queue(CHUNK_QUEUE, { connection, prefix });
+    try {
+      // Two workers on the queue; both have started before the kill, so no start-up is measured.
+      const doomed = spawnNode('worker/dist/main.js', workerEnv);
+      const survivor = spawnNode('worker/dist/main.js', workerEnv);
+      procs.push(doomed, survivor);
+      const started = Date.now();
+      while ((await queue.getWorkers()).length < 2) {
+        if (Date.now() - started > 60_000)
+          throw new Error(`workers did not connect:\n${doomed.output()}\n${survivor.output()}`);
+        await new Promise((r) => setTimeout(r, 100));
+      }
+      // The column profile (nr = 256) takes about a millisecond a point: chunks of 1,000 run for a while.
+      const definition = JSON.parse(fs.readFileSync(path.join(REPO, 'examples', 'argon-column-width.json'), 'utf8'));
+      definition.name = 'worker kill scan';
+      definition.axes[0].count = 2000; // × 3 fields = 6,000 points, 6 chunks
+      const token = await apiLogin(api.baseUrl, DEMO.researcher);
+      const created = await apiJson(api.baseUrl, token, 'POST', '/api/sweeps', definition);
+      expect(created.status).toBe(201);
+      const id = created.body.id as number;
+      // Kill the first worker as soon as it holds a chunk.
+      const doomedPid = doomed.child.pid;
+      let held: string[] = [];
+      for (const deadline = Date.now() + 60_000; Date.now() < deadline && !held.length;) {
+        const active = await queue.getActive();
+        held = active.map((j) => j.id!).filter(Boolean);
+        if (!held.length) await new Promise((r) => setTimeout(r, 20));
+      }
+      expect(held.length, 'a chunk became active').toBeGreaterThan(0);
+      await doomed.kill('SIGKILL');
+      const killedAt = Date.now();
+      console.log(`worker ${doomedPid} killed holding one of ${held.join(', ')}`);
+      // Every chunk active at the kill either finishes (the survivor's) or is given back and finishes.
+      const pending = new Set(held);
+      let recoveredMs = 0;
+      while (pending.size && Date.now() - killedAt < 120_000) {
+        for (const jobId of [...pending]) {
+          const job = await queue.getJob(jobId);
+          const state = job ? await job.getState() : 'gone';
+          if (state !== 'active' || (job?.processedOn ?? 0) > killedAt) {
+            pending.delete(jobId);
+            recoveredMs = Math.max(recoveredMs, Date.now() - killedAt);
+          }
+        }
+        await new Promise((r) => setTimeout(r, 100));
+      }
+      console.log(`chunks held at the kill were free again after ${(recoveredMs / 1000).toFixed(1)} s`);
+      expect([...pending], 'chunks still held by the killed worker').toEqual([]);
+      expect(recoveredMs).toBeLessThan(RECOVERY_BOUND_MS);
+      // And the sweep finishes with exactly its points.
+      for (const deadline = Date.now() + 120_000; ;) {
+        const r = await apiJson(api.baseUrl, token, 'GET', `/api/sweeps/${id}`);
+        if (r.body.status === 'completed') {
+          expect(r.body.progress.done).toBe(6000);
+          break;
+        }
+        if (!['queued', 'running'].includes(r.body.status) || Date.now() > deadline)
+          throw new Error(`sweep ${id} ${r.body.status}: ${JSON.stringify(r.body.progress)}\n${survivor.output()}`);
+        await new Promise((res) => setTimeout(res, 200));
+      }
+    } finally {
+      await queue.close();
+      connection.disconnect();
+    }
   });
 });
 

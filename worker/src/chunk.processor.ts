@@ -3,7 +3,7 @@ import { Inject, Logger, type OnApplicationBootstrap, type OnModuleDestroy } fro
 import { UnrecoverableError, type Job, type Queue } from 'bullmq';
 import { encodeFloat64, encodeUint32 } from './chunk-codec.js';
 import { chunkJobId, type ChunkJobData, type ChunkResultPayload } from './chunk-job.js';
-import { CHUNK_QUEUE, RESULT_QUEUE } from './queue-names.js';
+import { CHUNK_QUEUE, QUEUE_LOCK_TIMING, RESULT_QUEUE } from './queue-names.js';
 import { ChunkComputeError, ChunkThreadPool } from './thread-pool.js';
 import { InlineResultTransport, type ResultTransport } from './result-transport.js';
 
@@ -31,7 +31,7 @@ export const MAX_RESULT_BACKLOG = 6;
  * Computes chunk jobs and sends their results back through the results queue. Never touches SQLite,
  * so the same processor runs inside the api (embedded mode) or in any number of worker processes.
  */
-@Processor(CHUNK_QUEUE)
+@Processor(CHUNK_QUEUE, { ...QUEUE_LOCK_TIMING })
 export class ChunkProcessor extends WorkerHost implements OnApplicationBootstrap, OnModuleDestroy {
   private readonly logger = new Logger('ChunkProcessor');
   private readonly pool: ChunkThreadPool;

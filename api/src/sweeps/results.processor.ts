@@ -1,7 +1,7 @@
 import { Processor, WorkerHost } from '@nestjs/bullmq';
 import { Logger } from '@nestjs/common';
 import type { Job } from 'bullmq';
-import { RESULT_QUEUE, ResultTransport, type ChunkResultPayload } from '@driftgrid/worker';
+import { QUEUE_LOCK_TIMING, RESULT_QUEUE, ResultTransport, type ChunkResultPayload } from '@driftgrid/worker';
 import { ChunkDispatcher } from './chunk-dispatcher.js';
 import { SweepPersistence, type ChunkFailure } from './sweep-persistence.service.js';
 import { SweepsRepository } from './sweeps.repository.js';
@@ -14,7 +14,7 @@ const FINAL_STORAGE_ERRORS: Record<string, string> = {
 };
 
 /** The api is the only consumer of the results queue: it alone writes SQLite. */
-@Processor(RESULT_QUEUE, { concurrency: 1 })
+@Processor(RESULT_QUEUE, { concurrency: 1, ...QUEUE_LOCK_TIMING })
 export class ResultsProcessor extends WorkerHost {
   private readonly logger = new Logger('ResultsProcessor');
 
