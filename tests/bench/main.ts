@@ -72,12 +72,12 @@ export async function main(): Promise<number> {
       const sweep = await apiJson(kept.api.baseUrl, kept.api.token, 'GET', `/api/sweeps/${kept.sweepId}`);
       await step('storage', () => benchStorage(kept, sweep.body?.columns?.length, report));
       await step('fit (api)', () => benchFitApi(cfg, kept, report));
+      await step('load', () => benchLoad(cfg, report, kept));
     } finally {
       await kept.api.stop();
     }
     await step('scaling', () => benchScaling(cfg, report));
     await step('redis', () => benchRedisSweep(cfg, report));
-    await step('load', () => benchLoad(cfg, report));
   } catch (e) {
     if (!(e instanceof OnlyDone)) failure = e;
   } finally {

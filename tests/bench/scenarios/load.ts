@@ -14,6 +14,7 @@ import { crossFieldGrid } from '../lib/definitions.js';
 import type { Report } from '../lib/report.js';
 import { sampleHealth } from '../lib/samplers.js';
 import { median, percentile } from '../lib/stats.js';
+import type { KeptSweep } from './sweep-embedded.js';
 
 const CLIENT_TIMEOUT_MS = 30_000;
 
@@ -54,23 +55,29 @@ async function get(baseUrl: string, token: string, route: string, t: Tally): Pro
 
 const pause = (ms: number) => new Promise((r) => setTimeout(r, ms));
 
-export async function benchLoad(cfg: BenchConfig, report: Report): Promise<void> {
-  const points = cfg.sweepPoints;
+/**
+ * `kept`: the api and big sweep of the embedded scenario (the full chain); without it (BENCH_ONLY=load)
+ * a fresh api is started and the table computed first.
+ */
+export async function benchLoad(cfg: BenchConfig, report: Report, kept?: KeptSweep): Promise<void> {
+  const points = kept?.points ?? cfg.sweepPoints;
   const clients = cfg.quick ? 10 : 50;
   const seconds = cfg.quick ? 8 : 30;
   console.log(
     `\n[9] load: ${clients} browsing + 3 re-sorting clients for ${seconds} s on a ${points.toLocaleString('en-US')}-row table while a sweep of the same size runs`,
   );
-  const api: ApiHandle = await startApi('load');
+  const api: ApiHandle = kept?.api ?? (await startApi('load'));
   try {
     const scenario = 'load';
-    const table = await runSweep(api, crossFieldGrid(points));
+    const table = kept ? { id: kept.sweepId } : await runSweep(api, crossFieldGrid(points));
     const share = await fetch(`${api.baseUrl}/api/sweeps/${table.id}/sharing`, {
       method: 'PUT',
       headers: { authorization: `Bearer ${api.token}`, 'content-type': 'application/json' },
       body: JSON.stringify({ visibility: 'group', userIds: [] }),
     });
-    if (share.status !== 200) throw new Error(`sharing the bench sweep answered ${share.status}`);
+    // 409: the sweep is archived (the export scenario may archive it), and archived sweeps are readable by all.
+    if (share.status !== 200 && share.status !== 409)
+      throw new Error(`sharing the bench sweep answered ${share.status}`);
     const tokens = [
       api.token,
       await apiLogin(api.baseUrl, 'reviewer@example.com'),
@@ -225,6 +232,6 @@ export async function benchLoad(cfg: BenchConfig, report: Report): Promise<void>
       `load: the concurrent sweep was at ${progress?.progress ? `${progress.progress.done}/${progress.progress.total}` : '?'} points when the clients stopped; other non-200 answers: ${all.reduce((a, t) => a + t.other, 0)}`,
     );
   } finally {
-    await api.stop();
+    if (!kept) await api.stop();
   }
 }
