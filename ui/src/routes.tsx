@@ -75,6 +75,7 @@ export const pageRoutes: readonly PageRoute[] = [
     load: () => import('./pages/Fits.page.js'),
     nav: { label: 'Fits', icon: IconMathFunction, alsoActiveFor: ['/fits/'] },
   },
+  { path: '/fits/compare', title: 'Compare fits', load: () => import('./pages/FitCompare.page.js') },
   { path: '/fits/:id', title: 'Fit', load: () => import('./pages/Fit.page.js') },
   {
     path: '/single-point',

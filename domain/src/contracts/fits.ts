@@ -268,3 +268,6 @@ export interface FitQueuedView {
 }
 
 export type FitCreatedView = FitView | FitQueuedView;
+
+/** The POST /api/fits body as a client sends it: the request with the source id as a number. */
+export type FitRequestBody = Omit<FitRequest, 'source'> & { source: { kind: FitSourceKind; id: number } };

@@ -2,63 +2,23 @@
  * Fit reads and writes for the ui (SPEC §6): POST /api/fits, GET /api/fits[/:id]. Keys come from
  * queryKeys.ts; reads have queryOptions() factories.
  */
-import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-// The fit shape GET /api/fits/:id returns (SPEC §6 plus intervals, plot data, versions).
-import type { FitParameterView, FitPlotData } from '@driftgrid/domain';
+import { queryOptions, useMutation, useQueries, useQuery, useQueryClient } from '@tanstack/react-query';
+// The fit shapes are the domain's contracts (domain/src/contracts/fits.ts), shared with the api's presenter.
+import type {
+  FitCreatedView,
+  FitDerivedView,
+  FitParameterView,
+  FitPlotData,
+  FitRequestBody,
+  FitSourceKind,
+  FitView,
+} from '@driftgrid/domain';
 import { api, type Page } from './client.js';
 import { afterSuccess, type MutationHandlers } from './mutations.js';
 import { queryKeys } from './queryKeys.js';
 
-export type { FitParameterView, FitPlotData };
-
-export type FitSourceKind = 'sweep' | 'dataset';
-
-export interface FitView {
-  id: number;
-  status: 'queued' | 'running' | 'completed' | 'failed';
-  progress: number;
-  model: string;
-  source: { kind: FitSourceKind; id: number; name: string | null };
-  y: string;
-  x: string | string[];
-  request: Record<string, unknown>;
-  parameters?: FitParameterView[];
-  confidence?: { level: number; method: string; t: number | null; dof: number };
-  rss?: number | null;
-  r2?: number | null;
-  rmse?: number | null;
-  residualSd?: number | null;
-  chi2red?: number | null;
-  dof?: number;
-  n?: number;
-  dropped?: number;
-  iterations?: number;
-  converged?: boolean;
-  message?: string;
-  signRestored?: boolean;
-  units?: Record<string, string>;
-  plot?: FitPlotData;
-  error: string | null;
-  modelVersion: string | null;
-  appVersion: string;
-  owner: { id: number; name: string };
-  createdAt: string;
-  finishedAt: string | null;
-}
-
-/** POST /api/fits body (SPEC §6). */
-export interface FitRequestBody {
-  source: { kind: FitSourceKind; id: number };
-  model: string;
-  y: string;
-  x: string | string[];
-  expr?: string;
-  params?: Record<string, number>;
-  filter?: Record<string, Record<string, number | boolean>>;
-  weights?: string;
-}
-
-export type FitCreated = FitView | { id: number; status: 'queued'; progress: number; n: number; dropped: number };
+export type { FitDerivedView, FitParameterView, FitPlotData, FitRequestBody, FitSourceKind, FitView };
+export type FitCreated = FitCreatedView;
 
 export type FitListQuery = { sourceKind?: FitSourceKind; sourceId?: number; page?: number; pageSize?: number };
 
@@ -84,6 +44,11 @@ export function useFit(id: number | null) {
     enabled: id !== null,
     refetchInterval: (query) => (query.state.data && !LIVE_FIT.has(query.state.data.status) ? false : 500),
   });
+}
+
+/** Several fits by id at once (the comparison view). */
+export function useFits(ids: number[]) {
+  return useQueries({ queries: ids.map((id) => fitQueries.detail(id)) });
 }
 
 /** Saved fits, polled while any on the page is still running. */

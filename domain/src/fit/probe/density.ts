@@ -50,6 +50,6 @@ export function probeDensity(
     value: n,
     stdError: Math.sqrt(Math.max(variance, 0)),
     unit: 'm^-3',
-    method: `n = I_is / (h·e·A·sqrt(e·Te/m_i)), h = ${h}, A = ${probe.area_m2} m², m_i = ${probe.mu}·m_p; error by the delta method from the covariance of I_is and Te`,
+    method: `n = I_is / (h·e·A·sqrt(e·Te/m_i)), h = ${h}, A = ${probe.area_m2.toExponential(3)} m², m_i = ${probe.mu}·m_p; error by the delta method from the covariance of I_is and Te`,
   };
 }

@@ -1,37 +1,14 @@
 import { Group, Paper, SimpleGrid, Switch, Text, useComputedColorScheme } from '@mantine/core';
-import { useEffect, useMemo, useRef, useState } from 'react';
+import { useMemo, useState } from 'react';
 import { formatNumber, prettyUnit } from '../../lib/format.js';
 import type { FitPlotData } from '../FitResult/fit-types.js';
 import { fitPlotSeries, type Pair } from './plot-series.js';
-
-type Chart = { dispose(): void; resize(): void; setOption(o: unknown): void };
+import { useChart } from './use-chart.js';
 
 const DATA = '#1f6f8b';
 const FIT = '#c0612b';
 
-function useChart(option: unknown, scheme: string) {
-  const ref = useRef<HTMLDivElement>(null);
-  useEffect(() => {
-    let disposed = false;
-    let chart: Chart | null = null;
-    const onResize = () => chart?.resize();
-    // Lazy: echarts loads only when a fit is first drawn.
-    void import('./echarts.js').then(({ init }) => {
-      if (disposed || !ref.current) return;
-      chart = init(ref.current, scheme === 'dark' ? 'dark' : undefined, { renderer: 'svg' });
-      chart.setOption(option);
-      window.addEventListener('resize', onResize);
-    });
-    return () => {
-      disposed = true;
-      window.removeEventListener('resize', onResize);
-      chart?.dispose();
-    };
-  }, [option, scheme]);
-  return ref;
-}
-
-function axis(name: string, log: boolean) {
+export function axis(name: string, log: boolean) {
   return {
     type: log ? 'log' : 'value',
     name,
@@ -42,7 +19,7 @@ function axis(name: string, log: boolean) {
   };
 }
 
-function baseOption(text: string, file: string) {
+export function baseOption(text: string, file: string) {
   return {
     backgroundColor: 'transparent',
     animation: false,

@@ -1,7 +1,8 @@
-import { Alert, Group, Paper, SimpleGrid, Stack, Table, Text } from '@mantine/core';
+import { Alert, Badge, Button, Group, Paper, SimpleGrid, Stack, Table, Text } from '@mantine/core';
 import { IconAlertTriangle, IconCircleCheck } from '@tabler/icons-react';
 import { Num } from '../Num/Num.js';
 import { prettyUnit } from '../../lib/format.js';
+import { FitCorrelation } from './FitCorrelation.js';
 import { FitStatus } from './FitStatus.js';
 import { MODEL_LABEL, xList, type FitView } from './fit-types.js';
 
@@ -10,6 +11,8 @@ function paramLabel(name: string): string {
   if (name.startsWith('exp_')) return `exponent of ${name.slice(4)}`;
   if (name === 'gamma') return 'γ (polytropic index)';
   if (name === 'Te_eV') return 'Te';
+  if (name === 'I_is') return 'ion saturation current';
+  if (name === 'V_f') return 'floating potential';
   return name;
 }
 
@@ -31,9 +34,19 @@ function Stat({ label, children, testId }: { label: string; children: React.Reac
  * convergence in words and icon, points used and dropped. Test hooks: `fit-param-<name>` rows carry
  * data-value and data-stderr with full precision.
  */
-export function FitResult({ fit }: { fit: FitView }) {
+export function FitResult({
+  fit,
+  onStartFrom,
+}: {
+  fit: FitView;
+  /** Fills the fit form with these start values (offered when the fit did not converge). */
+  onStartFrom?: (values: Record<string, number>) => void;
+}) {
   const live = fit.status === 'queued' || fit.status === 'running';
   const level = Math.round((fit.confidence?.level ?? 0.95) * 100);
+  const yUnit = fit.units?.[fit.y];
+  const inY = yUnit && yUnit !== '1' ? ` ${prettyUnit(yUnit)}` : '';
+  const unitLabel = (u: string | null | undefined) => (u === '1' ? 'dimensionless' : u ? prettyUnit(u) : '—');
   return (
     <Paper withBorder p="md" radius="sm" data-testid="fit-result" data-fit-id={fit.id} data-status={fit.status}>
       <Stack gap="sm">
@@ -63,6 +76,31 @@ export function FitResult({ fit }: { fit: FitView }) {
                 title="Not converged — do not use these values"
               >
                 {fit.message}
+                {fit.advice ? (
+                  <Stack gap={6} mt="xs" data-testid="fit-advice" data-suspect={fit.advice.suspect}>
+                    <Text fz="sm" fw={600}>
+                      Suspect the {fit.advice.suspect === 'start' ? 'start values' : 'data'}.
+                    </Text>
+                    <Text fz="xs" ff="monospace">
+                      Last iterate:{' '}
+                      {Object.entries(fit.advice.lastIterate)
+                        .map(([k, v]) => `${k} = ${v.toPrecision(6)}`)
+                        .join(', ')}
+                    </Text>
+                    {onStartFrom ? (
+                      <Group>
+                        <Button
+                          size="compact-sm"
+                          variant="light"
+                          data-testid="fit-start-from-last"
+                          onClick={() => onStartFrom(fit.advice!.lastIterate)}
+                        >
+                          Fill the form with the last iterate as start values
+                        </Button>
+                      </Group>
+                    ) : null}
+                  </Stack>
+                ) : null}
               </Alert>
             ) : null}
             <Table striped withTableBorder fz="sm" data-testid="fit-parameters">
@@ -81,6 +119,7 @@ export function FitResult({ fit }: { fit: FitView }) {
                     data-testid={`fit-param-${p.name}`}
                     data-value={String(p.value)}
                     data-stderr={String(p.stdError)}
+                    data-fixed={String(p.fixed === true)}
                   >
                     <Table.Td>
                       <Text fz="sm" ff="monospace" span>
@@ -91,6 +130,11 @@ export function FitResult({ fit }: { fit: FitView }) {
                           {' '}
                           — {paramLabel(p.name)}
                         </Text>
+                      ) : null}
+                      {p.fixed ? (
+                        <Badge size="xs" variant="outline" color="gray" ml={6} tt="none">
+                          held fixed
+                        </Badge>
                       ) : null}
                     </Table.Td>
                     <Table.Td ta="right">
@@ -105,11 +149,45 @@ export function FitResult({ fit }: { fit: FitView }) {
                         '—'
                       )}
                     </Table.Td>
-                    <Table.Td>{p.unit === '1' ? 'dimensionless' : p.unit ? prettyUnit(p.unit) : '—'}</Table.Td>
+                    <Table.Td>{unitLabel(p.unit)}</Table.Td>
                   </Table.Tr>
                 ))}
               </Table.Tbody>
             </Table>
+            {fit.derived?.length ? (
+              <Table withTableBorder fz="sm" data-testid="fit-derived">
+                <Table.Thead>
+                  <Table.Tr>
+                    <Table.Th>Derived quantity</Table.Th>
+                    <Table.Th ta="right">Value ± standard error</Table.Th>
+                    <Table.Th>Unit</Table.Th>
+                  </Table.Tr>
+                </Table.Thead>
+                <Table.Tbody>
+                  {fit.derived.map((d) => (
+                    <Table.Tr
+                      key={d.name}
+                      data-testid={`fit-derived-${d.name}`}
+                      data-value={String(d.value)}
+                      data-stderr={String(d.stdError)}
+                    >
+                      <Table.Td>
+                        <Text fz="sm" ff="monospace" span>
+                          {d.name}
+                        </Text>
+                        <Text fz="xs" c="dimmed">
+                          {d.method}
+                        </Text>
+                      </Table.Td>
+                      <Table.Td ta="right">
+                        <Num value={d.value} sig={4} /> ± <Num value={d.stdError} sig={2} />
+                      </Table.Td>
+                      <Table.Td>{unitLabel(d.unit)}</Table.Td>
+                    </Table.Tr>
+                  ))}
+                </Table.Tbody>
+              </Table>
+            ) : null}
             <SimpleGrid cols={{ base: 2, sm: 4 }} spacing="sm">
               <Stat label="Converged" testId="fit-converged">
                 <Group gap={4} wrap="nowrap">
@@ -124,17 +202,40 @@ export function FitResult({ fit }: { fit: FitView }) {
               <Stat label="R²" testId="fit-r2">
                 <Num value={fit.r2} sig={8} />
               </Stat>
-              <Stat label="RMSE">
+              <Stat label={`RMSE${inY ? ` (${inY.trim()})` : ''}`} testId="fit-rmse">
                 <Num value={fit.rmse} />
+                {inY}
               </Stat>
-              <Stat label="Residual standard deviation">
+              <Stat label={`Residual standard deviation${inY ? ` (${inY.trim()})` : ''}`}>
                 <Num value={fit.residualSd} />
+                {inY}
               </Stat>
+              {fit.chi2 !== undefined ? (
+                <Stat label="χ² (dimensionless)" testId="fit-chi2">
+                  <Num value={fit.chi2} />
+                </Stat>
+              ) : null}
+              {fit.chi2PValue !== undefined ? (
+                <Stat label="p-value of χ²" testId="fit-chi2-p">
+                  <Num value={fit.chi2PValue} sig={3} />
+                </Stat>
+              ) : null}
               {fit.chi2red !== undefined ? (
-                <Stat label="Reduced χ²">
+                <Stat label="Reduced χ² (dimensionless)">
                   <Num value={fit.chi2red} />
                 </Stat>
               ) : null}
+              {fit.sigmaMode ? (
+                <Stat label="σ taken as" testId="fit-sigma-mode-used">
+                  {fit.sigmaMode === 'absolute' ? 'absolute errors' : 'relative weights'}
+                </Stat>
+              ) : null}
+              <Stat label="AIC (dimensionless)" testId="fit-aic">
+                <Num value={fit.aic} sig={6} />
+              </Stat>
+              <Stat label="BIC (dimensionless)" testId="fit-bic">
+                <Num value={fit.bic} sig={6} />
+              </Stat>
               <Stat label="Degrees of freedom">
                 <Num value={fit.dof} />
               </Stat>
@@ -148,10 +249,26 @@ export function FitResult({ fit }: { fit: FitView }) {
                 <Num value={fit.dropped} />
               </Stat>
             </SimpleGrid>
+            {fit.correlation ? (
+              <FitCorrelation names={fit.parameters.map((p) => p.name)} correlation={fit.correlation} />
+            ) : null}
+            {fit.region ? (
+              <Text fz="xs" c="dimmed" data-testid="fit-region">
+                Fitted window: {fit.region.vMin} V to <Num value={fit.region.vMax} sig={4} /> V (
+                {fit.region.automatic ? 'retardation region found below the knee' : 'as requested'}), {fit.region.used}{' '}
+                of {fit.region.of} points.
+              </Text>
+            ) : null}
             <Text fz="xs" c="dimmed">
               {fit.message}. Intervals: value ± t·(standard error), t = <Num value={fit.confidence?.t} sig={5} /> the
               Student-t quantile for {fit.dof} degrees of freedom. Standard errors from s²·(JᵀJ)⁻¹
-              {fit.chi2red !== undefined ? ' scaled by the reduced χ² (weighted fit)' : ''}.
+              {fit.sigmaMode === 'absolute'
+                ? ': σ taken as the true errors, covariance (JᵀWJ)⁻¹ unscaled'
+                : fit.chi2red !== undefined
+                  ? ' scaled by the reduced χ² (weighted fit, relative σ)'
+                  : ''}
+              . AIC = n·ln(χ²/n) + 2k and BIC = n·ln(χ²/n) + k·ln n with k free parameters (compare fits of the same
+              data only; lower is better).
               {fit.signRestored
                 ? ' y is negative everywhere: the power law was fitted to |y| and C carries the sign.'
                 : ''}

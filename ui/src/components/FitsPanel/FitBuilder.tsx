@@ -6,9 +6,11 @@ import {
   Group,
   MultiSelect,
   Paper,
+  SegmentedControl,
   Select,
   SimpleGrid,
   Stack,
+  Switch,
   Text,
   TextInput,
   Textarea,
@@ -18,7 +20,18 @@ import { useMemo, useState, type KeyboardEvent } from 'react';
 import { ApiError } from '../../api/client.js';
 import { prettyUnit } from '../../lib/format.js';
 import type { FitRequestBody, FitSourceKind } from '../FitResult/fit-types.js';
-import { SINGLE_X, initialState, toRequest, type BuilderState, type FitModel } from './builder-state.js';
+import {
+  PROBE_MODELS,
+  SINGLE_X,
+  initialState,
+  parameterNames,
+  toRequest,
+  type BuilderState,
+  type FitModel,
+} from './builder-state.js';
+import { ProbeFields } from './ProbeFields.js';
+import { probeColumns } from './probe-columns.js';
+import { SteerParameters } from './SteerParameters.js';
 
 export interface FitColumn {
   name: string;
@@ -41,6 +54,16 @@ const MODELS: { value: FitModel; label: string; hint: string }[] = [
     value: 'polytropic',
     label: 'Polytropic  n/n₀ against φ',
     hint: 'n/n₀ = [1 + ((γ−1)/γ)·φ/Te]^(1/(γ−1)); fits γ and Te (eV), γ = 1 is the Boltzmann relation.',
+  },
+  {
+    value: 'probe-retarding',
+    label: 'Single probe  I = I_is·(exp((V − V_f)/Te) − 1)',
+    hint: 'Electron-retardation region of a Langmuir probe trace (V in volts, I in amperes, electron current positive). Gives I_is, V_f and Te; with the probe area and ion mass also the density n.',
+  },
+  {
+    value: 'probe-double',
+    label: 'Double probe  I = I_is·tanh(V/(2Te))',
+    hint: 'Symmetric double probe: I_is is the ion saturation current of one tip. Gives I_is and Te; with the area and ion mass also n.',
   },
   {
     value: 'expression',
@@ -69,16 +92,20 @@ export function FitBuilder({
   pending,
   error,
   onSubmit,
+  initial,
 }: {
   source: { kind: FitSourceKind; id: number };
   columns: FitColumn[];
   pending: boolean;
   error: unknown;
   onSubmit: (body: FitRequestBody) => void;
+  /** A filled form (e.g. "start again from the last iterate"); the builder is re-keyed to apply it. */
+  initial?: BuilderState;
 }) {
   const numeric = useMemo(() => numericColumns(columns), [columns]);
   const hasValid = source.kind === 'sweep' && numeric.some((c) => c.name === 'valid');
-  const [s, setS] = useState<BuilderState>(() => initialState(hasValid));
+  const [s, setS] = useState<BuilderState>(() => initial ?? initialState(hasValid));
+  const probeTrace = useMemo(() => probeColumns(numeric), [numeric]);
   const [local, setLocal] = useState<Record<string, string>>({});
   const update = (patch: Partial<BuilderState>) => {
     setS((prev) => ({ ...prev, ...patch }));
@@ -127,6 +154,33 @@ export function FitBuilder({
       onKeyDown={onKeyDown}
     >
       <Stack gap="sm">
+        {probeTrace && !PROBE_MODELS.has(s.model) ? (
+          <Alert color="tide" variant="light" title="This looks like a probe trace" data-testid="fit-probe-offer">
+            <Group justify="space-between" gap="xs">
+              <Text fz="sm">
+                Columns {probeTrace.v} and {probeTrace.i} look like a current–voltage characteristic: fit Te, V_f and
+                the density with a probe model.
+              </Text>
+              <Group gap="xs">
+                <Button
+                  size="compact-sm"
+                  variant="light"
+                  data-testid="fit-probe-use-single"
+                  onClick={() => update({ model: 'probe-retarding', x: [probeTrace.v], y: probeTrace.i })}
+                >
+                  Single probe
+                </Button>
+                <Button
+                  size="compact-sm"
+                  variant="subtle"
+                  onClick={() => update({ model: 'probe-double', x: [probeTrace.v], y: probeTrace.i })}
+                >
+                  Double probe
+                </Button>
+              </Group>
+            </Group>
+          </Alert>
+        ) : null}
         <Select
           label="Model"
           data-testid="fit-model"
@@ -206,6 +260,33 @@ export function FitBuilder({
           onChange={(e) => update({ params: e.currentTarget.value })}
           error={fieldError('params')}
         />
+        {s.model === 'polytropic' ? (
+          <Switch
+            label="y is already normalised (n/n₀): do not fit n₀"
+            data-testid="fit-normalised"
+            checked={s.normalised}
+            onChange={(e) => update({ normalised: e.currentTarget.checked })}
+          />
+        ) : null}
+        {PROBE_MODELS.has(s.model) ? (
+          <ProbeFields
+            model={s.model}
+            probe={s.probe}
+            onChange={(patch) => update({ probe: { ...s.probe, ...patch } })}
+            errorFor={fieldError}
+          />
+        ) : null}
+        <div>
+          <Text fz="sm" fw={500} mb={4}>
+            Hold or bound parameters (optional)
+          </Text>
+          <SteerParameters
+            names={parameterNames(s)}
+            steer={s.steer}
+            onChange={(name, row) => update({ steer: { ...s.steer, [name]: row } })}
+            errorFor={fieldError}
+          />
+        </div>
         <div>
           <Text fz="sm" fw={500} mb={4}>
             Filter
@@ -284,10 +365,26 @@ export function FitBuilder({
           placeholder="Unweighted"
           data={options}
           value={s.weights}
-          description="One standard deviation per point; turns on weighted least squares and the reduced χ²."
+          description="One standard deviation per point; turns on weighted least squares, χ² and its p-value."
           onChange={(v) => update({ weights: v })}
           error={fieldError('weights')}
         />
+        {s.weights ? (
+          <div>
+            <Text fz="sm" fw={500} mb={4}>
+              σ are
+            </Text>
+            <SegmentedControl
+              data-testid="fit-sigma-mode"
+              value={s.sigmaMode}
+              onChange={(v) => update({ sigmaMode: v === 'absolute' ? 'absolute' : 'relative' })}
+              data={[
+                { value: 'relative', label: 'Relative: scale errors by the reduced χ² (default)' },
+                { value: 'absolute', label: 'Absolute: the true measurement errors' },
+              ]}
+            />
+          </div>
+        ) : null}
         {apiErr && !Object.keys(local).length ? (
           <Alert color="red" variant="light" title="The fit was not run" data-testid="fit-error">
             {apiErr.message}

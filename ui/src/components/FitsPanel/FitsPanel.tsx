@@ -5,6 +5,7 @@ import { FitPlot } from '../FitPlot/FitPlot.js';
 import { FitResult } from '../FitResult/FitResult.js';
 import { LIVE_FIT, type FitSourceKind, type FitView } from '../FitResult/fit-types.js';
 import { FitBuilder, type FitColumn } from './FitBuilder.js';
+import { fromRequest, type BuilderState } from './builder-state.js';
 import { SavedFits } from './SavedFits.js';
 
 export interface FitsPanelProps {
@@ -13,7 +14,15 @@ export interface FitsPanelProps {
 }
 
 /** A fit's result with its plots, or its progress while it runs. */
-export function FitDetail({ fit, columns }: { fit: FitView; columns?: FitColumn[] }) {
+export function FitDetail({
+  fit,
+  columns,
+  onStartFrom,
+}: {
+  fit: FitView;
+  columns?: FitColumn[];
+  onStartFrom?: (values: Record<string, number>) => void;
+}) {
   const live = LIVE_FIT.has(fit.status);
   const unitOf = (name: string) => {
     const u = fit.units?.[name] ?? columns?.find((c) => c.name === name)?.unit;
@@ -24,7 +33,7 @@ export function FitDetail({ fit, columns }: { fit: FitView; columns?: FitColumn[
       {live ? (
         <Progress value={fit.progress * 100} animated aria-label="Fit progress" data-testid="fit-progress" />
       ) : null}
-      <FitResult fit={fit} />
+      <FitResult fit={fit} onStartFrom={onStartFrom} />
       {fit.plot ? (
         <FitPlot
           plot={fit.plot}
@@ -45,9 +54,16 @@ export function FitsPanel({ source, columns }: FitsPanelProps) {
   const [selected, setSelected] = useState<number | null>(null);
   const create = useCreateFit({ onSuccess: (created) => setSelected(created.id) });
   const current = useFit(selected);
+  // "Start again from the last iterate": the builder is re-keyed with the failed fit's request.
+  const [prefill, setPrefill] = useState<{ state: BuilderState; nonce: number } | null>(null);
+  const hasValid = source.kind === 'sweep' && columns.some((c) => c.name === 'valid');
+  const startFrom = (fit: FitView) => (values: Record<string, number>) =>
+    setPrefill((prev) => ({ state: fromRequest(fit.request, hasValid, values), nonce: (prev?.nonce ?? 0) + 1 }));
   return (
     <Stack gap="md" data-testid="fits-panel" data-source-kind={source.kind} data-source-id={source.id}>
       <FitBuilder
+        key={prefill?.nonce ?? 0}
+        initial={prefill?.state}
         source={source}
         columns={columns}
         pending={create.isPending}
@@ -55,7 +71,7 @@ export function FitsPanel({ source, columns }: FitsPanelProps) {
         onSubmit={(b) => create.mutate(b)}
       />
       {current.data ? (
-        <FitDetail fit={current.data} columns={columns} />
+        <FitDetail fit={current.data} columns={columns} onStartFrom={startFrom(current.data)} />
       ) : selected !== null && current.isLoading ? (
         <Text fz="sm" c="dimmed">
           Loading the fit…

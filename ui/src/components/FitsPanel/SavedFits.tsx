@@ -1,6 +1,7 @@
-import { Anchor, Group, Pagination, Paper, Table, Text } from '@mantine/core';
+import { Anchor, Button, Checkbox, Group, Pagination, Paper, Table, Text } from '@mantine/core';
+import { IconArrowsDiff } from '@tabler/icons-react';
 import { useState } from 'react';
-import { Link } from 'react-router-dom';
+import { Link, useNavigate } from 'react-router-dom';
 import { useFitList } from '../../api/fits.js';
 import { Num } from '../Num/Num.js';
 import { FitStatus } from '../FitResult/FitStatus.js';
@@ -48,6 +49,10 @@ export function SavedFits({
   const [page, setPage] = useState(1);
   const params = { ...(source ? { sourceKind: source.kind, sourceId: source.id } : {}), page, pageSize: PAGE_SIZE };
   const q = useFitList(params, { poll: true });
+  const navigate = useNavigate();
+  // Fits ticked for the side-by-side comparison (kept across pages of the list).
+  const [picked, setPicked] = useState<number[]>([]);
+  const toggle = (id: number) => setPicked((p) => (p.includes(id) ? p.filter((x) => x !== id) : [...p, id]));
   if (q.error)
     return (
       <Text c="red" fz="sm">
@@ -74,6 +79,11 @@ export function SavedFits({
       <Table highlightOnHover fz="sm" verticalSpacing={6}>
         <Table.Thead>
           <Table.Tr>
+            <Table.Th>
+              <Text fz="xs" span>
+                Compare
+              </Text>
+            </Table.Th>
             <Table.Th>Fit</Table.Th>
             {showSource ? <Table.Th>Source</Table.Th> : null}
             <Table.Th>Model</Table.Th>
@@ -92,6 +102,14 @@ export function SavedFits({
               style={{ cursor: onSelect ? 'pointer' : undefined }}
               onClick={() => onSelect?.(f.id)}
             >
+              <Table.Td onClick={(e) => e.stopPropagation()}>
+                <Checkbox
+                  aria-label={`Compare fit ${f.id}`}
+                  data-testid={`compare-pick-${f.id}`}
+                  checked={picked.includes(f.id)}
+                  onChange={() => toggle(f.id)}
+                />
+              </Table.Td>
               <Table.Td>
                 <Anchor component={Link} to={`/fits/${f.id}`} onClick={(e) => e.stopPropagation()}>
                   #{f.id}
@@ -134,6 +152,21 @@ export function SavedFits({
           ))}
         </Table.Tbody>
       </Table>
+      <Group justify="space-between" p="xs">
+        <Text fz="xs" c="dimmed">
+          Tick two or more fits of the same data to compare their parameters, AIC/BIC and residuals.
+        </Text>
+        <Button
+          size="compact-sm"
+          variant="light"
+          leftSection={<IconArrowsDiff size={14} />}
+          disabled={picked.length < 2}
+          data-testid="compare-fits"
+          onClick={() => navigate(`/fits/compare?ids=${picked.join(',')}`)}
+        >
+          Compare {picked.length >= 2 ? `${picked.length} fits` : ''}
+        </Button>
+      </Group>
       {q.data.total > PAGE_SIZE ? (
         <Group justify="flex-end" p="xs">
           <Pagination size="sm" total={Math.ceil(q.data.total / PAGE_SIZE)} value={page} onChange={setPage} />
