@@ -11,6 +11,7 @@ import { requestContext } from './common/request-context.middleware.js';
 import type { AppConfig } from './config/app-config.js';
 import { SeedService } from './seed/seed.service.js';
 import { seedDemoContent } from './seed/demo-content.js';
+import { jsonBodiesOnly } from './web/json-only.js';
 import { mountUi } from './web/spa-fallback.js';
 
 export interface CreatedApp {
@@ -42,6 +43,7 @@ export async function createApp(config: AppConfig): Promise<CreatedApp> {
       crossOriginEmbedderPolicy: false,
     }),
   );
+  app.use(jsonBodiesOnly());
   app.useBodyParser('json', { limit: '2mb' });
   app.setGlobalPrefix('api');
   app.enableShutdownHooks();

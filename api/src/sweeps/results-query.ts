@@ -52,6 +52,9 @@ export function parseFilter(raw: unknown, layout: readonly StoredColumn[], path 
       ]);
     }
   }
+  // Own keys first: zod's record drops `__proto__`, which would silently turn into no filter.
+  if (typeof value === 'object' && value !== null && !Array.isArray(value))
+    for (const name of Object.keys(value)) columnByName(layout, name, `${path}.${name}`);
   const parsed = resultFilterSchema.safeParse(value);
   if (!parsed.success) {
     const details: ErrorDetail[] = parsed.error.issues.map((i) => ({
