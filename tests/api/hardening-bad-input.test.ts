@@ -721,7 +721,8 @@ function routeCases(): Record<string, Case[]> {
         expiresAt: { kind: 'column', nullable: true },
       },
     ),
-    'GET /api/tokens': queryCases('/api/tokens', R, {}, pageParams, false),
+    'GET /api/tokens': queryCases('/api/tokens', R, {}, pageParams, true),
+    'GET /api/tokens/active': queryCases('/api/tokens/active', R, {}, {}, true),
     'DELETE /api/tokens/{id}': pathCases('delete', '/api/tokens/{id}', R),
     'POST /api/auth/accept-invite': bodyCases(
       'post',

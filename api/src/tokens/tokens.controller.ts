@@ -1,6 +1,12 @@
 import { Body, Controller, Delete, Get, Param, Post, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiBody, ApiOperation, ApiTags } from '@nestjs/swagger';
-import { createTokenSchema, pageQuerySchema, type CreateTokenParsed, type PageQuery } from '@driftgrid/domain';
+import {
+  createTokenSchema,
+  noQuerySchema,
+  pageQuerySchema,
+  type CreateTokenParsed,
+  type PageQuery,
+} from '@driftgrid/domain';
 import { IdParamPipe } from '../admin/id-param.pipe.js';
 import { SignedIn } from '../auth/access.decorators.js';
 import { CurrentUser, type AuthUser } from '../auth/current-user.js';
@@ -30,7 +36,7 @@ export class TokensController {
 
   @Get('active')
   @ApiOperation({ summary: 'How many of your tokens are active (not revoked, not expired)' })
-  active(@CurrentUser() user: AuthUser) {
+  active(@CurrentUser() user: AuthUser, @Query(new ZodValidationPipe(noQuerySchema, 'query')) _q: object) {
     return this.tokens.activeCount(user);
   }
 

@@ -207,6 +207,9 @@ export interface TokensRevoked {
   tokensRevoked: number;
 }
 
+/** A route that takes no query parameters (any given is refused by name). */
+export const noQuerySchema = z.object({});
+
 /** GET /api/tokens/active: unrevoked, unexpired personal API tokens of the caller. */
 export interface ActiveTokenCount {
   count: number;
