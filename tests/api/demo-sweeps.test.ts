@@ -1,7 +1,7 @@
 /**
  * The demo seed step: every examples/*.json definition is valid, small, and completes when
  * submitted as the demo researcher through SweepsService.create. Point counts are recomputed
- * here from the axis counts (grid: product of counts; random designs: `samples`).
+ * here from the axis counts (grid: product of counts; random designs: `samples`; Saltelli: samples·(d + 2)).
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readExampleDefinitions, seedDemoSweeps } from '../../api/src/seed/demo-sweeps.js';
@@ -15,6 +15,8 @@ interface Def {
 }
 
 function expectedPoints(d: Def): number {
+  // Saltelli: N sample groups of d + 2 points (A, B and one A_B^(i) per axis; Saltelli et al. 2010).
+  if (d.sampling?.kind === 'saltelli') return d.sampling.samples! * (d.axes.length + 2);
   if (d.sampling && d.sampling.kind !== 'grid') return d.sampling.samples!;
   return d.axes.reduce((p, a) => p * (a.kind === 'list' ? a.values!.length : a.count!), 1);
 }

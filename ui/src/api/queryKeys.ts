@@ -21,6 +21,9 @@ export const queryKeys = {
       ['sweeps', 'detail', String(id), 'results', params] as const,
     series: (id: string | number, params: KeyParams = {}) =>
       ['sweeps', 'detail', String(id), 'series', params] as const,
+    /** Sobol indices of one output (under the sweep's detail key: refreshed with it). */
+    sensitivity: (id: string | number, output: string) =>
+      ['sweeps', 'detail', String(id), 'sensitivity', output] as const,
     preview: (definition: unknown) => ['sweeps', 'preview', definition] as const,
   },
   datasets: {

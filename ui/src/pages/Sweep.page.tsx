@@ -32,6 +32,7 @@ import { StatusBadge } from '../components/StatusBadge/StatusBadge.js';
 import { formatCount, prettyUnit } from '../lib/format.js';
 import { FitsPanel } from '../components/FitsPanel/FitsPanel.js';
 import { ExportActions } from '../components/ExportActions/ExportActions.js';
+import { SensitivityPanel } from '../components/SensitivityPanel/SensitivityPanel.js';
 
 /** Canonical unit of a model input, for showing fixed numbers with their unit. */
 function inputUnit(model: string, name: string): string {
@@ -413,6 +414,7 @@ export default function SweepPage() {
           <Tabs.Tab value="results">Results</Tabs.Tab>
           <Tabs.Tab value="plots">Plots</Tabs.Tab>
           <Tabs.Tab value="fits">Fits</Tabs.Tab>
+          {sweep.definition.sampling?.kind === 'saltelli' ? <Tabs.Tab value="sensitivity">Sensitivity</Tabs.Tab> : null}
           <Tabs.Tab value="export">Export and archive</Tabs.Tab>
         </Tabs.List>
         <Tabs.Panel value="overview">
@@ -437,6 +439,9 @@ export default function SweepPage() {
         </Tabs.Panel>
         <Tabs.Panel value="fits">
           <FitsPanel source={{ kind: 'sweep', id: sweep.id }} columns={sweep.columns} />
+        </Tabs.Panel>
+        <Tabs.Panel value="sensitivity">
+          <SensitivityPanel sweep={sweep} />
         </Tabs.Panel>
         <Tabs.Panel value="export">
           <ExportActions sweep={sweep} />

@@ -54,6 +54,7 @@ import { InputRow } from './InputRow.js';
 import { PreviewPanel } from './PreviewPanel.js';
 import { PreviewSummary } from './PreviewSummary.js';
 import classes from './SweepBuilder.module.css';
+import { saltelliExplained } from './saltelli-explained.js';
 
 function slug(name: string): string {
   return (
@@ -392,18 +393,21 @@ export function SweepBuilder() {
                   { value: 'grid', label: 'Grid (every combination)' },
                   { value: 'latin-hypercube', label: 'Latin hypercube' },
                   { value: 'sobol', label: 'Sobol sequence' },
+                  { value: 'saltelli', label: 'Sensitivity (Saltelli)' },
                 ]}
               />
-              <Text fz="xs" c="dimmed" mt={4}>
+              <Text fz="xs" c="dimmed" mt={4} data-testid="sampling-explained">
                 {s.kind === 'grid'
                   ? 'The Cartesian product of the axes: linear and log axes need a point count.'
-                  : 'Random designs sample each axis between its ends (log axes in log space); point counts on axes are ignored.'}
+                  : s.kind === 'saltelli'
+                    ? saltelliExplained(s.samples, axes.length)
+                    : 'Random designs sample each axis between its ends (log axes in log space); point counts on axes are ignored.'}
               </Text>
               {s.kind !== 'grid' ? (
                 <SimpleGrid cols={2} mt="xs" spacing="xs">
                   <TextInput
                     size="xs"
-                    label="Samples"
+                    label={s.kind === 'saltelli' ? 'Sample groups (N)' : 'Samples'}
                     data-testid="sampling-samples"
                     aria-label="Samples"
                     value={s.samples}

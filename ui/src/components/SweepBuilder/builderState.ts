@@ -7,7 +7,7 @@ import { models, type InputSpec, type ModelDefinition } from '@driftgrid/domain'
 
 export type InputMode = 'default' | 'fixed' | 'axis';
 export type AxisKind = 'linear' | 'log' | 'list';
-export type SamplingKind = 'grid' | 'latin-hypercube' | 'sobol';
+export type SamplingKind = 'grid' | 'latin-hypercube' | 'sobol' | 'saltelli';
 
 export interface InputChoice {
   mode: InputMode;
@@ -174,7 +174,9 @@ export function fromDefinition(raw: unknown): BuilderState {
   state.inputs = { [modelId]: choices };
   state.axisOrder = { [modelId]: order };
   const s = (d.sampling && typeof d.sampling === 'object' ? d.sampling : { kind: 'grid' }) as Record<string, unknown>;
-  const kind = (['grid', 'latin-hypercube', 'sobol'].includes(String(s.kind)) ? s.kind : 'grid') as SamplingKind;
+  const kind = (
+    ['grid', 'latin-hypercube', 'sobol', 'saltelli'].includes(String(s.kind)) ? s.kind : 'grid'
+  ) as SamplingKind;
   state.sampling = {
     kind,
     samples: s.samples === undefined ? state.sampling.samples : String(s.samples),
