@@ -150,4 +150,44 @@ describe.runIf(run)('single-point page', () => {
     expect(await plot.textContent()).toContain('a = 0.04 m');
     await page.close();
   });
+
+  it('takes a neutral pressure, shows the collision outputs and lists every ordering with its threshold', async () => {
+    const page = await browser.newPage();
+    await page.setViewportSize({ width: 1440, height: 1000 });
+    await signIn(page, server.baseUrl);
+    await page.goto(server.baseUrl + '/single-point');
+    await page.getByTestId('input-Te_eV').waitFor();
+    // An argon column at 1 Pa, 300 K in 0.02 T (issue 12 scenario): n_n = p/(k_B T) (ideal gas).
+    await page.getByTestId('input-mu').fill('39.6594');
+    await page.getByTestId('input-Te_eV').fill('3 eV');
+    await page.getByTestId('input-Ti_eV').fill('0.1 eV');
+    await page.getByTestId('input-n_m3').fill('1e17');
+    await page.getByTestId('input-Ln_m').fill('1 m');
+    await page.getByTestId('input-B_T').fill('0.2 T');
+    await page.getByTestId('input-Tn_eV').fill('300 K');
+    await page.getByTestId('input-nn_m3').fill('1 Pa');
+    const kB = 1.380649e-23;
+    const nn = 1 / (kB * 300);
+    const mi = 39.6594 * m_p;
+    // ν_in = n_n σ v̄, v̄ = sqrt(8 e (T_i + T_n)/(π m_i)), σ = 1e-18 m² (registry default).
+    const nu = nn * 1e-18 * Math.sqrt(((8 * e) / Math.PI) * ((0.1 + (kB * 300) / e) / mi));
+    const cell = page.getByTestId('output-nu_in_s');
+    await expect
+      .poll(async () => Number(await cell.getAttribute('data-value')) / nu, { timeout: 10000 })
+      .toBeCloseTo(1, 9);
+    // 0.2 T: magnetised (ν/ω ≈ 0.44); every ordering is listed, thresholds or "no threshold".
+    const banner = page.getByTestId('flags');
+    expect(await page.getByTestId('ordering-nu_over_omega_i').textContent()).toContain('flags at ≥ 1');
+    expect(await page.getByTestId('ordering-vDi_over_vti').textContent()).toContain('no threshold');
+    expect(await banner.textContent()).not.toMatch(/every ordering parameter is below/);
+    await page.screenshot({ path: 'test-results/single-point-collisions-1440-light.png', fullPage: false });
+    // 0.02 T: the ions stop being magnetised and the point is invalid.
+    await page.getByTestId('input-B_T').fill('0.02 T');
+    await expect.poll(async () => banner.getAttribute('data-state'), { timeout: 10000 }).toBe('invalid');
+    await page.getByTestId('flag-unmagnetised_ions').waitFor();
+    await page.setViewportSize({ width: 1024, height: 900 });
+    await page.emulateMedia({ colorScheme: 'dark' });
+    await page.screenshot({ path: 'test-results/single-point-collisions-1024-dark.png', fullPage: false });
+    await page.close();
+  });
 });

@@ -765,6 +765,15 @@ function profile(v: Record<string, number>): Profile {
   return { ...prof };
 }
 
+const orderings = [
+  { output: 'max_rho_i_over_Ln', threshold: 'rho_i_over_Ln_max' },
+  { output: 'max_rho_s_over_Ln', threshold: 'rho_s_over_Ln_max' },
+  { output: 'max_lambdaD_over_Ln', threshold: 'lambdaD_over_Ln_max' },
+  { output: 'beta0', threshold: 'beta_max' },
+  { output: 'integral_rel_error', threshold: 'integral_rel_error_max' },
+  { output: 'max_vDi_over_vti', threshold: null },
+];
+
 export const columnProfile: ModelDefinition = {
   id: 'column-profile',
   version: '1.1.0',
@@ -775,6 +784,7 @@ export const columnProfile: ModelDefinition = {
   outputs,
   flags,
   thresholds,
+  orderings,
   evaluate(values, th) {
     return evaluateViaChunk(columnProfile, values, th);
   },

@@ -657,6 +657,18 @@ function evaluateChunk(inp: Record<string, Float64Array>, n: number, out: ChunkO
   }
 }
 
+const orderings = [
+  { output: 'rho_i_over_Ln', threshold: 'rho_i_over_Ln_max' },
+  { output: 'rho_s_over_Ln', threshold: 'rho_s_over_Ln_max' },
+  { output: 'lambdaD_over_Ln', threshold: 'lambdaD_over_Ln_max' },
+  { output: 'beta', threshold: 'beta_max' },
+  { output: 'nu_over_omega_i', threshold: 'nu_over_omega_i_max' },
+  { output: 'nu_over_omega_e', threshold: 'nu_over_omega_e_max' },
+  { output: 'v_over_c', threshold: 'v_over_c_max' },
+  // γ_i ρ_i/L_n: watched through rho_i_over_Ln only.
+  { output: 'vDi_over_vti', threshold: null },
+];
+
 export const crossField: ModelDefinition = {
   id: 'cross-field',
   version: '2.0.0',
@@ -667,6 +679,7 @@ export const crossField: ModelDefinition = {
   outputs,
   flags,
   thresholds,
+  orderings,
   evaluate(values, th) {
     return evaluateViaChunk(crossField, values, th);
   },

@@ -300,6 +300,8 @@ export const parallelBalance: ModelDefinition = {
   outputs,
   flags,
   thresholds,
+  // No ordering parameter: its flags (cutoff, overflow) are conditions, not small ratios.
+  orderings: [],
   evaluate(values, th) {
     return evaluateViaChunk(parallelBalance, values, th);
   },

@@ -127,3 +127,17 @@ describe('resolveInputs', () => {
     expect(cf.evaluate(v).flags).toContain('rho_i_over_Ln');
   });
 });
+
+describe('ordering parameters (the validity banner lists each with its threshold or none)', () => {
+  it('name real outputs and thresholds, and every threshold watches one ordering', () => {
+    for (const m of listModelSummaries()) {
+      const outputs = new Set(m.outputs.map((o) => o.name));
+      for (const o of m.orderings) {
+        expect(outputs.has(o.output), `${m.id} ${o.output}`).toBe(true);
+        if (o.threshold) expect(m.thresholds.map((t) => t.name)).toContain(o.threshold);
+      }
+      const watched = m.orderings.map((o) => o.threshold).filter(Boolean);
+      expect([...watched].sort()).toEqual(m.thresholds.map((t) => t.name).sort());
+    }
+  });
+});

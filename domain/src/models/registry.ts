@@ -4,7 +4,15 @@ import { allocateOutputs } from './common.js';
 import { columnProfile } from './column-profile.js';
 import { crossField } from './cross-field.js';
 import { parallelBalance } from './parallel-balance.js';
-import type { ChunkOutput, FlagSpec, InputSpec, ModelDefinition, OutputSpec, ThresholdSpec } from './types.js';
+import type {
+  ChunkOutput,
+  FlagSpec,
+  InputSpec,
+  ModelDefinition,
+  OrderingSpec,
+  OutputSpec,
+  ThresholdSpec,
+} from './types.js';
 
 export const models: readonly ModelDefinition[] = Object.freeze([crossField, parallelBalance, columnProfile]);
 
@@ -34,6 +42,7 @@ export interface ModelSummary {
   outputs: OutputSpec[];
   flags: FlagSpec[];
   thresholds: ThresholdSpec[];
+  orderings: OrderingSpec[];
   /** True when the model returns radial profiles for plotting (`profile`). */
   hasProfile: boolean;
 }
@@ -48,6 +57,7 @@ export function modelSummary(model: ModelDefinition): ModelSummary {
     outputs: model.outputs.map((o) => ({ ...o })),
     flags: model.flags.map((f) => ({ ...f })),
     thresholds: model.thresholds.map((t) => ({ ...t })),
+    orderings: model.orderings.map((o) => ({ ...o })),
     hasProfile: typeof model.profile === 'function',
   };
 }

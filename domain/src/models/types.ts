@@ -82,6 +82,13 @@ export interface ChunkOutput {
   flags: Uint32Array;
 }
 
+/** An ordering parameter the model's validity rests on: an output, and the threshold that flags it (or none). */
+export interface OrderingSpec {
+  output: string;
+  /** Threshold name in `thresholds`, or null when no flag watches this ordering. */
+  threshold: string | null;
+}
+
 export interface ModelDefinition {
   id: string;
   /** Semantic version; bumped whenever outputs could change for the same inputs. */
@@ -92,6 +99,8 @@ export interface ModelDefinition {
   outputs: OutputSpec[];
   flags: FlagSpec[];
   thresholds: ThresholdSpec[];
+  /** The ordering parameters, each with its threshold or none (the ui's validity banner lists them all). */
+  orderings: OrderingSpec[];
   /** Evaluate one point; inputs are complete and already validated (canonical units). */
   evaluate(inputs: Record<string, number>, thresholds?: Thresholds): PointResult;
   /**

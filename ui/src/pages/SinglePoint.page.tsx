@@ -2,10 +2,20 @@ import { Alert, Badge, Grid, Group, Paper, SegmentedControl, SimpleGrid, Stack, 
 import { useDebouncedValue } from '@mantine/hooks';
 import { IconAlertCircle } from '@tabler/icons-react';
 import { useMemo } from 'react';
-import { models, type ModelDefinition, type PointResult, type Profile } from '@driftgrid/domain';
+import {
+  checkInputValue,
+  densityFromPressure,
+  models,
+  pressureInPascal,
+  type InputSpec,
+  type ModelDefinition,
+  type PointResult,
+  type Profile,
+} from '@driftgrid/domain';
 import { PageHeader } from '../components/PageHeader/PageHeader.js';
 import { QuantityInput } from '../components/QuantityInput/QuantityInput.js';
-import { FlagList, OutputsTable } from '../components/QuantityInput/ModelOutputs.js';
+import { OutputsTable } from '../components/QuantityInput/ModelOutputs.js';
+import { ValidityBanner } from '../components/ValidityBanner/ValidityBanner.js';
 import { parseInput } from '../components/QuantityInput/parseInput.js';
 import { ProfilePlot } from '../components/ProfilePlot/ProfilePlot.js';
 import { useDraft } from '../hooks/useDraft.js';
@@ -30,15 +40,30 @@ interface Evaluation {
 function evaluate(model: ModelDefinition, text: Record<string, string>): Evaluation {
   const errors: Record<string, string> = {};
   const inputs: Record<string, number> = {};
+  const pressures: [InputSpec, number][] = [];
   for (const spec of model.inputs) {
     const t = text[spec.name] ?? '';
     if (t.trim() === '') {
       inputs[spec.name] = spec.default;
       continue;
     }
+    // A density with `pressureAt` also takes a pressure ("1 Pa"), converted once its temperature is read.
+    const pPa = spec.pressureAt ? pressureInPascal(t) : null;
+    if (pPa !== null) {
+      pressures.push([spec, pPa]);
+      continue;
+    }
     const p = parseInput(spec, t);
     if (p.ok) inputs[spec.name] = p.value;
     else errors[spec.name] = p.error;
+  }
+  for (const [spec, pPa] of pressures) {
+    const tn = inputs[spec.pressureAt!];
+    if (tn === undefined) continue;
+    const n = densityFromPressure(pPa, tn);
+    const bad = checkInputValue(spec, n);
+    if (bad) errors[spec.name] = `${bad} (from ${pPa} Pa at ${spec.pressureAt})`;
+    else inputs[spec.name] = n;
   }
   if (Object.keys(errors).length) return { errors, result: null, profile: null, inputs };
   return { errors, result: model.evaluate(inputs), profile: model.profile ? model.profile(inputs) : null, inputs };
@@ -60,7 +85,7 @@ export default function SinglePointPage() {
     <>
       <PageHeader
         title="Single point"
-        description="Evaluate a model at one parameter set. Type numbers in the unit shown or values with units (10 eV, 1500 G, 2 cm, 1e13 cm^-3); empty fields take the default."
+        description="Evaluate a model at one parameter set. Type numbers in the unit shown or values with units (10 eV, 1500 G, 2 cm, 1e13 cm^-3; a neutral density also takes a pressure such as 1 Pa or 7.5 mTorr, converted at T_n); empty fields take the default."
       />
       <Stack gap="md">
         <Group gap="sm" align="center">
@@ -104,7 +129,7 @@ export default function SinglePointPage() {
             <Stack gap="md">
               {ev.result ? (
                 <>
-                  <FlagList flags={ev.result.flags} specs={model.flags} />
+                  <ValidityBanner model={model} flags={ev.result.flags} values={ev.result.outputs} />
                   <OutputsTable outputs={model.outputs} values={ev.result.outputs} />
                 </>
               ) : (

@@ -19,6 +19,7 @@ import { IconMathFunction, IconPlus, IconTrash } from '@tabler/icons-react';
 import { useMemo, useState, type KeyboardEvent } from 'react';
 import { ApiError } from '../../api/client.js';
 import { prettyUnit } from '../../lib/format.js';
+import { ExpressionConstants } from '../ExpressionConstants/ExpressionConstants.js';
 import type { FitRequestBody, FitSourceKind } from '../FitResult/fit-types.js';
 import {
   PROBE_MODELS,
@@ -242,6 +243,7 @@ export function FitBuilder({
             error={fieldError('expr')}
           />
         ) : null}
+        {s.model === 'expression' ? <ExpressionConstants /> : null}
         <Textarea
           label={s.model === 'expression' ? 'Start values' : 'Start values (optional)'}
           data-testid="fit-params"

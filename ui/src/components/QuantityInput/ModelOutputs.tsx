@@ -76,7 +76,7 @@ export function FlagList({ flags, specs }: { flags: readonly string[]; specs: re
         data-testid="flags"
         data-count={0}
       >
-        No validity flag is raised at this point: every ordering parameter is below its threshold.
+        No validity flag is raised at this point (orderings without a threshold are not judged here).
       </Alert>
     );
   }

@@ -49,6 +49,7 @@ import {
   type InputChoice,
   type SamplingKind,
 } from './builderState.js';
+import { ExpressionConstants } from '../ExpressionConstants/ExpressionConstants.js';
 import { exampleDefinitions } from './examples.js';
 import { InputRow } from './InputRow.js';
 import { PreviewPanel } from './PreviewPanel.js';
@@ -454,6 +455,7 @@ export function SweepBuilder() {
               <Text fz="xs" c="dimmed" mb="xs">
                 A named column per point from a mathjs expression over inputs and outputs, e.g. vE_ms / vDi_ms.
               </Text>
+              <ExpressionConstants />
               <Stack gap="xs">
                 {state.derived.map((d, i) => (
                   <Group key={i} align="flex-start" gap="xs" wrap="nowrap">
