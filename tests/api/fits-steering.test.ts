@@ -61,6 +61,9 @@ describe('probe-retarding through the api', () => {
     expect(param(f, 'I_is').unit).toBe('A');
     expect(param(f, 'V_f').unit).toBe('V');
     expect(Math.abs(te.value - TRACE.teEv)).toBeLessThan(3 * te.stdError);
+    // Each standard error is the root of its covariance diagonal (parameter order I_is, V_f, Te_eV).
+    expect(te.stdError).toBe(Math.sqrt(f.covariance[2][2]));
+    expect(param(f, 'I_is').stdError).toBe(Math.sqrt(f.covariance[0][0]));
     expect(Math.abs(param(f, 'V_f').value - TRACE.vfV)).toBeLessThan(3 * param(f, 'V_f').stdError);
     expect(Math.abs(param(f, 'I_is').value - probeTraceIis())).toBeLessThan(3 * param(f, 'I_is').stdError);
     const n = f.derived.find((d: { name: string }) => d.name === 'n_m3');

@@ -27,7 +27,19 @@ const MODELS: Record<string, string> = {
   Bennett5: 'b1 * (b2+x)^(-1/b3)',
   MGH09: 'b1*(x^2+x*b2) / (x^2+x*b3+b4)',
   Thurber: '(b1 + b2*x + b3*x^2 + b4*x^3) / (1 + b5*x + b6*x^2 + b7*x^3)',
+  MGH10: 'b1 * exp(b2/(x+b3))',
+  Lanczos1: 'b1*exp(-b2*x) + b3*exp(-b4*x) + b5*exp(-b6*x)',
+  Lanczos2: 'b1*exp(-b2*x) + b3*exp(-b4*x) + b5*exp(-b6*x)',
+  Lanczos3: 'b1*exp(-b2*x) + b3*exp(-b4*x) + b5*exp(-b6*x)',
+  Roszman1: 'b1 - b2*x - atan(b3/(x-b4))/pi',
 };
+
+/**
+ * The 27 datasets of the StRD nonlinear-regression suite (NIST). Not yet copied here, because no verbatim
+ * copy with certified values was at hand when the suite was extended: MGH17, Gauss1, Gauss2, Gauss3, Hahn1,
+ * Kirby2, Nelson, ENSO. The test below keeps that list honest.
+ */
+const NOT_YET_COPIED = ['MGH17', 'Gauss1', 'Gauss2', 'Gauss3', 'Hahn1', 'Kirby2', 'Nelson', 'ENSO'];
 
 interface Certified {
   name: string;
@@ -60,6 +72,8 @@ function loadCertified(): Certified[] {
   return [...byName.values()];
 }
 
+const byName = (r: FitResult, name: string) => r.parameters.find((q) => q.name === name)!;
+
 function lre(estimate: number, certified: number): number {
   const rel = Math.abs(estimate - certified) / Math.abs(certified);
   return rel === 0 ? 15 : Math.min(15, -Math.log10(rel));
@@ -69,10 +83,34 @@ const datasets = loadCertified();
 const table: Record<string, unknown>[] = [];
 
 describe('NIST StRD nonlinear regression (source: NIST ITL Statistical Reference Datasets)', () => {
-  it('covers every dataset in the reference folder', () => {
+  it('covers every dataset in the reference folder (19 of the 27; the rest listed as not yet copied)', () => {
     expect(datasets.map((d) => d.name).sort()).toEqual(Object.keys(MODELS).sort());
-    expect(datasets).toHaveLength(14);
+    expect(datasets).toHaveLength(19);
+    expect(datasets.length + NOT_YET_COPIED.length).toBe(27);
   });
+
+  // Transcription check: the sum of squares at the certified parameters reproduces the certified RSS.
+  for (const cert of datasets) {
+    it(`${cert.name}: the copied data reproduce the certified RSS at the certified parameters`, () => {
+      const rows = csv(`${cert.name}_data.csv`).map((r) => r.map(Number));
+      const x = rows.map((r) => r[0]!);
+      const y = rows.map((r) => r[1]!);
+      const fixed = Object.fromEntries(cert.params.slice(1).map((p) => [p.name, p.value]));
+      const first = cert.params[0]!;
+      // All but b1 held at their certified values; b1 barely moves if the data are right.
+      const r = fitModel({
+        model: 'expression',
+        expr: MODELS[cert.name]!,
+        x: { x },
+        xNames: ['x'],
+        y,
+        params: { [first.name]: first.value },
+        fixed,
+      });
+      expect(lre(byName(r, first.name).value, first.value)).toBeGreaterThanOrEqual(cert.rss < 1e-20 ? 8 : 6);
+      if (cert.rss > 1e-20) expect(lre(r.rss, cert.rss)).toBeGreaterThanOrEqual(6);
+    });
+  }
 
   for (const cert of datasets) {
     for (const start of [1, 2] as const) {
@@ -110,6 +148,13 @@ describe('NIST StRD nonlinear regression (source: NIST ITL Statistical Reference
         }
         // A result marked converged must be right: ≥ 5 digits for parameters, ≥ 3 for SDs (NIST certified).
         expect(Math.min(...paramLre), `parameter LREs ${paramLre.map((v) => v.toFixed(1))}`).toBeGreaterThanOrEqual(5);
+        if (cert.name === 'Lanczos1') {
+          // Data generated to 14 digits: residuals of 1e-13 are rounding in double precision, so the certified
+          // SDs (from extended precision) cannot be reproduced; the engine must withhold them and say so.
+          expect(result.parameters.every((p) => Number.isNaN(p.stdError))).toBe(true);
+          expect(result.message).toMatch(/rounding level/);
+          return;
+        }
         expect(Math.min(...sdLre), `SD LREs ${sdLre.map((v) => v.toFixed(1))}`).toBeGreaterThanOrEqual(3);
         // Certified residual sum of squares and residual standard deviation (NIST).
         expect(rssLre).toBeGreaterThanOrEqual(6);
@@ -121,6 +166,6 @@ describe('NIST StRD nonlinear regression (source: NIST ITL Statistical Reference
 
   it('prints the LRE table', () => {
     console.table(table);
-    expect(table.length).toBe(28);
+    expect(table.length).toBe(38);
   });
 });

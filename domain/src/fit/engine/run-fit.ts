@@ -98,6 +98,7 @@ export function runFit(
     singular,
     options.sigmaMode,
   );
+  if (converged && options.sigmaMode !== 'absolute') withholdRoundingLevelErrors(result, data);
   if (!converged) {
     const start = Float64Array.from(model.start);
     prob.clamp(start);
@@ -110,6 +111,24 @@ export function runFit(
     result.message = `${message}; suspect the ${why.suspect === 'start' ? 'start values' : 'data'}: ${why.reason}`;
   }
   return expandFixed(result, fullModel, reduced, params);
+}
+
+/**
+ * Residuals within about a thousand rounding units of the data (exact or 14-digit data, such as NIST's
+ * Lanczos1) make s² = RSS/dof a measure of floating-point rounding, not of scatter: the parameters stand,
+ * but standard errors scaled by s² would be numbers without meaning, so they are withheld (NaN) and the
+ * message says why. Absolute σ does not use s² and keeps its errors.
+ */
+const ROUNDING_LEVEL = 1e3 * Number.EPSILON;
+
+function withholdRoundingLevelErrors(result: FitResult, data: CheckedData): void {
+  let peak = 0;
+  for (let i = 0; i < data.n; i++) peak = Math.max(peak, Math.abs(data.y[i]!));
+  if (!(result.rmse <= ROUNDING_LEVEL * peak)) return;
+  for (const p of result.parameters) p.stdError = NaN;
+  result.covariance = result.covariance.map((row) => row.map(() => NaN));
+  result.correlation = result.correlation.map((row) => row.map(() => NaN));
+  result.message += `; the residuals (RMS ${result.rmse.toExponential(2)}) are at the rounding level of double precision, so the scatter s² and the standard errors cannot be estimated and are withheld`;
 }
 
 /** Puts the fixed parameters back: value as held, stdError 0, zero covariance, correlation NaN. */
