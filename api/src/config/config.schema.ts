@@ -51,7 +51,7 @@ export const envSchema = z.object({
   READ_BUDGET_MS: z.coerce.number().int().min(100).max(600_000).default(5000),
   /** Concurrent heavy reads per user, and how long one more waits for a slot before a 429. */
   READ_PER_USER: z.coerce.number().int().min(1).max(64).default(2),
-  READ_WAIT_MS: z.coerce.number().int().min(0).max(60_000).default(1000),
+  READ_WAIT_MS: z.coerce.number().int().min(0).max(60_000).default(2000),
   /** Heavy reads waiting for a pool thread before the api answers busy (503). */
   READ_QUEUE_MAX: z.coerce.number().int().min(1).max(10_000).default(64),
   /** Memory for cached orders of sorted views (4 MB per 10^6 rows); 0 turns the cache off. */

@@ -126,8 +126,8 @@ export class ReadTaskRunner {
 
   private order(sweepId: number, column: StoredColumn, desc: boolean, q: ReturnType<typeof compileFilter>) {
     const b = new OrderBuilder(1 << 16);
-    for (const batch of this.results.scanColumn(sweepId, column.slot, q))
-      for (const [i, v] of batch) b.push(i as number, v);
+    for (const { idx, values } of this.results.scanColumn(sweepId, column.slot, q))
+      for (let k = 0; k < idx.length; k++) b.push(idx[k]!, values[k]!);
     return b.sort(desc);
   }
 

@@ -67,22 +67,39 @@ export class ResultsRepository {
   }
 
   /**
-   * (index, value) of one column for the rows the WHERE keeps, in index order, in keyset batches.
-   * `expr` is a whitelisted slot expression.
+   * Point indices and values of one column for the rows the WHERE keeps, in index order, in keyset
+   * batches (the read thread can be ended between them). `expr` is a whitelisted slot expression.
+   * Each batch bounds the rowid from below itself (`id > last`), never through the sweep's BETWEEN:
+   * SQLite takes one range per scan, and with BETWEEN every batch would start again at the sweep's
+   * first row. Two single-column reads (pluck) allocate far less than one of [id, value] arrays.
    */
-  *scanColumn(sweepId: number, expr: string, q: CompiledQuery): Generator<Raw[]> {
+  *scanColumn(
+    sweepId: number,
+    expr: string,
+    q: CompiledQuery,
+  ): Generator<{ idx: number[]; values: (number | null)[] }> {
+    const range = /^id BETWEEN \? AND \?/;
+    if (!range.test(q.where)) throw new Error('scanColumn expects a WHERE built by compileFilter');
+    const filter = q.where.replace(range, '');
+    const filterParams = q.params.slice(2);
+    const hi = q.params[1] as number;
     const base = sweepId * ROW_SPAN;
-    const stmt = this.prepare(`SELECT id, ${expr} FROM results WHERE ${q.where} AND id > ? ORDER BY id LIMIT ?`).raw(
-      true,
-    );
+    const sql = (what: string) =>
+      `SELECT ${what} FROM results WHERE id > ? AND id <= ?${filter} ORDER BY id LIMIT ${SCAN_BATCH}`;
+    const ids = this.prepare(sql('id')).pluck(true);
+    const vals = this.prepare(sql(expr)).pluck(true);
     let after = base - 1;
     for (;;) {
-      const batch = stmt.all(...q.params, after, SCAN_BATCH) as Raw[];
-      if (batch.length === 0) return;
-      after = batch[batch.length - 1]![0] as number;
-      for (const r of batch) r[0] = (r[0] as number) - base;
-      yield batch;
-      if (batch.length < SCAN_BATCH) return;
+      // Both reads in one read transaction: the same snapshot even while a running sweep is written.
+      const [idx, values] = this.db.transaction(() => [
+        ids.all(after, hi, ...filterParams) as number[],
+        vals.all(after, hi, ...filterParams) as (number | null)[],
+      ])() as [number[], (number | null)[]];
+      if (idx.length === 0) return;
+      after = idx[idx.length - 1]!;
+      for (let i = 0; i < idx.length; i++) idx[i] = idx[i]! - base;
+      yield { idx, values };
+      if (idx.length < SCAN_BATCH) return;
     }
   }
 
