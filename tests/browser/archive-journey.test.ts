@@ -83,6 +83,42 @@ describe.runIf(run)('archive journey: owner archives on the sweep page, reviewer
     await context.close();
   });
 
+  it('a download made before archiving is not compared with the frozen zip; one made after is, and matches', async () => {
+    const created = await server.http
+      .post('/api/sweeps')
+      .set('authorization', `Bearer ${ownerToken}`)
+      .send(smallSweep({ name: 'Argon column downloaded then archived' }));
+    const id = created.body.id as number;
+    expect((await waitForSweep(server, ownerToken, id, 120_000)).status).toBe('completed');
+    const context = await browser.newContext({ acceptDownloads: true });
+    const page = await context.newPage();
+    await signIn(page, server.baseUrl, DEMO.researcher);
+    await page.goto(`${server.baseUrl}/sweeps/${id}`);
+    await page.getByRole('tab', { name: 'Export and archive' }).click({ timeout: WAIT });
+    // Download while the sweep is open: that zip is built afresh and will differ from the frozen one.
+    await Promise.all([page.waitForEvent('download', { timeout: WAIT }), page.getByTestId('export-download').click()]);
+    await page.getByTestId('download-result').waitFor({ timeout: WAIT });
+    await page.getByTestId('archive-open').click({ timeout: WAIT });
+    await page.getByRole('dialog', { name: 'Archive this sweep?' }).getByTestId('archive-confirm').click();
+    await page.getByTestId('archive-sha256').waitFor({ timeout: WAIT });
+    const result = page.getByTestId('download-result');
+    await expect.poll(async () => (await result.textContent()) ?? '', { timeout: WAIT }).toMatch(/before archiving/);
+    expect(await page.getByTestId('download-mismatch').count()).toBe(0);
+    expect(await page.getByTestId('export-actions').textContent()).not.toMatch(/differs/);
+
+    // Downloading again fetches the frozen archive, and its digest is checked against the archive's.
+    const [download] = await Promise.all([
+      page.waitForEvent('download', { timeout: WAIT }),
+      page.getByTestId('export-download').click(),
+    ]);
+    const bytes = fs.readFileSync((await download.path())!);
+    const sha = ((await page.getByTestId('archive-sha256').textContent()) ?? '').trim();
+    expect(createHash('sha256').update(bytes).digest('hex')).toBe(sha);
+    await page.getByTestId('download-verified').waitFor({ timeout: WAIT });
+    expect(await page.getByTestId('download-mismatch').count()).toBe(0);
+    await context.close();
+  });
+
   it('a reviewer finds it on the Downloads page and downloads the very bytes the owner saw the digest of', async () => {
     expect(shownToOwner).toMatch(SHA256_HEX);
     const context = await browser.newContext({ acceptDownloads: true });

@@ -4,6 +4,7 @@ import type { AuditEntry } from '@driftgrid/domain';
 import { DB } from '../db/db.module.js';
 import type { Db } from '../db/database.js';
 import { auditLog, users } from '../db/schema.js';
+import { auditSummary } from './audit-words.js';
 
 @Injectable()
 export class AuditRepository {
@@ -23,14 +24,18 @@ export class AuditRepository {
       .offset(offset)
       .all();
     const total = this.db.select({ n: count() }).from(auditLog).get()?.n ?? 0;
-    const items = rows.map(({ a, u }) => ({
-      id: a.id,
-      actor: u && u.id !== null ? { id: u.id, email: u.email, name: u.name } : null,
-      action: a.action,
-      target: a.target,
-      details: a.details ? (JSON.parse(a.details) as Record<string, unknown>) : null,
-      createdAt: a.createdAt,
-    }));
+    const items = rows.map(({ a, u }) => {
+      const details = a.details ? (JSON.parse(a.details) as Record<string, unknown>) : null;
+      return {
+        id: a.id,
+        actor: u && u.id !== null ? { id: u.id, email: u.email, name: u.name } : null,
+        action: a.action,
+        summary: auditSummary(a.action, a.target, details),
+        target: a.target,
+        details,
+        createdAt: a.createdAt,
+      };
+    });
     return { items, total };
   }
 }

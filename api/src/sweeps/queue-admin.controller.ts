@@ -1,6 +1,7 @@
 import { Controller, Get, HttpCode, Post } from '@nestjs/common';
 import { ApiBearerAuth, ApiOperation, ApiTags } from '@nestjs/swagger';
 import { Roles } from '../auth/access.decorators.js';
+import { CurrentUser, type AuthUser } from '../auth/current-user.js';
 import { QueueAdminService } from './queue-admin.service.js';
 
 @ApiTags('admin')
@@ -20,15 +21,15 @@ export class QueueAdminController {
   @HttpCode(200)
   @Roles('admin')
   @ApiOperation({ summary: 'Stop handing out chunk jobs (running chunks finish)' })
-  pause() {
-    return this.queue.pause();
+  pause(@CurrentUser() user: AuthUser) {
+    return this.queue.pause(user.id);
   }
 
   @Post('resume')
   @HttpCode(200)
   @Roles('admin')
   @ApiOperation({ summary: 'Resume handing out chunk jobs' })
-  resume() {
-    return this.queue.resume();
+  resume(@CurrentUser() user: AuthUser) {
+    return this.queue.resume(user.id);
   }
 }

@@ -1,6 +1,7 @@
 import { BullModule } from '@nestjs/bullmq';
 import { Module } from '@nestjs/common';
 import { CHUNK_QUEUE, RESULT_QUEUE } from '@driftgrid/worker';
+import { AuditModule } from '../admin/audit.module.js';
 import { ChunkDispatcher } from './chunk-dispatcher.js';
 import { QuotasService } from '../quotas/quotas.service.js';
 import { MailSweepNotifier } from './mail-sweep-notifier.js';
@@ -16,7 +17,7 @@ import { SweepsRepository } from './sweeps.repository.js';
 import { SweepsService } from './sweeps.service.js';
 
 @Module({
-  imports: [BullModule.registerQueue({ name: CHUNK_QUEUE }, { name: RESULT_QUEUE })],
+  imports: [BullModule.registerQueue({ name: CHUNK_QUEUE }, { name: RESULT_QUEUE }), AuditModule],
   controllers: [SweepsController, QueueAdminController],
   providers: [
     SweepsRepository,

@@ -110,6 +110,14 @@ export class SweepsRepository {
       .all();
   }
 
+  /** Chunk rows of every sweep by state (`done`, `failed`, …): the admin queue page's true totals. */
+  chunkStateCounts(): Record<string, number> {
+    const rows = this.db.all<{ state: string; n: number }>(
+      sql`SELECT state, COUNT(*) AS n FROM sweep_chunks GROUP BY state`,
+    );
+    return Object.fromEntries(rows.map((r) => [r.state, r.n]));
+  }
+
   workerSummary(id: number): { id: string; chunks: number; points: number }[] {
     return this.db.all<{ id: string; chunks: number; points: number }>(sql`
       SELECT worker_id AS id, COUNT(*) AS chunks, SUM(i1 - i0) AS points FROM sweep_chunks

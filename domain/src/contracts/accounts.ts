@@ -137,7 +137,10 @@ export interface AdminUser extends PublicUser {
 export interface AuditEntry {
   id: number;
   actor: { id: number; email: string; name: string } | null;
+  /** Machine code (`user.update`, `quota.role`, `queue.pause`). */
   action: string;
+  /** The action and what changed, in words ("Changed the researcher quota: Points per sweep from …"). */
+  summary: string;
   target: string | null;
   details: Record<string, unknown> | null;
   createdAt: number;

@@ -4,3 +4,4 @@ export * from './catalogue.js';
 export * from './datasets.js';
 export * from './fits.js';
 export * from './sensitivity.js';
+export * from './queue.js';

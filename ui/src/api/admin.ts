@@ -9,6 +9,7 @@ import type {
   Invitation,
   MailMessage,
   MailSummary,
+  QueueSummary,
   QuotasDocument,
   RoleQuotaPatch,
   UserQuotaPatch,
@@ -22,13 +23,8 @@ export type { AdminUser, AuditEntry, Invitation, MailMessage, MailSummary, Quota
 
 export type UserListQuery = { page?: number; pageSize?: number; q?: string; role?: Role | '' };
 
-/** GET /api/admin/queue as the console reads it. */
-export interface QueueStatus {
-  mode: string;
-  paused: boolean;
-  counts: Record<string, number>;
-  sweeps: unknown[];
-}
+/** GET /api/admin/queue: chunks and sweeps in Driftgrid's words (domain/src/contracts/queue.ts). */
+export type QueueStatus = QueueSummary;
 
 export const adminQueries = {
   users: (q: UserListQuery) =>
@@ -78,6 +74,18 @@ export const useAuditLog = (page: number) => useQuery(adminQueries.audit(page));
 /** The queue summary, refreshed every 5 s; `retry` false where a missing route should show at once. */
 export function useQueueStatus({ retry = true }: { retry?: boolean } = {}) {
   return useQuery({ ...adminQueries.queue(), retry: retry ? undefined : false, refetchInterval: 5000 });
+}
+
+/** Pause or resume handing out chunks; the answer is the new summary, written straight to the cache. */
+export function useQueueControl() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (action: 'pause' | 'resume') => api.post<QueueSummary>(`/admin/queue/${action}`, {}),
+    onSuccess: (summary) => {
+      qc.setQueryData(queryKeys.admin.queue(), summary);
+      void qc.invalidateQueries({ queryKey: ['admin', 'audit'] });
+    },
+  });
 }
 
 type UserPatch = { role?: Role; active?: boolean; name?: string };

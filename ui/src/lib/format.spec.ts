@@ -132,3 +132,29 @@ describe('plainNumber (placeholders that parse back)', () => {
     expect(plainNumber(0)).toBe('0');
   });
 });
+
+describe('percentages and counts that agree', () => {
+  it('rounds a fraction down, one decimal below 10 %, never 100 % early and never a bare 0 after a start', async () => {
+    const { formatPercent } = await import('./format.js');
+    expect(formatPercent(0.025)).toBe('2.5 %'); // "Running · 2 %" beside 2.5 % disagreed
+    expect(formatPercent(0.0299)).toBe('2.9 %');
+    expect(formatPercent(0.29)).toBe('29 %'); // 0.29·100 = 28.999… in binary
+    expect(formatPercent(0.4299)).toBe('42 %');
+    expect(formatPercent(1549 / 1550)).toBe('99 %');
+    expect(formatPercent(1)).toBe('100 %');
+    expect(formatPercent(0)).toBe('0 %');
+    expect(formatPercent(1 / 13950)).toBe('< 0.1 %');
+    expect(formatPercent(Number.NaN)).toBe('—');
+  });
+  it('keeps counts below a million exact and rounds larger ones half up in words', async () => {
+    const { formatCountWords } = await import('./format.js');
+    expect(formatCountWords(13_950)).toBe('13,950');
+    expect(formatCountWords(999_999)).toBe('999,999');
+    expect(formatCountWords(2_000_000)).toBe('2 million');
+    expect(formatCountWords(13_950_000)).toBe('14.0 million'); // not 13.9: 13.95 has no exact binary form
+    expect(formatCountWords(1_234_567)).toBe('1.23 million');
+    expect(formatCountWords(1_235_000)).toBe('1.24 million');
+    expect(formatCountWords(50_000_000)).toBe('50 million');
+    expect(formatCountWords(1_000_000_000_000)).toBe('1 trillion');
+  });
+});

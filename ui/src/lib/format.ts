@@ -151,3 +151,46 @@ export function plainNumber(x: number): string {
     .replace(/\.?0+e/, 'e')
     .replace('e+', 'e');
 }
+
+/**
+ * A fraction done as a percentage that agrees wherever it appears: rounded down (a bar never reads
+ * 100 % before the last point), one decimal below 10 % ("2.5 %"), whole numbers above ("42 %"),
+ * and "< 0.1 %" rather than a misleading 0 once anything is done.
+ */
+export function formatPercent(fraction: number | null | undefined): string {
+  if (fraction === null || fraction === undefined || !Number.isFinite(fraction)) return '—';
+  const pct = Math.min(100, Math.max(0, fraction * 100));
+  if (pct === 0) return '0 %';
+  if (pct < 0.1) return '< 0.1 %';
+  // Nudge by a hair before flooring so 0.29 × 100 = 28.999… reads 29, not 28.
+  const v = pct < 10 ? Math.floor(pct * 10 + 1e-9) / 10 : Math.floor(pct + 1e-9);
+  return `${v} %`;
+}
+
+/**
+ * A count for meters and summaries: exact with thousands separators up to a million (13,950), then
+ * in words with three significant figures, rounded half up on the exact integer ("14.0 million"),
+ * never truncated ("13.9 thousand" for 13,950 was a rounding error).
+ */
+export function formatCountWords(n: number): string {
+  if (!Number.isFinite(n)) return '—';
+  const a = Math.abs(n);
+  if (a < 1e6) return formatCount(n);
+  const steps: [number, string][] = [
+    [1e12, 'trillion'],
+    [1e9, 'billion'],
+    [1e6, 'million'],
+  ];
+  for (const [size, word] of steps) {
+    if (a >= size) {
+      if (a % size === 0) return `${n < 0 ? MINUS : ''}${formatCount(a / size)} ${word}`;
+      const v = a / size;
+      const decimals = v < 10 ? 2 : v < 100 ? 1 : 0;
+      // Integer arithmetic on the scaled count avoids binary-fraction rounding (13.95 → "13.9").
+      const unit = size / 10 ** decimals;
+      const rounded = Math.round(a / unit) / 10 ** decimals;
+      return `${n < 0 ? MINUS : ''}${rounded.toFixed(decimals)} ${word}`;
+    }
+  }
+  return formatCount(n);
+}

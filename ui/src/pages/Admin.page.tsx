@@ -21,7 +21,7 @@ export default function AdminPage() {
     <>
       <PageHeader
         title="Admin"
-        description="People and roles, invitations, quotas, the job queue, the built-in mailbox and the audit log."
+        description="People and roles, invitations, quotas, the queue of sweep chunks, the built-in mailbox and the audit log."
       />
       <Tabs
         value={tab}

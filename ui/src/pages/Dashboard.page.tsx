@@ -6,7 +6,7 @@ import { useAdminUsers, useQueueStatus } from '../api/admin.js';
 import { QuotaMeters } from '../components/QuotaMeters/QuotaMeters.js';
 import { useSweepList, type SweepSummary } from '../api/sweeps.js';
 import { StatusBadge } from '../components/StatusBadge/StatusBadge.js';
-import { formatCount } from '../lib/format.js';
+import { formatCount, formatPercent } from '../lib/format.js';
 
 const ROLE_SUMMARY: Record<Role, string> = {
   admin: 'You manage users, roles, quotas, the job queue and the outgoing mailbox.',
@@ -105,11 +105,7 @@ function SweepCard({
             </Anchor>
             <StatusBadge
               status={s.status}
-              suffix={
-                s.status === 'running' || s.status === 'queued'
-                  ? `${Math.floor(s.progress.fraction * 100)} %`
-                  : undefined
-              }
+              suffix={s.status === 'running' || s.status === 'queued' ? formatPercent(s.progress.fraction) : undefined}
             />
           </Group>
         ))}
@@ -121,12 +117,12 @@ function SweepCard({
 function AdminGlance() {
   const queue = useQueueStatus();
   const users = useAdminUsers({ pageSize: 1 });
-  const c = queue.data?.counts ?? {};
+  const q = queue.data;
   const cells: [string, number | undefined][] = [
-    ['Chunks waiting', queue.data ? (c.waiting ?? 0) + (c.prioritized ?? 0) + (c.delayed ?? 0) : undefined],
-    ['Chunks running', c.active],
-    ['Chunks failed', c.failed],
-    ['Sweeps in progress', queue.data?.sweeps.length],
+    ['Chunks waiting', q?.chunks.waiting],
+    ['Chunks computing', q?.chunks.computing],
+    ['Chunks failed', q?.chunks.failed],
+    ['Sweeps running', q?.sweepsRunning],
     ['Users', users.data?.total],
   ];
   return (
@@ -158,8 +154,8 @@ function AdminGlance() {
       </SimpleGrid>
       {queue.data ? (
         <Text fz="xs" c="dimmed" mt="xs">
-          Queue {queue.data.paused ? 'paused' : 'running'} ·{' '}
-          {queue.data.mode === 'embedded' ? 'in-process' : queue.data.mode} mode
+          {queue.data.paused ? 'Queue paused: no new chunks handed out' : 'Queue handing out chunks'} ·{' '}
+          {queue.data.mode === 'embedded' ? 'computed inside this server' : 'computed by separate workers'}
         </Text>
       ) : null}
     </Card>

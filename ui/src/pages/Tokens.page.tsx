@@ -9,7 +9,7 @@ import {
   type ApiTokenSummary,
   type CreatedApiToken,
 } from '../api/tokens.js';
-import { formatWhen } from '../components/AdminShared/labels.js';
+import { formatDateTime } from '../lib/formatDate.js';
 import { ctrlEnter } from '../components/AdminShared/ctrlEnter.js';
 import { EmptyState } from '../components/EmptyState/EmptyState.js';
 import { PageHeader } from '../components/PageHeader/PageHeader.js';
@@ -194,13 +194,13 @@ export default function TokensPage() {
                       </Badge>
                     </Table.Td>
                     <Table.Td>
-                      <Text fz="xs">{formatWhen(t.createdAt)}</Text>
+                      <Text fz="xs">{formatDateTime(t.createdAt)}</Text>
                     </Table.Td>
                     <Table.Td>
-                      <Text fz="xs">{t.expiresAt === null ? 'never' : formatWhen(t.expiresAt)}</Text>
+                      <Text fz="xs">{t.expiresAt === null ? 'never' : formatDateTime(t.expiresAt)}</Text>
                     </Table.Td>
                     <Table.Td>
-                      <Text fz="xs">{t.lastUsedAt === null ? 'never' : formatWhen(t.lastUsedAt)}</Text>
+                      <Text fz="xs">{t.lastUsedAt === null ? 'never' : formatDateTime(t.lastUsedAt)}</Text>
                     </Table.Td>
                     <Table.Td>
                       {s.label === 'active' ? (

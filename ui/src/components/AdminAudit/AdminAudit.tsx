@@ -1,9 +1,13 @@
 import { Alert, Code, Pagination, Table, Text } from '@mantine/core';
+import { IconCode } from '@tabler/icons-react';
 import { useState } from 'react';
 import { useAuditLog } from '../../api/admin.js';
-import { formatWhen } from '../AdminShared/labels.js';
+import { formatDateTime } from '../../lib/formatDate.js';
 
-/** Who did what, when: every admin action, newest first. */
+/**
+ * Who did what, when: every admin action, newest first, as a sentence saying what changed; the
+ * recorded JSON sits behind a disclosure. Test hooks: `audit-row-<id>`, `audit-summary`, `audit-json`.
+ */
 export function AdminAudit() {
   const [page, setPage] = useState(1);
   const log = useAuditLog(page);
@@ -22,22 +26,20 @@ export function AdminAudit() {
     );
   return (
     <>
-      <Table.ScrollContainer minWidth={720}>
+      <Table.ScrollContainer minWidth={640}>
         <Table striped verticalSpacing="xs">
           <Table.Thead>
             <Table.Tr>
               <Table.Th>When</Table.Th>
               <Table.Th>Who</Table.Th>
-              <Table.Th>What</Table.Th>
-              <Table.Th>Target</Table.Th>
-              <Table.Th>Details</Table.Th>
+              <Table.Th>What changed</Table.Th>
             </Table.Tr>
           </Table.Thead>
           <Table.Tbody>
             {log.data.items.map((e) => (
-              <Table.Tr key={e.id}>
+              <Table.Tr key={e.id} data-testid={`audit-row-${e.id}`}>
                 <Table.Td>
-                  <Text fz="xs">{formatWhen(e.createdAt)}</Text>
+                  <Text fz="xs">{formatDateTime(e.createdAt)}</Text>
                 </Table.Td>
                 <Table.Td>
                   <Text fz="sm">{e.actor?.name ?? 'system'}</Text>
@@ -48,15 +50,21 @@ export function AdminAudit() {
                   ) : null}
                 </Table.Td>
                 <Table.Td>
-                  <Code>{e.action}</Code>
-                </Table.Td>
-                <Table.Td>
-                  <Text fz="xs">{e.target ?? '—'}</Text>
-                </Table.Td>
-                <Table.Td>
-                  <Text fz="xs" c="dimmed" lineClamp={2} title={e.details ? JSON.stringify(e.details) : undefined}>
-                    {e.details ? JSON.stringify(e.details) : '—'}
+                  <Text fz="sm" data-testid="audit-summary">
+                    {e.summary}
                   </Text>
+                  {e.details ? (
+                    <details data-testid="audit-json">
+                      <summary style={{ cursor: 'pointer' }}>
+                        <Text span fz="xs" c="dimmed">
+                          <IconCode size={12} style={{ verticalAlign: -1 }} aria-hidden /> Recorded details (JSON)
+                        </Text>
+                      </summary>
+                      <Code block fz="xs" mt={4}>
+                        {JSON.stringify({ action: e.action, target: e.target, ...e.details }, null, 2)}
+                      </Code>
+                    </details>
+                  ) : null}
                 </Table.Td>
               </Table.Tr>
             ))}

@@ -4,7 +4,8 @@ import { invitationRequestSchema } from '@driftgrid/domain';
 import { ApiError } from '../../api/client.js';
 import { useInvitations, useInvite, useRevokeInvitation, type Invitation } from '../../api/admin.js';
 import type { Role } from '../../auth/session.js';
-import { formatWhen, ROLES } from '../AdminShared/labels.js';
+import { ROLES } from '../AdminShared/labels.js';
+import { formatDateTime } from '../../lib/formatDate.js';
 import { ctrlEnter } from '../AdminShared/ctrlEnter.js';
 
 const STATUS_COLOR: Record<Invitation['status'], string> = {
@@ -142,7 +143,9 @@ export function AdminInvitations() {
                   </Table.Td>
                   <Table.Td>
                     <Text fz="xs">
-                      {i.status === 'accepted' ? `accepted ${formatWhen(i.acceptedAt)}` : formatWhen(i.expiresAt)}
+                      {i.status === 'accepted'
+                        ? `accepted ${formatDateTime(i.acceptedAt)}`
+                        : formatDateTime(i.expiresAt)}
                     </Text>
                   </Table.Td>
                   <Table.Td>

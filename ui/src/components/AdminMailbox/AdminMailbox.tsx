@@ -12,7 +12,7 @@ import {
 } from '@mantine/core';
 import { useState } from 'react';
 import { useMail, useMailbox } from '../../api/admin.js';
-import { formatWhen } from '../AdminShared/labels.js';
+import { formatDateTime } from '../../lib/formatDate.js';
 
 function MessageView({ id }: { id: number }) {
   const [mode, setMode] = useState<'text' | 'html'>('text');
@@ -30,7 +30,7 @@ function MessageView({ id }: { id: number }) {
         {m.data.subject || '(no subject)'}
       </Title>
       <Text fz="xs" c="dimmed">
-        From {m.data.from} · to {m.data.to} · {formatWhen(m.data.receivedAt)}
+        From {m.data.from} · to {m.data.to} · {formatDateTime(m.data.receivedAt)}
       </Text>
       {m.data.html ? (
         <SegmentedControl
@@ -104,7 +104,7 @@ export function AdminMailbox() {
                   {m.subject || '(no subject)'}
                 </Text>
                 <Text fz="xs" c="dimmed">
-                  to {m.to} · {formatWhen(m.receivedAt)}
+                  to {m.to} · {formatDateTime(m.receivedAt)}
                 </Text>
               </UnstyledButton>
             ))}

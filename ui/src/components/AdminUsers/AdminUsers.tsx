@@ -4,7 +4,8 @@ import { useState } from 'react';
 import { ApiError } from '../../api/client.js';
 import { useAdminUsers, usePatchUser, type AdminUser } from '../../api/admin.js';
 import type { Role } from '../../auth/session.js';
-import { formatWhen, ROLES } from '../AdminShared/labels.js';
+import { ROLES } from '../AdminShared/labels.js';
+import { formatDateTime } from '../../lib/formatDate.js';
 
 const PAGE_SIZE = 25;
 
@@ -63,7 +64,7 @@ export function AdminUsers() {
         ) : null}
       </Table.Td>
       <Table.Td>
-        <Text fz="xs">{formatWhen(u.createdAt)}</Text>
+        <Text fz="xs">{formatDateTime(u.createdAt)}</Text>
       </Table.Td>
     </Table.Tr>
   ));

@@ -1,7 +1,7 @@
 import { Alert, Button, Group, Modal, Stack, Text } from '@mantine/core';
 import { notifications } from '@mantine/notifications';
 import { IconArchive, IconDownload, IconLock, IconShieldCheck } from '@tabler/icons-react';
-import { useState } from 'react';
+import { useRef, useState } from 'react';
 import { useMe } from '../../api/auth.js';
 import { ApiError } from '../../api/client.js';
 import { useDownloadZip, type DownloadedFile } from '../../api/downloads.js';
@@ -18,12 +18,20 @@ const EXPORTABLE = ['completed', 'archived'];
 export function ExportActions({ sweep }: { sweep: SweepView }) {
   const { data: me } = useMe();
   const [confirming, setConfirming] = useState(false);
-  const [downloaded, setDownloaded] = useState<DownloadedFile | null>(null);
+  // The received file with the archive digest current when it was requested: a zip fetched before
+  // archiving is built afresh and differs from the frozen one, so only a download of the frozen
+  // archive is compared with its SHA-256.
+  const [downloaded, setDownloaded] = useState<{ file: DownloadedFile; frozenSha256: string | null } | null>(null);
+  const frozenAtRequest = useRef<string | null>(null);
   const mayManage = !!me && (me.role === 'admin' || Number(me.id) === sweep.owner.id);
 
   const download = useDownloadZip(`/sweeps/${sweep.id}/export`, `sweep-${sweep.id}.zip`, {
-    onSuccess: (f) => setDownloaded(f),
+    onSuccess: (file) => setDownloaded({ file, frozenSha256: frozenAtRequest.current }),
   });
+  const startDownload = () => {
+    frozenAtRequest.current = sweep.archive?.sha256 ?? null;
+    download.mutate();
+  };
   const archive = useArchiveSweep(sweep.id, {
     onSuccess: () => {
       setConfirming(false);
@@ -36,14 +44,15 @@ export function ExportActions({ sweep }: { sweep: SweepView }) {
   });
 
   const canExport = EXPORTABLE.includes(sweep.status);
-  const matches = downloaded?.sha256 && sweep.archive ? downloaded.sha256 === sweep.archive.sha256 : null;
+  const matches =
+    downloaded?.file.sha256 && downloaded.frozenSha256 ? downloaded.file.sha256 === downloaded.frozenSha256 : null;
 
   return (
     <Stack gap="sm" data-testid="export-actions">
       <Group gap="sm">
         <Button
           leftSection={<IconDownload size={16} />}
-          onClick={() => download.mutate()}
+          onClick={startDownload}
           loading={download.isPending}
           disabled={!canExport}
           data-testid="export-download"
@@ -91,13 +100,17 @@ export function ExportActions({ sweep }: { sweep: SweepView }) {
       ) : null}
       {downloaded ? (
         <Text size="sm" c="dimmed" data-testid="download-result">
-          Saved {downloaded.fileName}.{' '}
+          Saved {downloaded.file.fileName}.{' '}
           {matches === true ? (
-            <>
+            <span data-testid="download-verified">
               <IconShieldCheck size={14} aria-hidden /> SHA-256 of the received file matches the archive.
-            </>
+            </span>
           ) : matches === false ? (
-            'SHA-256 of the received file differs from the archive: download it again.'
+            <span data-testid="download-mismatch">
+              SHA-256 of the received file differs from the archive: download it again.
+            </span>
+          ) : sweep.archive ? (
+            'That file was downloaded before archiving; download again for the frozen archive and its check.'
           ) : null}
         </Text>
       ) : null}

@@ -1,4 +1,6 @@
-import { Progress, Stack, Text, Title } from '@mantine/core';
+import { Alert, Progress, Stack, Text, Title } from '@mantine/core';
+import { IconEye } from '@tabler/icons-react';
+import { hasRole, useMe } from '../../api/auth.js';
 import { useState } from 'react';
 import { useCreateFit, useFit } from '../../api/fits.js';
 import { FitPlot } from '../FitPlot/FitPlot.js';
@@ -59,19 +61,28 @@ export function FitsPanel({ source, columns }: FitsPanelProps) {
   const hasValid = source.kind === 'sweep' && columns.some((c) => c.name === 'valid');
   const startFrom = (fit: FitView) => (values: Record<string, number>) =>
     setPrefill((prev) => ({ state: fromRequest(fit.request, hasValid, values), nonce: (prev?.nonce ?? 0) + 1 }));
+  // Reviewers read fits; the server refuses their runs, so the form is not offered at all.
+  const { data: me } = useMe();
+  const mayFit = hasRole(me, ['admin', 'researcher']);
   return (
     <Stack gap="md" data-testid="fits-panel" data-source-kind={source.kind} data-source-id={source.id}>
-      <FitBuilder
-        key={prefill?.nonce ?? 0}
-        initial={prefill?.state}
-        source={source}
-        columns={columns}
-        pending={create.isPending}
-        error={create.error}
-        onSubmit={(b) => create.mutate(b)}
-      />
+      {mayFit ? (
+        <FitBuilder
+          key={prefill?.nonce ?? 0}
+          initial={prefill?.state}
+          source={source}
+          columns={columns}
+          pending={create.isPending}
+          error={create.error}
+          onSubmit={(b) => create.mutate(b)}
+        />
+      ) : me ? (
+        <Alert variant="light" color="gray" icon={<IconEye size={18} />} data-testid="fits-read-only">
+          Reviewers read fits here; running a new fit is for researchers and administrators.
+        </Alert>
+      ) : null}
       {current.data ? (
-        <FitDetail fit={current.data} columns={columns} onStartFrom={startFrom(current.data)} />
+        <FitDetail fit={current.data} columns={columns} onStartFrom={mayFit ? startFrom(current.data) : undefined} />
       ) : selected !== null && current.isLoading ? (
         <Text fz="sm" c="dimmed">
           Loading the fit…

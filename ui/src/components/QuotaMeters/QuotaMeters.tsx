@@ -1,6 +1,6 @@
 import { Group, Progress, Stack, Text } from '@mantine/core';
-import { formatCount } from '../../lib/format.js';
-import { inWords } from '../AdminShared/inWords.js';
+import { QUOTA_LABELS } from '@driftgrid/domain';
+import { formatCount, formatCountWords } from '../../lib/format.js';
 
 export interface QuotaMetersProps {
   /** As GET /api/auth/me returns them; absent fields are skipped. */
@@ -29,7 +29,8 @@ function Bar({ m }: { m: Meter }) {
   const pct = (v: number) => (m.limit > 0 ? Math.min(100, (v / m.limit) * 100) : v > 0 ? 100 : 0);
   const over = m.used + extra > m.limit;
   const color = over ? 'red' : pct(m.used + extra) >= 80 ? 'yellow' : 'tide';
-  const words = `${inWords(m.used)}${extra ? ` + ${inWords(extra)}` : ''} of ${inWords(m.limit)} ${m.unit}`;
+  // Used and what this sweep would add are said apart: "1,200 used + 13,950 this sweep of 2 million points".
+  const words = `${formatCountWords(m.used)} used${extra ? ` + ${formatCountWords(extra)} this sweep` : ''} of ${formatCountWords(m.limit)} ${m.unit}`;
   return (
     <div data-testid={`quota-${m.key}`}>
       <Group justify="space-between" gap="xs" mb={4}>
@@ -72,7 +73,7 @@ export function QuotaMeters({ quota, usage, requested }: QuotaMetersProps) {
   if (quota.maxRunningSweeps !== undefined) {
     meters.push({
       key: 'maxRunningSweeps',
-      label: 'Sweeps queued or running',
+      label: QUOTA_LABELS.maxRunningSweeps.label,
       used: u.runningSweeps ?? 0,
       limit: quota.maxRunningSweeps,
       unit: 'sweeps',
@@ -82,7 +83,7 @@ export function QuotaMeters({ quota, usage, requested }: QuotaMetersProps) {
   if (quota.maxPointsPer30Days !== undefined) {
     meters.push({
       key: 'maxPointsPer30Days',
-      label: 'Points in the last 30 days',
+      label: QUOTA_LABELS.maxPointsPer30Days.label,
       used: u.pointsLast30Days ?? 0,
       limit: quota.maxPointsPer30Days,
       unit: 'points',
@@ -92,7 +93,7 @@ export function QuotaMeters({ quota, usage, requested }: QuotaMetersProps) {
   if (quota.maxStoredPoints !== undefined) {
     meters.push({
       key: 'maxStoredPoints',
-      label: 'Stored points',
+      label: QUOTA_LABELS.maxStoredPoints.label,
       used: u.storedPoints ?? 0,
       limit: quota.maxStoredPoints,
       unit: 'points',
@@ -110,8 +111,8 @@ export function QuotaMeters({ quota, usage, requested }: QuotaMetersProps) {
           c={requested !== undefined && requested > quota.maxPointsPerSweep ? 'red' : 'dimmed'}
           data-testid="quota-maxPointsPerSweep"
         >
-          Largest sweep allowed: {inWords(quota.maxPointsPerSweep)} points
-          {requested !== undefined ? ` (this one: ${inWords(requested)})` : ''}.
+          {QUOTA_LABELS.maxPointsPerSweep.label}: at most {formatCountWords(quota.maxPointsPerSweep)}
+          {requested !== undefined ? `; this sweep has ${formatCountWords(requested)}` : ''}.
         </Text>
       ) : null}
     </Stack>

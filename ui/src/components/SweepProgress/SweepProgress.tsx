@@ -1,6 +1,6 @@
 import { Alert, Group, Progress, Stack, Text } from '@mantine/core';
 import { useSweepProgress } from '../../api/sweeps.js';
-import { formatCount } from '../../lib/format.js';
+import { formatCount, formatPercent } from '../../lib/format.js';
 import { StatusBadge } from '../StatusBadge/StatusBadge.js';
 
 const LIVE = new Set(['queued', 'running']);
@@ -36,7 +36,7 @@ export function SweepProgress({ sweepId }: { sweepId: number | string }) {
       <Group justify="space-between" gap="xs">
         <StatusBadge
           status={s?.status ?? 'queued'}
-          suffix={s?.status === 'running' ? `${Math.floor(pct)} %` : undefined}
+          suffix={s?.status === 'running' ? formatPercent(pct / 100) : undefined}
         />
         <Text fz="sm" data-testid="sweep-progress-count" style={{ fontVariantNumeric: 'tabular-nums' }}>
           {formatCount(done)} / {formatCount(total)} points
@@ -46,7 +46,7 @@ export function SweepProgress({ sweepId }: { sweepId: number | string }) {
         value={pct}
         animated={live && s?.status === 'running'}
         striped={live}
-        aria-label={`${Math.floor(pct)} percent of points persisted`}
+        aria-label={`${formatPercent(pct / 100)} of points persisted`}
       />
       {s?.status === 'failed' && s.error ? (
         <Text fz="xs" c="red">
