@@ -10,9 +10,11 @@ import {
   type DatasetColumn,
   type DatasetUnits,
   type ErrorDetail,
+  unsafeNameProblem,
 } from '@driftgrid/domain';
 import { columnConversion, toCanonical, type ColumnConversion } from './column-units.js';
 import { csvParseFailure, MAX_RECORD_BYTES } from './csv-parse-errors.js';
+import { assertUtf8Text } from './text-encoding.js';
 
 export type Cell = number | string | null;
 
@@ -43,6 +45,7 @@ const isNumber = (s: string) => CSV_NUMBER.test(s);
  * with its line and column, up to DATASET_ERROR_CAP; a file with any problem is rejected as a whole.
  */
 export function parseDatasetCsv(input: Buffer, opts: { maxRows: number; units?: DatasetUnits }): ParsedDataset {
+  assertUtf8Text(input);
   const records = readRecords(input, opts.maxRows);
   if (records.length === 0)
     throw invalid('The file is empty; expected a header row and data rows', [{ path: 'file', message: 'no rows' }]);
@@ -165,8 +168,10 @@ function checkHeader(first: RawRecord): string[] {
   const seen = new Set<string>();
   names.forEach((n, j) => {
     const col = `#${j + 1}`;
+    const unsafe = unsafeNameProblem(n);
     if (n === '')
       problems.push({ line: first.info.lines, column: col, message: `column ${j + 1} has no name in the header` });
+    else if (unsafe) problems.push({ line: first.info.lines, column: col, message: `the name ${unsafe}` });
     else if (n.length > DATASET_COLUMN_NAME_MAX)
       problems.push({
         line: first.info.lines,

@@ -25,6 +25,9 @@ export class CsvUploadInterceptor implements NestInterceptor {
   constructor(@Inject(APP_CONFIG) private readonly config: AppConfig) {
     this.upload = multer({
       storage: multer.memoryStorage(),
+      // Browsers send the file name as raw UTF-8 (HTML multipart encoding); latin1, the default,
+      // would turn "Température.csv" into mojibake and hide control or bidi characters from the checks.
+      defParamCharset: 'utf8',
       limits: { fileSize: config.uploadMaxBytes, files: 1, fields: 8, fieldSize: 64 * 1024, parts: 10 },
     }).single('file');
   }
@@ -65,7 +68,7 @@ export class CsvUploadInterceptor implements NestInterceptor {
       ]);
     }
     const e = err as { message?: string };
-    if (e?.message && /multipart|boundary|Unexpected end of form/i.test(e.message)) {
+    if (e?.message && /multipart|boundary|Unexpected end of form|Malformed part header/i.test(e.message)) {
       return new ValidationError('The request is not a well-formed multipart upload', [
         { path: 'file', message: 'send multipart/form-data with the CSV in the field "file"' },
       ]);

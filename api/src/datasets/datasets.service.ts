@@ -14,6 +14,7 @@ import {
   type DatasetUploadFields,
   type DatasetUploadResult,
   type DatasetView,
+  unsafeNameProblem,
 } from '@driftgrid/domain';
 import type { AuthUser } from '../auth/current-user.js';
 import { Clock } from '../common/clock.js';
@@ -32,9 +33,12 @@ function nameFromFile(fileName: string | undefined): string {
   const base = (fileName ?? '').split(/[\\/]/).pop() ?? '';
   const clean = base
     .replace(/\.[^.]*$/, '')
-    .replace(/[\u0000-\u001f\u007f]/g, '')
     .trim()
     .slice(0, 200);
+  // Not cleaned silently: a file name with control or bidi override characters is refused.
+  const problem = unsafeNameProblem(clean);
+  if (problem)
+    throw new ValidationError(`Invalid name (from the file name): ${problem}`, [{ path: 'name', message: problem }]);
   return clean || 'Uploaded dataset';
 }
 

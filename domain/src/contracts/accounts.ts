@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { emailSchema, passwordSchema, ROLE_NAMES, type PublicUser, type RoleName } from './auth.js';
+import { safeName } from './text-safety.js';
 
 /* ---------- quotas (SPEC §9) ---------- */
 
@@ -118,7 +119,7 @@ export const adminUsersQuerySchema = pageQuerySchema.extend({
 });
 export type AdminUsersQuery = z.infer<typeof adminUsersQuerySchema>;
 
-export const personNameSchema = z.string().trim().min(1, 'required').max(120, 'at most 120 characters');
+export const personNameSchema = safeName(z.string().trim().min(1, 'required').max(120, 'at most 120 characters'));
 
 export const adminUserPatchSchema = z
   .object({ role: z.enum(ROLE_NAMES), active: z.boolean(), name: personNameSchema })
@@ -232,7 +233,7 @@ export const TOKEN_MAX_DAYS = 366;
 
 export const createTokenSchema = z
   .object({
-    name: z.string().trim().min(1, 'required').max(80, 'at most 80 characters'),
+    name: safeName(z.string().trim().min(1, 'required').max(80, 'at most 80 characters')),
     scope: z.enum(TOKEN_SCOPES),
     /** Epoch milliseconds or an ISO 8601 date/time; omitted or null = never expires. */
     expiresAt: z

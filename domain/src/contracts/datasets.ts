@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { safeName } from './text-safety.js';
 
 /* ---------- uploaded datasets (SPEC §6) ---------- */
 
@@ -24,7 +25,7 @@ export type DatasetUnits = z.infer<typeof datasetUnitsSchema>;
 
 /** The text fields sent beside the multipart `file` (units arrive as JSON text). */
 export const datasetUploadFieldsSchema = z.object({
-  name: z.string().trim().min(1, 'required').max(200, 'at most 200 characters').optional(),
+  name: safeName(z.string().trim().min(1, 'required').max(200, 'at most 200 characters')).optional(),
   units: z
     .string()
     .max(20_000, 'at most 20,000 characters')

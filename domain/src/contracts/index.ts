@@ -1,4 +1,5 @@
 export * from './auth.js';
+export * from './text-safety.js';
 export * from './accounts.js';
 export * from './catalogue.js';
 export * from './datasets.js';

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { safeName } from '../contracts/text-safety.js';
 import { MAX_AXES, MAX_AXIS_COUNT, MAX_DERIVED, MAX_POINTS_HARD, MAX_RANDOM_SAMPLES, MAX_TAGS } from './limits.js';
 import { MAX_SALTELLI_DIMENSIONS, saltelliGroupSize } from './sampling/saltelli.js';
 
@@ -115,11 +116,9 @@ export const derivedSchema = z.object({
 export const sweepDefinitionSchema = z
   .object({
     schemaVersion: z.literal(1, { error: 'must be 1' }).default(1),
-    name: z
-      .string({ error: 'is required' })
-      .trim()
-      .min(1, 'must not be empty')
-      .max(200, 'must be at most 200 characters'),
+    name: safeName(
+      z.string({ error: 'is required' }).trim().min(1, 'must not be empty').max(200, 'must be at most 200 characters'),
+    ),
     model: z.string({ error: 'is required' }).min(1, 'must name a model'),
     description: z.string().max(5000, 'must be at most 5000 characters').optional(),
     fixed: z.record(paramSchema, quantitySchema).default({}),
