@@ -15,10 +15,10 @@
  * - Neutral collisions: ν = n_n σ v̄ with the mean relative speed of two Maxwellians
  *   v̄ = sqrt(8 e (T_j/m_j + T_n/m_n)/π) (kinetic theory; common practice).
  */
-import { BOLTZMANN, ELECTRON_MASS, ELEMENTARY_CHARGE, PROTON_MASS, VACUUM_PERMITTIVITY } from '../constants.js';
+import { ELECTRON_MASS, ELEMENTARY_CHARGE, PROTON_MASS, VACUUM_PERMITTIVITY } from '../constants.js';
 
-/** Room temperature 300 K in eV (common practice). */
-export const ROOM_TEMPERATURE_EV = (300 * BOLTZMANN) / ELEMENTARY_CHARGE;
+/** Room temperature, 300 K in eV to 5 significant figures (k_B·300 K/e = 0.0258520 eV; common practice). */
+export const ROOM_TEMPERATURE_EV = 0.025852;
 
 const E = ELEMENTARY_CHARGE;
 /** 1/τ_e = NU_E · n_cm3 lnΛ T_e^−3/2: e⁴/(6√2 π^3/2 ε0² √m_e e^3/2) × 1e6 (m⁻³ per cm⁻³). */

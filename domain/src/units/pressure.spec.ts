@@ -26,8 +26,10 @@ describe('neutral pressure → density', () => {
     const at300 = resolveInputs(crossField, { nn_m3: '1 Pa', Tn_eV: '300 K' });
     // 1 Pa / (k_B · 300 K) = 2.41432e20 m⁻³ (k_B = 1.380649e-23 J/K exact).
     expect(at300.nn_m3! / (1 / (1.380649e-23 * 300)) - 1).toBeLessThan(1e-12);
+    // The default T_n is 300 K to 5 significant figures, 0.025852 eV.
     const byDefault = resolveInputs(crossField, { nn_m3: '1 Pa' });
-    expect(byDefault.nn_m3).toBeCloseTo(at300.nn_m3!, -10);
+    expect(byDefault.nn_m3! / (1 / (1.602176634e-19 * 0.025852))).toBeCloseTo(1, 12);
+    expect(byDefault.nn_m3! / at300.nn_m3!).toBeCloseTo(1, 5);
     expect(() => resolveInputs(crossField, { nn_m3: '1e9 Pa', Tn_eV: 1e-6 })).toThrow(ValidationError);
   });
 
@@ -49,7 +51,7 @@ describe('neutral pressure → density', () => {
       axes: [{ param: 'B_T', kind: 'linear', min: 0.1, max: 0.2, count: 2 }],
       sampling: { kind: 'grid' },
     });
-    expect(f.pointAt(0).nn_m3! / (1 / (1.380649e-23 * 300))).toBeCloseTo(1, 12);
+    expect(f.pointAt(0).nn_m3! / (1 / (1.602176634e-19 * 0.025852))).toBeCloseTo(1, 12);
     expect(() =>
       compileSweep({
         name: 'p',
