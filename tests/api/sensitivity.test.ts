@@ -7,6 +7,8 @@
 import bcrypt from 'bcryptjs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { estimateSobolIndices, saltelliOutputs, sensitivityReportSchema } from '@driftgrid/domain';
+import { HeavyReads } from '../../api/src/reads/heavy-reads.js';
+import type { PooledHeavyReads } from '../../api/src/reads/read-pool.js';
 import { DEMO_PASSWORD } from '../../api/src/seed/demo-users.js';
 import { DEMO, startTestApp, type TestApp } from '../support/app.js';
 import { smallSweep, waitForSweep } from '../support/sweeps.js';
@@ -138,4 +140,38 @@ describe('GET /api/sweeps/:id/sensitivity', () => {
     expect((await get(999999, tok.owner, '?output=rho_i_over_Ln')).status).toBe(404);
     expect((await t.http.get(`/api/sweeps/${saltelli}/sensitivity?output=rho_i_over_Ln`)).status).toBe(401);
   });
+});
+
+describe('the sensitivity read runs on the heavy-read pool (issue 14 §1)', () => {
+  it('obeys the read budget: 503 with advice while every pool thread is held, then served and kept', async () => {
+    const reads = t.app.get(HeavyReads) as PooledHeavyReads;
+    expect(reads.mode).toBe('pool');
+    const deadline = Date.now() + 60_000;
+    while (reads.stats.ready < reads.options.threads && Date.now() < deadline)
+      await new Promise((r) => setTimeout(r, 50));
+    // Hold every thread past the budget (the pool's test task; its own long budget).
+    const hold = reads.options.budgetMs + 2500;
+    const busy = Array.from({ length: reads.options.threads }, (_, i) =>
+      reads.run(9100 + i, { kind: 'sleep', ms: hold }, { budgetMs: 120_000 }),
+    );
+    await new Promise((r) => setTimeout(r, 50));
+    // An output not asked for before: not in the report cache, so it must wait for a pool thread.
+    const late = await get(shared, tok.reviewer, '?output=rho_s_over_Ln');
+    expect(late.status).toBe(503);
+    expect(late.body.message).toMatch(/narrow the filter|try again/i);
+    expect(late.headers['retry-after']).toBeDefined();
+    await Promise.all(busy);
+    const served = await get(shared, tok.reviewer, '?output=rho_s_over_Ln');
+    expect(served.status).toBe(200);
+    expect(sensitivityReportSchema.parse(served.body).output).toBe('rho_s_over_Ln');
+    // Kept: the same report is answered from the cache even while the pool is held again.
+    const again = Array.from({ length: reads.options.threads }, (_, i) =>
+      reads.run(9100 + i, { kind: 'sleep', ms: 1500 }, { budgetMs: 120_000 }),
+    );
+    await new Promise((r) => setTimeout(r, 50));
+    const cached = await get(shared, tok.reviewer, '?output=rho_s_over_Ln');
+    expect(cached.status).toBe(200);
+    expect(cached.body).toEqual(served.body);
+    await Promise.all(again);
+  }, 60_000);
 });

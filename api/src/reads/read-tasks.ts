@@ -4,11 +4,14 @@ import {
   type ErrorDetail,
   type HeatmapSeries,
   type LineSeries,
+  type SensitivityReport,
   type SeriesQuery,
 } from '@driftgrid/domain';
 import { SeriesRepository } from '../catalogue/series.repository.js';
 import { SeriesService } from '../catalogue/series.service.js';
 import type { OpenedDatabase } from '../db/database.js';
+import { sensitivityReport, type SensitivityInputs } from '../sensitivity/sensitivity-report.js';
+import { SensitivityRepository } from '../sensitivity/sensitivity.repository.js';
 import { compileFilter, parseSort, type ResultFilter } from '../sweeps/results-query.js';
 import { ResultsRepository, type ResultRow } from '../sweeps/results.repository.js';
 import { layoutOf, type StoredColumn } from '../sweeps/sweep-layout.js';
@@ -51,17 +54,26 @@ export interface ColumnsResult {
   n: number;
   data: Record<string, Float64Array>;
 }
+/** One output column of a Saltelli-design sweep and its Sobol indices (column read + bootstrap). */
+export interface SensitivityTask {
+  kind: 'sensitivity';
+  sweepId: number;
+  /** The column's stored slot (c<n>), resolved and checked on the api thread. */
+  slot: string;
+  params: SensitivityInputs;
+}
 /** Test-only task: holds its thread for `ms` (checks of the budget, the limits and cancellation). */
 export interface SleepTask {
   kind: 'sleep';
   ms: number;
 }
 
-export type ReadTask = PageTask | SeriesTask | ColumnsTask | SleepTask;
+export type ReadTask = PageTask | SeriesTask | ColumnsTask | SensitivityTask | SleepTask;
 export interface ReadResults {
   page: PageResult;
   series: LineSeries | HeatmapSeries;
   columns: ColumnsResult;
+  sensitivity: SensitivityReport;
   sleep: { slept: number };
 }
 export type ReadResultOf<T extends ReadTask> = ReadResults[T['kind']];
@@ -74,9 +86,11 @@ export type ReadReply =
 export class ReadTaskRunner {
   private readonly results: ResultsRepository;
   private readonly series: SeriesService;
+  private readonly sensitivity: SensitivityRepository;
 
   constructor(db: Database.Database) {
     this.results = new ResultsRepository(db);
+    this.sensitivity = new SensitivityRepository(db);
     this.series = new SeriesService(new SeriesRepository({ sqlite: db } as OpenedDatabase));
   }
 
@@ -98,6 +112,11 @@ export class ReadTaskRunner {
         return this.series.series(task.sweep, task.query);
       case 'columns':
         return this.columns(task);
+      case 'sensitivity':
+        return sensitivityReport(
+          this.sensitivity.columnByIndex(task.sweepId, task.slot, task.params.points),
+          task.params,
+        );
       case 'sleep': {
         const until = Date.now() + task.ms;
         while (Date.now() < until) {

@@ -4,6 +4,7 @@ import { sensitivityQuerySchema, type SensitivityQuery } from '@driftgrid/domain
 import { SignedIn } from '../auth/access.decorators.js';
 import { CurrentUser, type AuthUser } from '../auth/current-user.js';
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
+import { ClientSignal } from '../reads/client-signal.js';
 import { SensitivityService } from './sensitivity.service.js';
 
 @ApiTags('sensitivity')
@@ -22,7 +23,8 @@ export class SensitivityController {
     @CurrentUser() user: AuthUser,
     @Param('id', ParseIntPipe) id: number,
     @Query(new ZodValidationPipe(sensitivityQuerySchema, 'query')) q: SensitivityQuery,
+    @ClientSignal() signal: AbortSignal,
   ) {
-    return this.sensitivity.report(user, id, q);
+    return this.sensitivity.report(user, id, q, signal);
   }
 }

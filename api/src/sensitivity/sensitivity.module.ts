@@ -1,13 +1,12 @@
 import { Module } from '@nestjs/common';
 import { SweepsModule } from '../sweeps/sweeps.module.js';
 import { SensitivityController } from './sensitivity.controller.js';
-import { SensitivityRepository } from './sensitivity.repository.js';
 import { SensitivityService } from './sensitivity.service.js';
 
 /** Sobol sensitivity indices of Saltelli-design sweeps (GET /api/sweeps/:id/sensitivity). */
 @Module({
   imports: [SweepsModule],
   controllers: [SensitivityController],
-  providers: [SensitivityRepository, SensitivityService],
+  providers: [SensitivityService],
 })
 export class SensitivityModule {}

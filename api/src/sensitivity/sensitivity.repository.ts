@@ -1,17 +1,14 @@
-import { Inject, Injectable } from '@nestjs/common';
-import { DB_HANDLE } from '../db/db.module.js';
-import type { OpenedDatabase } from '../db/database.js';
+import type Database from 'better-sqlite3';
 import { rowRange, ROW_SPAN } from '../sweeps/sweep-layout.js';
 
 /**
  * The one read behind the sensitivity report: a single stored column by point index. It selects only
  * the rowid and that column's slot (raw rows, no objects per row) and writes straight into a typed
- * array, so a sweep of N·(d + 2) points costs one pass and 8 bytes a point. Kept in one function so it
- * can move to the read pool unchanged.
+ * array, so a sweep of N·(d + 2) points costs one pass and 8 bytes a point. A plain class over a
+ * connection: it runs on a heavy-read pool thread's read-only connection (api/src/reads/read-tasks.ts).
  */
-@Injectable()
 export class SensitivityRepository {
-  constructor(@Inject(DB_HANDLE) private readonly handle: OpenedDatabase) {}
+  constructor(private readonly db: Database.Database) {}
 
   /** values[p] = the column at point p; NaN where the point is not stored yet or the value is NULL. */
   columnByIndex(sweepId: number, slot: string, points: number): Float64Array {
@@ -19,10 +16,7 @@ export class SensitivityRepository {
     const values = new Float64Array(points).fill(Number.NaN);
     const { lo, hi } = rowRange(sweepId);
     const base = sweepId * ROW_SPAN;
-    const stmt = this.handle.sqlite
-      .prepare(`SELECT id - ${base}, ${slot} FROM results WHERE id BETWEEN ? AND ?`)
-      .raw(true);
-    // Drained synchronously: the iterator never stays open across an await.
+    const stmt = this.db.prepare(`SELECT id - ${base}, ${slot} FROM results WHERE id BETWEEN ? AND ?`).raw(true);
     for (const row of stmt.iterate(lo, hi) as IterableIterator<[number, number | null]>) {
       const p = row[0];
       if (p < points && row[1] !== null) values[p] = row[1];
