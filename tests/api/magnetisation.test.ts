@@ -5,6 +5,7 @@
  * v̄ = sqrt(8 e (T_i + T_n)/(π m_i)) (kinetic theory, common practice) and ω_ci = Z e B/m_i
  * (NRL Plasma Formulary); constants CODATA 2018.
  */
+import { strFromU8, unzipSync } from 'fflate';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO, startTestApp, type TestApp } from '../support/app.js';
 import { waitForSweep } from '../support/sweeps.js';
