@@ -73,8 +73,24 @@ describe('collisions and magnetisation through the api', () => {
     expect(flagged).toBeLessThan(32);
     expect(sweep.flagsSummary.byFlag.unmagnetised_ions).toBe(flagged);
 
-    const manifest = await t.http.get(`/api/sweeps/${created.body.id}`).set('authorization', `Bearer ${token}`);
-    expect(manifest.body.modelVersion ?? manifest.body.model?.version ?? '2.0.0').toContain('2.');
+    // The export's manifest counts the points per flag too, with the model version they were computed with.
+    const zip = await t.http
+      .get(`/api/sweeps/${created.body.id}/export`)
+      .set('authorization', `Bearer ${token}`)
+      .buffer(true)
+      .parse((r, cb) => {
+        const chunks: Buffer[] = [];
+        r.on('data', (c: Buffer) => chunks.push(c));
+        r.on('end', () => cb(null, Buffer.concat(chunks)));
+      });
+    expect(zip.status).toBe(200);
+    const files = unzipSync(new Uint8Array(zip.body as Buffer));
+    const manifest = JSON.parse(strFromU8(files['manifest.json']!)) as {
+      sweep: { flagCounts: Record<string, number> };
+      model: { version: string };
+    };
+    expect(manifest.sweep.flagCounts.unmagnetised_ions).toBe(flagged);
+    expect(manifest.model.version).toBe('2.0.0');
   });
 
   it('refuses a pressure when the neutral temperature is swept, naming the field', async () => {
