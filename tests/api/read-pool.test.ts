@@ -1,7 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { HeavyReads } from '../../api/src/reads/heavy-reads.js';
 import { ReadBudgetError } from '../../api/src/reads/read-errors.js';
+import { OrderCache } from '../../api/src/reads/order-cache.js';
 import type { PooledHeavyReads } from '../../api/src/reads/read-pool.js';
+import { ResultsReader } from '../../api/src/sweeps/results-reader.js';
 import { DEMO, startTestApp, type TestApp } from '../support/app.js';
 import { smallSweep, waitForSweep } from '../support/sweeps.js';
 
@@ -200,5 +202,31 @@ describe('sorted pages (order computed once, later pages from the cache)', () =>
       .prepare(`SELECT COUNT(*) AS n FROM results WHERE id BETWEEN ? AND ? AND ${te} >= 5 AND ${te} <= 50`)
       .get(sweepId * 2 ** 32, (sweepId + 1) * 2 ** 32 - 1) as { n: number };
     expect(res.body.total).toBe(n.n);
+  });
+
+  it('answers an uncached sorted page by SQL, then builds the whole order in the background for later pages', async () => {
+    await warm();
+    const cache = t.app.get(OrderCache);
+    const reader = t.app.get(ResultsReader);
+    // Builds started by earlier tests finish first (one runs at a time; a view asked meanwhile is not queued).
+    expect(await until(() => reader.buildsInProgress === 0, 30_000)).toBe(true);
+    const before = cache.size;
+    // A view nobody asked for yet; pages 1 and 7 asked at once, before any order exists.
+    const [first, seventh] = await Promise.all([
+      sorted(reviewer, 'rho_i_over_Ln:asc', 1),
+      sorted(researcher, 'rho_i_over_Ln:asc', 7),
+    ]);
+    expect(first.body.rows.map((r: { idx: number }) => r.idx)).toEqual(sqlPage('rho_i_over_Ln', false, 1));
+    expect(seventh.body.rows.map((r: { idx: number }) => r.idx)).toEqual(sqlPage('rho_i_over_Ln', false, 7));
+    // One background build for the view (deduplicated), which lands in the cache.
+    expect(await until(() => reader.buildsInProgress === 0 && cache.size === before + 1, 30_000)).toBe(true);
+    // With every pool thread held, a later page of that view is still served: from the cache, on the api.
+    const busy = [hold(9001, 2500), hold(9002, 2500)];
+    await new Promise((r) => setTimeout(r, 50));
+    const later = await sorted(reviewer, 'rho_i_over_Ln:asc', 19);
+    expect(later.status).toBe(200);
+    expect(later.body.total).toBe(1200);
+    expect(later.body.rows.map((r: { idx: number }) => r.idx)).toEqual(sqlPage('rho_i_over_Ln', false, 19));
+    await Promise.all(busy);
   });
 });

@@ -12,7 +12,7 @@ import { SeriesService } from '../catalogue/series.service.js';
 import type { OpenedDatabase } from '../db/database.js';
 import { sensitivityReport, type SensitivityInputs } from '../sensitivity/sensitivity-report.js';
 import { SensitivityRepository } from '../sensitivity/sensitivity.repository.js';
-import { compileFilter, parseSort, type ResultFilter } from '../sweeps/results-query.js';
+import { compileFilter, compileSort, parseSort, type ResultFilter } from '../sweeps/results-query.js';
 import { ResultsRepository, type ResultRow } from '../sweeps/results.repository.js';
 import { layoutOf, type StoredColumn } from '../sweeps/sweep-layout.js';
 import type { SweepRow } from '../sweeps/sweeps.repository.js';
@@ -35,8 +35,13 @@ export interface PageTask {
 export interface PageResult {
   rows: ResultRow[];
   total: number;
-  /** The order computed for a sorted view, for the api's cache. */
-  order?: Uint32Array;
+}
+/** The whole order of a sorted view (point indices), for the api's order cache. */
+export interface OrderTask {
+  kind: 'order';
+  sweep: SweepRow;
+  sort: string;
+  filter: ResultFilter;
 }
 export interface SeriesTask {
   kind: 'series';
@@ -68,9 +73,10 @@ export interface SleepTask {
   ms: number;
 }
 
-export type ReadTask = PageTask | SeriesTask | ColumnsTask | SensitivityTask | SleepTask;
+export type ReadTask = PageTask | OrderTask | SeriesTask | ColumnsTask | SensitivityTask | SleepTask;
 export interface ReadResults {
   page: PageResult;
+  order: Uint32Array;
   series: LineSeries | HeatmapSeries;
   columns: ColumnsResult;
   sensitivity: SensitivityReport;
@@ -108,6 +114,12 @@ export class ReadTaskRunner {
     switch (task.kind) {
       case 'page':
         return this.page(task);
+      case 'order': {
+        const layout = layoutOf(task.sweep);
+        const spec = parseSort(layout, task.sort);
+        if (!spec || spec.column.kind === 'index') throw new Error('an order task needs a value column');
+        return this.order(task.sweep.id, spec.column, spec.desc, compileFilter(task.sweep.id, layout, task.filter));
+      }
       case 'series':
         return this.series.series(task.sweep, task.query);
       case 'columns':
@@ -138,9 +150,14 @@ export class ReadTaskRunner {
       const rows = this.results.pageByIndex(s.id, layout, q, spec?.desc ?? false, t.pageSize, offset);
       return { rows: shapeRows(rows, layout), total: filtered ? this.results.count(q) : s.pointsDone };
     }
-    const order = t.order ?? this.order(s.id, spec.column, spec.desc, q);
-    const rows = this.results.rowsAt(s.id, layout, order.subarray(offset, offset + t.pageSize));
-    return { rows: shapeRows(rows, layout), total: order.length, ...(t.order ? {} : { order }) };
+    if (t.order) {
+      const rows = this.results.rowsAt(s.id, layout, t.order.subarray(offset, offset + t.pageSize));
+      return { rows: shapeRows(rows, layout), total: t.order.length };
+    }
+    // No order at hand: SQLite's ORDER BY … LIMIT answers this one page (same rules as the full order:
+    // NULLs last, ties by rowid); the api builds the whole order in the background for later pages.
+    const rows = this.results.pageSorted(s.id, layout, q, compileSort(layout, t.sort), t.pageSize, offset);
+    return { rows: shapeRows(rows, layout), total: filtered ? this.results.count(q) : s.pointsDone };
   }
 
   private order(sweepId: number, column: StoredColumn, desc: boolean, q: ReturnType<typeof compileFilter>) {

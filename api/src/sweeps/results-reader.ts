@@ -1,9 +1,9 @@
-import { Inject, Injectable } from '@nestjs/common';
+import { Inject, Injectable, Logger } from '@nestjs/common';
 import { DB_HANDLE } from '../db/db.module.js';
 import type { OpenedDatabase } from '../db/database.js';
 import { HeavyReads } from '../reads/heavy-reads.js';
 import { OrderCache, orderKey } from '../reads/order-cache.js';
-import { shapeRows } from '../reads/read-tasks.js';
+import { shapeRows, type OrderTask } from '../reads/read-tasks.js';
 import { columnByName, parseSort, type ResultFilter } from './results-query.js';
 import { ResultsRepository, type ResultRow } from './results.repository.js';
 import { layoutOf } from './sweep-layout.js';
@@ -13,6 +13,14 @@ export { layoutOf };
 
 /** Sweeps whose stored rows no longer change (their sorted orders may be cached). */
 const SETTLED = new Set(['completed', 'archived', 'failed', 'cancelled']);
+
+/**
+ * Whole orders built in the background at once (each holds one pool thread): the rest of the pool stays
+ * free for the pages users wait for. A view asked for while the builder is full is built on a later ask.
+ */
+const MAX_BACKGROUND_BUILDS = 1;
+/** The per-user slot key of background builds (no user has a negative id), so they never take a user's slot. */
+const BACKGROUND_USER = -1;
 
 export interface ResultsPageQuery {
   page: number;
@@ -24,12 +32,18 @@ export interface ResultsPageQuery {
 /**
  * Reads stored results for tables, plots and fits. What is cheap is read here on the api's
  * connection: a page of a complete sweep in index order (a rowid range) and any page of a sorted view
- * whose order is cached (a few rowid look-ups). Everything else — a sort computed for the first time,
- * filters, whole columns — goes to the heavy-read pool, bounded in time and per user (api/src/reads).
+ * whose order is cached (a few rowid look-ups). Everything else — filters, whole columns, a page of a
+ * sorted view whose order is not cached yet (SQLite's ORDER BY … LIMIT on a pool thread) — goes to the
+ * heavy-read pool, bounded in time and per user (api/src/reads). After such a page, the view's whole
+ * order is built in the background on the pool (once per view, a bounded number at a time) and cached,
+ * so later pages are look-ups.
  */
 @Injectable()
 export class ResultsReader {
+  private readonly logger = new Logger('ResultsReader');
   private readonly repo: ResultsRepository;
+  /** Background order builds in progress, by order-cache key (one per view at most). */
+  private readonly building = new Map<string, Promise<void>>();
 
   constructor(
     @Inject(DB_HANDLE) handle: OpenedDatabase,
@@ -59,8 +73,25 @@ export class ResultsReader {
       return { rows: shapeRows(rows, layout), total: cached.length, columns };
     }
     const r = await this.reads.run(userId, { kind: 'page', sweep: s, ...q }, { signal });
-    if (key && r.order) this.orders.set(key, r.order);
+    if (key && q.sort) this.buildOrder(key, { kind: 'order', sweep: s, sort: q.sort, filter: q.filter });
     return { rows: r.rows as ResultRow[], total: r.total, columns };
+  }
+
+  /** Starts building a view's whole order on the pool unless it is cached, under way, or the builder is full. */
+  private buildOrder(key: string, task: OrderTask): void {
+    if (this.orders.get(key) || this.building.has(key) || this.building.size >= MAX_BACKGROUND_BUILDS) return;
+    const done = this.reads
+      .run(BACKGROUND_USER, task)
+      .then((order) => this.orders.set(key, order))
+      // A build that fails (over budget, pool busy) only means later pages are answered by SQL again.
+      .catch((e: unknown) => this.logger.debug(`order not cached: ${e instanceof Error ? e.message : String(e)}`))
+      .finally(() => this.building.delete(key));
+    this.building.set(key, done);
+  }
+
+  /** Background order builds still running (tests wait for them; diagnostics). */
+  get buildsInProgress(): number {
+    return this.building.size;
   }
 
   /** Whole numeric columns of the (filtered) rows, in index order: the input of fits and plots. */
