@@ -35,6 +35,7 @@ const MODELS: Record<string, string> = {
   // Two predictors; NIST's response is log[y] (natural log), so the fit is to ln y.
   Nelson: 'b1 - b2*x1 * exp(-b3*x2)',
   Kirby2: '(b1 + b2*x + b3*x^2) / (1 + b4*x + b5*x^2)',
+  ENSO: 'b1 + b2*cos(2*pi*x/12) + b3*sin(2*pi*x/12) + b5*cos(2*pi*x/b4) + b6*sin(2*pi*x/b4) + b8*cos(2*pi*x/b7) + b9*sin(2*pi*x/b7)',
 };
 
 /**
@@ -55,10 +56,9 @@ function loadData(name: string): { x: Record<string, number[]>; xNames: string[]
 
 /**
  * The 27 datasets of the StRD nonlinear-regression suite (NIST). Not yet copied here, because no verbatim
- * copy with certified values was at hand when the suite was extended: MGH17, Gauss1, Gauss2, Gauss3, Hahn1,
- * ENSO. The test below keeps that list honest.
+ * copy with certified values was at hand when the suite was extended: MGH17, Gauss1, Gauss2, Gauss3, Hahn1. The test below keeps that list honest.
  */
-const NOT_YET_COPIED = ['MGH17', 'Gauss1', 'Gauss2', 'Gauss3', 'Hahn1', 'ENSO'];
+const NOT_YET_COPIED = ['MGH17', 'Gauss1', 'Gauss2', 'Gauss3', 'Hahn1'];
 
 interface Certified {
   name: string;
@@ -86,7 +86,8 @@ function loadCertified(): Certified[] {
       entry = { name, difficulty, rss: Number(rss), residualSd: Number(rsd), params: [] };
       byName.set(name, entry);
     }
-    entry.params.push({ name: param!, start1: Number(s1), start2: Number(s2), value: Number(value), sd: Number(sd) });
+    const num = (t: string | undefined) => (t === undefined || t === '' ? NaN : Number(t)); // empty: not given
+    entry.params.push({ name: param!, start1: num(s1), start2: num(s2), value: Number(value), sd: Number(sd) });
   }
   return [...byName.values()];
 }
@@ -102,9 +103,9 @@ const datasets = loadCertified();
 const table: Record<string, unknown>[] = [];
 
 describe('NIST StRD nonlinear regression (source: NIST ITL Statistical Reference Datasets)', () => {
-  it('covers every dataset in the reference folder (21 of the 27; the rest listed as not yet copied)', () => {
+  it('covers every dataset in the reference folder (22 of the 27; the rest listed as not yet copied)', () => {
     expect(datasets.map((d) => d.name).sort()).toEqual(Object.keys(MODELS).sort());
-    expect(datasets).toHaveLength(21);
+    expect(datasets).toHaveLength(22);
     expect(datasets.length + NOT_YET_COPIED.length).toBe(27);
   });
 
@@ -131,7 +132,9 @@ describe('NIST StRD nonlinear regression (source: NIST ITL Statistical Reference
 
   for (const cert of datasets) {
     for (const start of [1, 2] as const) {
-      it(`${cert.name} (${cert.difficulty} difficulty) from NIST start ${start}`, () => {
+      // ENSO's NIST start 1 is not in the source it was copied from (only start 2 is); left out rather than guessed.
+      const unknownStart = cert.params.some((p) => Number.isNaN(start === 1 ? p.start1 : p.start2));
+      it.skipIf(unknownStart)(`${cert.name} (${cert.difficulty} difficulty) from NIST start ${start}`, () => {
         const { x, xNames, y } = loadData(cert.name);
         const params = Object.fromEntries(cert.params.map((p) => [p.name, start === 1 ? p.start1 : p.start2]));
         const result: FitResult = fitModel({
@@ -181,6 +184,6 @@ describe('NIST StRD nonlinear regression (source: NIST ITL Statistical Reference
 
   it('prints the LRE table', () => {
     console.table(table);
-    expect(table.length).toBe(42);
+    expect(table.length).toBe(43);
   });
 });
