@@ -6,8 +6,8 @@ export type ColumnGroup = (typeof COLUMN_GROUPS)[number];
 
 export const COLUMN_GROUP_LABELS: Record<ColumnGroup, string> = {
   swept: 'Swept inputs',
-  drifts: 'Drifts and speeds',
-  scales: 'Scales and frequencies',
+  drifts: 'Drifts',
+  scales: 'Speeds, lengths, frequencies',
   orderings: 'Orderings and ratios',
   other: 'Other outputs',
   derived: 'Derived',
@@ -15,14 +15,15 @@ export const COLUMN_GROUP_LABELS: Record<ColumnGroup, string> = {
 };
 
 /**
- * The table group of a model output: its registry `group` when set, else from its unit — speeds are drifts,
- * lengths and frequencies are scales, dimensionless numbers are orderings, booleans are flags.
+ * The table group of a model output: its registry `group` when set, else from its unit and meaning — speeds
+ * described as a drift are drifts, other speeds (thermal, sound), lengths and frequencies are scales,
+ * dimensionless numbers are orderings, booleans are flags.
  */
-export function outputGroup(o: Pick<OutputSpec, 'unit' | 'kind' | 'group'>): OutputGroup {
+export function outputGroup(o: Pick<OutputSpec, 'unit' | 'kind' | 'group'> & { meaning?: string }): OutputGroup {
   if (o.group) return o.group;
   if (o.kind === 'boolean') return 'flags';
   const u = o.unit.replace(/\s+/g, '');
-  if (u === 'm/s') return 'drifts';
+  if (u === 'm/s') return /drift/i.test(o.meaning ?? '') ? 'drifts' : 'scales';
   if (u === 'm' || u === 'rad/s' || u === 's' || u === 'Hz' || u === '1/s' || u === 's^-1') return 'scales';
   if (u === '1' || u === '') return 'orderings';
   return 'other';

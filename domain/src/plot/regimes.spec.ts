@@ -60,6 +60,9 @@ describe('column groups', () => {
     const g = (name: string) => outputGroup(m.outputs.find((o) => o.name === name)!);
     expect(g('vE_ms')).toBe('drifts');
     expect(g('vDi_ms')).toBe('drifts');
+    // Thermal and sound speeds are scales of the plasma, not drifts.
+    expect(g('vti_ms')).toBe('scales');
+    expect(g('cs_ms')).toBe('scales');
     expect(g('rho_i_m')).toBe('scales');
     expect(g('omega_ci')).toBe('scales');
     expect(g('rho_i_over_Ln')).toBe('orderings');

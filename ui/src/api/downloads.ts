@@ -1,4 +1,5 @@
 import { useMutation } from '@tanstack/react-query';
+import { saveBlob } from '../lib/download.js';
 import { apiDownload } from './client.js';
 import type { MutationHandlers } from './mutations.js';
 
@@ -22,19 +23,7 @@ async function sha256Hex(blob: Blob): Promise<string | null> {
 export async function downloadZip(path: string, fallbackName: string): Promise<DownloadedFile> {
   const { blob, filename } = await apiDownload(path);
   const fileName = filename ?? fallbackName;
-  const url = URL.createObjectURL(blob);
-  try {
-    const a = document.createElement('a');
-    a.href = url;
-    a.download = fileName;
-    a.rel = 'noopener';
-    document.body.appendChild(a);
-    a.click();
-    a.remove();
-  } finally {
-    // Give the browser a moment to start the download before the URL goes away.
-    setTimeout(() => URL.revokeObjectURL(url), 30_000);
-  }
+  saveBlob(blob, fileName);
   return { fileName, bytes: blob.size, sha256: await sha256Hex(blob) };
 }
 

@@ -3,7 +3,15 @@
  * builder's preview, submit, cancel, sharing and archive. Keys come from queryKeys.ts; each read has a
  * queryOptions() factory so a component can prefetch or share the exact query a hook runs.
  */
-import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import {
+  keepPreviousData,
+  queryOptions,
+  useMutation,
+  useQueries,
+  useQuery,
+  useQueryClient,
+  type QueryClient,
+} from '@tanstack/react-query';
 import type { ErrorDetail, HeatmapSeries, LineSeries, QuotaVerdict, SweepSummary } from '@driftgrid/domain';
 import { api, ApiError, type Page, type Query } from './client.js';
 import { afterSuccess, type MutationHandlers } from './mutations.js';
@@ -227,5 +235,57 @@ export function useArchiveSweep(id: number, handlers?: MutationHandlers<SweepVie
       qc.setQueryData(queryKeys.sweeps.detail(id), s);
       void qc.invalidateQueries({ queryKey: queryKeys.sweeps.all() });
     }, handlers),
+  });
+}
+
+/** Several plot series of one sweep at once (a heatmap and the ordering parameters its contours need). */
+export function useSeriesList(id: string | number, queries: Query[], enabled = true) {
+  return useQueries({
+    queries: queries.map((q) => ({ ...sweepQueries.series(id, q), placeholderData: keepPreviousData, enabled })),
+    combine: seriesData,
+  });
+}
+
+// Stable, so the combined array keeps its identity while no series changes.
+const seriesData = (results: { data?: LineSeries | HeatmapSeries }[]) => results.map((r) => r.data);
+
+type Row = ResultsPage['rows'][number];
+
+/** One stored point (every input, output, derived column and the flag mask) by its index. */
+export function resultRowQuery(id: string | number, idx: number) {
+  return queryOptions({
+    ...sweepQueries.results(id, { filter: JSON.stringify({ idx: { eq: idx } }), pageSize: 1 }),
+    select: (p: ResultsPage): Row | null => p.rows[0] ?? null,
+    staleTime: Infinity,
+  });
+}
+
+/** Fetches (or reads from the cache) one stored point, for hover read-outs drawn outside React. */
+export async function fetchResultRow(qc: QueryClient, id: string | number, idx: number): Promise<Row | null> {
+  const page = await qc.fetchQuery({
+    ...sweepQueries.results(id, { filter: JSON.stringify({ idx: { eq: idx } }), pageSize: 1 }),
+    staleTime: Infinity,
+  });
+  return page.rows[0] ?? null;
+}
+
+/** The first `limit` stored points with every column (a scatter of a random design), in pages of 1,000. */
+export function useLeadingRows(id: string | number, limit: number, enabled = true) {
+  return useQuery({
+    queryKey: [...queryKeys.sweeps.results(id, { leading: limit })],
+    enabled,
+    staleTime: 30_000,
+    queryFn: async ({ signal }) => {
+      const pageSize = Math.min(1000, limit);
+      const rows: Row[] = [];
+      let total = 0;
+      for (let page = 1; rows.length < limit; page++) {
+        const p = await api.get<ResultsPage>(`/sweeps/${id}/results`, { page, pageSize, sort: 'idx:asc' }, signal);
+        total = p.total;
+        rows.push(...p.rows);
+        if (p.rows.length < pageSize) break;
+      }
+      return { rows: rows.slice(0, limit), total };
+    },
   });
 }

@@ -19,7 +19,7 @@ import {
 import { IconAlertTriangle, IconChartDots3, IconPlayerStop } from '@tabler/icons-react';
 import { getModel } from '@driftgrid/domain';
 import { lazy, Suspense, useEffect, useMemo, useState } from 'react';
-import { Link, useParams } from 'react-router-dom';
+import { Link, useParams, useSearchParams } from 'react-router-dom';
 import { useMe } from '../api/auth.js';
 import { ApiError } from '../api/client.js';
 import { useUserDirectory } from '../api/users.js';
@@ -363,7 +363,18 @@ export default function SweepPage() {
   const { id = '' } = useParams();
   const { data: me } = useMe();
   const { data: sweep, error, isLoading } = useSweep(id);
-  const [tab, setTab] = useState<string | null>('overview');
+  // The tab is in the URL, with the plot's own choices, so a view can be bookmarked and shared.
+  const [params, setParams] = useSearchParams();
+  const tab = params.get('tab') ?? 'overview';
+  const setTab = (t: string | null) =>
+    setParams(
+      (p) => {
+        const next = new URLSearchParams(p);
+        next.set('tab', t ?? 'overview');
+        return next;
+      },
+      { replace: true },
+    );
   if (isLoading) return <Skeleton h={240} />;
   if (error || !sweep) {
     const notFound = error instanceof ApiError && (error.status === 404 || error.status === 400);
@@ -421,7 +432,7 @@ export default function SweepPage() {
           <Overview sweep={sweep} canManage={canManage} />
         </Tabs.Panel>
         <Tabs.Panel value="results">
-          <ResultsTable sweepId={sweep.id} columns={sweep.columns} flagNames={flagBits} />
+          <ResultsTable sweep={sweep} flagNames={flagBits} />
           <Text fz="xs" c="dimmed" mt="xs">
             Values show 4 significant figures; hover a value for full precision. Units:{' '}
             {sweep.columns

@@ -1,5 +1,6 @@
 import { Group, Paper, Select, Stack, Switch, Text, useComputedColorScheme } from '@mantine/core';
-import { useEffect, useRef, useState } from 'react';
+import { useMemo, useState } from 'react';
+import { useChart } from '../../lib/chart/useChart.js';
 import type { DatasetColumn } from '@driftgrid/domain';
 import { formatNumber, prettyUnit } from '../../lib/format.js';
 import { useDatasetSeries } from '../../api/datasets.js';
@@ -15,60 +16,47 @@ export function DatasetScatter({ datasetId, columns }: { datasetId: number; colu
   const [logX, setLogX] = useState(false);
   const [logY, setLogY] = useState(false);
   const series = useDatasetSeries(datasetId, x, y);
-  const ref = useRef<HTMLDivElement>(null);
   const scheme = useComputedColorScheme('light');
 
-  useEffect(() => {
+  const option = useMemo(() => {
     const data = series.data;
-    if (!data || !ref.current) return;
-    let disposed = false;
-    let chart: { dispose(): void; resize(): void; setOption(o: unknown): void } | null = null;
-    const onResize = () => chart?.resize();
-    void import('./echarts.js').then(({ init }) => {
-      if (disposed || !ref.current) return;
-      chart = init(ref.current, scheme === 'dark' ? 'dark' : undefined);
-      const text = scheme === 'dark' ? '#d5dde3' : '#27323a';
-      const pts = data.points.x
-        .map((v, i) => [v, data.points.y[i]])
-        .filter(([a, b]) => (!logX || a > 0) && (!logY || b > 0));
-      chart.setOption({
-        backgroundColor: 'transparent',
-        animation: false,
-        textStyle: { fontFamily: 'Fira Sans, sans-serif', color: text },
-        grid: { left: 80, right: 24, top: 16, bottom: 56 },
-        tooltip: {
-          trigger: 'item',
-          formatter: (p: { value: [number, number] }) =>
-            `${data.x.name} = ${formatNumber(p.value[0])} ${prettyUnit(data.x.unit)}<br/>${data.y.name} = ${formatNumber(p.value[1])} ${prettyUnit(data.y.unit)}`,
-        },
-        xAxis: {
-          type: logX ? 'log' : 'value',
-          name: axisName(data.x),
-          nameLocation: 'middle',
-          nameGap: 32,
-          scale: true,
-          axisLabel: { formatter: (v: number) => formatNumber(v, 3) },
-        },
-        yAxis: {
-          type: logY ? 'log' : 'value',
-          name: axisName(data.y),
-          nameLocation: 'middle',
-          nameGap: 62,
-          scale: true,
-          axisLabel: { formatter: (v: number) => formatNumber(v, 3) },
-        },
-        series: [
-          { type: 'scatter', symbolSize: 6, data: pts, itemStyle: { color: '#1f6f8b' }, large: pts.length > 5000 },
-        ],
-      });
-      window.addEventListener('resize', onResize);
-    });
-    return () => {
-      disposed = true;
-      window.removeEventListener('resize', onResize);
-      chart?.dispose();
+    if (!data) return null;
+    const text = scheme === 'dark' ? '#d5dde3' : '#27323a';
+    const pts = data.points.x
+      .map((v, i) => [v, data.points.y[i]])
+      .filter(([a, b]) => (!logX || a > 0) && (!logY || b > 0));
+    return {
+      backgroundColor: 'transparent',
+      animation: false,
+      textStyle: { fontFamily: 'Fira Sans, sans-serif', color: text },
+      grid: { left: 80, right: 24, top: 16, bottom: 56 },
+      tooltip: {
+        trigger: 'item',
+        formatter: (p: { value: [number, number] }) =>
+          `${data.x.name} = ${formatNumber(p.value[0])} ${prettyUnit(data.x.unit)}<br/>${data.y.name} = ${formatNumber(p.value[1])} ${prettyUnit(data.y.unit)}`,
+      },
+      xAxis: {
+        type: logX ? 'log' : 'value',
+        name: axisName(data.x),
+        nameLocation: 'middle',
+        nameGap: 32,
+        scale: true,
+        axisLabel: { formatter: (v: number) => formatNumber(v, 3) },
+      },
+      yAxis: {
+        type: logY ? 'log' : 'value',
+        name: axisName(data.y),
+        nameLocation: 'middle',
+        nameGap: 62,
+        scale: true,
+        axisLabel: { formatter: (v: number) => formatNumber(v, 3) },
+      },
+      series: [
+        { type: 'scatter', symbolSize: 6, data: pts, itemStyle: { color: '#1f6f8b' }, large: pts.length > 5000 },
+      ],
     };
   }, [series.data, scheme, logX, logY]);
+  const { ref } = useChart(option, { dark: scheme === 'dark' });
 
   if (numeric.length === 0) {
     return (

@@ -3,7 +3,7 @@ import { useMemo } from 'react';
 import type { FitView } from '../../api/fits.js';
 import { prettyUnit } from '../../lib/format.js';
 import { axis, baseOption } from '../FitPlot/FitPlot.js';
-import { useChart } from '../FitPlot/use-chart.js';
+import { useChart } from '../../lib/chart/useChart.js';
 import { Num } from '../Num/Num.js';
 import { FitStatus } from '../FitResult/FitStatus.js';
 import { bestBy, residualSeries, sameData } from './compare-series.js';
@@ -42,7 +42,7 @@ export function FitCompare({ fits }: { fits: FitView[] }) {
     }),
     [resid, text, yUnit, fits],
   );
-  const ref = useChart(option, scheme);
+  const { ref } = useChart(option, { renderer: 'svg', dark: scheme === 'dark' });
   const names = [...new Set(fits.flatMap((f) => f.parameters?.map((p) => p.name) ?? []))];
   const aicBest = bestBy(fits, 'aic');
   const bicBest = bestBy(fits, 'bic');

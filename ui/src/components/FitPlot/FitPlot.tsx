@@ -1,9 +1,9 @@
 import { Group, Paper, SimpleGrid, Switch, Text, useComputedColorScheme } from '@mantine/core';
 import { useMemo, useState } from 'react';
+import { useChart } from '../../lib/chart/useChart.js';
 import { formatNumber, prettyUnit } from '../../lib/format.js';
 import type { FitPlotData } from '../FitResult/fit-types.js';
 import { fitPlotSeries, type Pair } from './plot-series.js';
-import { useChart } from './use-chart.js';
 
 const DATA = '#1f6f8b';
 const FIT = '#c0612b';
@@ -117,8 +117,8 @@ export function FitPlot({
     }),
     [s, text, unit, xUnit],
   );
-  const mainRef = useChart(main, scheme);
-  const residRef = useChart(resid, scheme);
+  const { ref: mainRef } = useChart(main, { renderer: 'svg', dark: scheme === 'dark' });
+  const { ref: residRef } = useChart(resid, { renderer: 'svg', dark: scheme === 'dark' });
   return (
     <div data-testid="fit-plot" data-kind={s.kind} data-points={s.observed.length}>
       <Group justify="space-between" mb={4}>

@@ -1,5 +1,6 @@
 import { Paper, SimpleGrid, Text, useComputedColorScheme } from '@mantine/core';
-import { useEffect, useRef } from 'react';
+import { useMemo } from 'react';
+import { useChart } from '../../lib/chart/useChart.js';
 import type { Profile } from '@driftgrid/domain';
 import { formatNumber, formatQuantity, prettyUnit } from '../../lib/format.js';
 
@@ -41,76 +42,62 @@ const COLORS = ['#1f6f8b', '#c0612b', '#5b7f2a'];
 const DASHES: ('solid' | 'dashed' | 'dotted')[] = ['solid', 'dashed', 'dotted'];
 
 function ProfileChart({ panel, profile, a_m }: { panel: Panel; profile: Profile; a_m: number }) {
-  const ref = useRef<HTMLDivElement>(null);
   const scheme = useComputedColorScheme('light');
-  useEffect(() => {
-    let disposed = false;
-    let chart: { dispose(): void; resize(): void; setOption(o: unknown): void } | null = null;
-    const onResize = () => chart?.resize();
-    // Lazy: echarts loads only when a profile is first drawn.
-    void import('./echarts.js').then(({ init }) => {
-      if (disposed || !ref.current) return;
-      chart = init(ref.current, scheme === 'dark' ? 'dark' : undefined, { renderer: 'svg' });
-      const r = profile.r_m ?? [];
-      const text = scheme === 'dark' ? '#d5dde3' : '#27323a';
-      chart.setOption({
-        backgroundColor: 'transparent',
-        animation: false,
-        textStyle: { fontFamily: 'Fira Sans, sans-serif', color: text },
-        grid: { left: 64, right: 16, top: 30, bottom: 40 },
-        legend: panel.series.length > 1 ? { top: 0, right: 8, textStyle: { color: text } } : undefined,
-        tooltip: {
-          trigger: 'axis',
-          valueFormatter: (v: number) => formatQuantity(v, panel.unit),
-          axisPointer: { type: 'line' },
-        },
-        toolbox: {
-          right: panel.series.length > 1 ? 160 : 8,
-          feature: { saveAsImage: { type: 'svg', title: 'SVG', name: panel.series[0]!.key } },
-        },
-        xAxis: {
-          type: 'value',
-          name: 'r (m)',
-          nameLocation: 'middle',
-          nameGap: 26,
-          min: 0,
-          max: r[r.length - 1],
-          axisLabel: { formatter: (v: number) => formatNumber(v, 3) },
-        },
-        yAxis: {
-          type: 'value',
-          name: prettyUnit(panel.unit),
-          scale: panel.series[0]!.key === 'B_T',
-          // B changes by parts in 10⁵ at low β: its ticks need more figures to differ.
-          axisLabel: { formatter: (v: number) => formatNumber(v, panel.series[0]!.key === 'B_T' ? 7 : 3) },
-        },
-        series: panel.series.map((s, i) => ({
-          type: 'line',
-          name: s.label,
-          showSymbol: false,
-          lineStyle: { width: 2, color: COLORS[i], type: DASHES[i] },
-          itemStyle: { color: COLORS[i] },
-          data: r.map((x, k) => [x, profile[s.key]?.[k] ?? null]),
-          markLine:
-            i === 0
-              ? {
-                  silent: true,
-                  symbol: 'none',
-                  lineStyle: { type: 'dashed', color: text, width: 1 },
-                  label: { formatter: `a = ${formatQuantity(a_m, 'm', 3)}`, color: text },
-                  data: [{ xAxis: a_m }],
-                }
-              : undefined,
-        })),
-      });
-      window.addEventListener('resize', onResize);
-    });
-    return () => {
-      disposed = true;
-      window.removeEventListener('resize', onResize);
-      chart?.dispose();
+  const option = useMemo(() => {
+    const r = profile.r_m ?? [];
+    const text = scheme === 'dark' ? '#d5dde3' : '#27323a';
+    return {
+      backgroundColor: 'transparent',
+      animation: false,
+      textStyle: { fontFamily: 'Fira Sans, sans-serif', color: text },
+      grid: { left: 64, right: 16, top: 30, bottom: 40 },
+      legend: panel.series.length > 1 ? { top: 0, right: 8, textStyle: { color: text } } : undefined,
+      tooltip: {
+        trigger: 'axis',
+        valueFormatter: (v: number) => formatQuantity(v, panel.unit),
+        axisPointer: { type: 'line' },
+      },
+      toolbox: {
+        right: panel.series.length > 1 ? 160 : 8,
+        feature: { saveAsImage: { type: 'svg', title: 'SVG', name: panel.series[0]!.key } },
+      },
+      xAxis: {
+        type: 'value',
+        name: 'r (m)',
+        nameLocation: 'middle',
+        nameGap: 26,
+        min: 0,
+        max: r[r.length - 1],
+        axisLabel: { formatter: (v: number) => formatNumber(v, 3) },
+      },
+      yAxis: {
+        type: 'value',
+        name: prettyUnit(panel.unit),
+        scale: panel.series[0]!.key === 'B_T',
+        // B changes by parts in 10⁵ at low β: its ticks need more figures to differ.
+        axisLabel: { formatter: (v: number) => formatNumber(v, panel.series[0]!.key === 'B_T' ? 7 : 3) },
+      },
+      series: panel.series.map((s, i) => ({
+        type: 'line',
+        name: s.label,
+        showSymbol: false,
+        lineStyle: { width: 2, color: COLORS[i], type: DASHES[i] },
+        itemStyle: { color: COLORS[i] },
+        data: r.map((x, k) => [x, profile[s.key]?.[k] ?? null]),
+        markLine:
+          i === 0
+            ? {
+                silent: true,
+                symbol: 'none',
+                lineStyle: { type: 'dashed', color: text, width: 1 },
+                label: { formatter: `a = ${formatQuantity(a_m, 'm', 3)}`, color: text },
+                data: [{ xAxis: a_m }],
+              }
+            : undefined,
+      })),
     };
   }, [panel, profile, a_m, scheme]);
+  const { ref } = useChart(option, { renderer: 'svg', dark: scheme === 'dark' });
   return (
     <Paper withBorder p="xs" radius="sm">
       <Text fz="sm" fw={500} mb={4}>

@@ -1,5 +1,5 @@
 import 'mantine-react-table/styles.css';
-import { Group, SegmentedControl, Text } from '@mantine/core';
+import { Chip, Group, SegmentedControl, Stack, Text } from '@mantine/core';
 import {
   MantineReactTable,
   useMantineReactTable,
@@ -8,16 +8,17 @@ import {
   type MRT_PaginationState,
   type MRT_SortingState,
 } from 'mantine-react-table';
+import { COLUMN_GROUP_LABELS, type ColumnGroup } from '@driftgrid/domain';
 import { useMemo, useState } from 'react';
-import { formatCount, prettyUnit } from '../../lib/format.js';
+import { formatCount, formatQuantity, prettyUnit } from '../../lib/format.js';
 import { Num } from '../Num/Num.js';
-import { useResults, type SweepColumnView } from '../../api/sweeps.js';
+import { loadVisibleGroups, saveVisibleGroups, tableLayout } from './tableLayout.js';
+import { useResults, type SweepColumnView, type SweepView } from '../../api/sweeps.js';
 
 type Row = Record<string, number | boolean | null>;
 
 export interface ResultsTableProps {
-  sweepId: number;
-  columns: SweepColumnView[];
+  sweep: Pick<SweepView, 'id' | 'model' | 'definition' | 'columns'>;
   /** Flag codes by bit, to name the raised flags of a row in words. */
   flagNames?: { bit: number; code: string }[];
 }
@@ -43,8 +44,43 @@ function header(c: SweepColumnView): string {
   return u ? `${c.name} (${u})` : c.name;
 }
 
-/** A sweep's result rows: server-side paging, sorting and range filters; units in the headers. */
-export function ResultsTable({ sweepId, columns, flagNames = [] }: ResultsTableProps) {
+/** Compact header: the physics symbol over its unit (the column name and meaning are in the title). */
+function HeaderCell({ symbol, unit }: { symbol: string; unit: string }) {
+  return (
+    <span style={{ display: 'inline-block', lineHeight: 1.2, whiteSpace: 'nowrap' }}>
+      {symbol}
+      <br />
+      <span style={{ fontWeight: 400, opacity: 0.7, fontSize: 11 }}>{unit || '\u00a0'}</span>
+    </span>
+  );
+}
+
+/** Width that fits the header (symbol or unit, whichever is longer) and the sort icon, no more. */
+function widthFor(symbol: string, unit: string, kind: SweepColumnView['kind']): number {
+  if (kind === 'flags') return 130;
+  return Math.max(66, Math.min(140, Math.max(symbol.length, unit.length) * 7.5 + 38));
+}
+
+/**
+ * A sweep's result rows, physics first: swept inputs, then outputs by group, then derived columns and flags;
+ * inputs held fixed are listed once above the table. Column groups are shown or hidden together (remembered
+ * per model). Server-side paging, sorting and range filters; units in the headers; compact rows.
+ */
+export function ResultsTable({ sweep, flagNames = [] }: ResultsTableProps) {
+  const sweepId = sweep.id;
+  const layout = useMemo(() => tableLayout(sweep), [sweep]);
+  const columns = useMemo(() => layout.columns.map((c) => c.column), [layout]);
+  const symbols = layout.symbols;
+  const [visible, setVisible] = useState<ColumnGroup[]>(() => loadVisibleGroups(sweep.model));
+  const chooseGroups = (groups: string[]) => {
+    const next = layout.groups.filter((g) => groups.includes(g));
+    setVisible(next);
+    saveVisibleGroups(sweep.model, next);
+  };
+  const columnVisibility = useMemo(
+    () => Object.fromEntries(layout.columns.map((c) => [c.column.name, visible.includes(c.group)])),
+    [layout, visible],
+  );
   const [pagination, setPagination] = useState<MRT_PaginationState>({ pageIndex: 0, pageSize: 50 });
   const [sorting, setSorting] = useState<MRT_SortingState>([]);
   const [filters, setFilters] = useState<MRT_ColumnFiltersState>([]);
@@ -63,11 +99,16 @@ export function ResultsTable({ sweepId, columns, flagNames = [] }: ResultsTableP
   const defs = useMemo<MRT_ColumnDef<Row>[]>(
     () =>
       columns.map((c): MRT_ColumnDef<Row> => {
+        const symbol = symbols[c.name] ?? c.name;
+        const unit = prettyUnit(c.unit);
         const base = {
           id: c.name,
           accessorFn: (r: Row) => r[c.name],
           header: header(c),
-          mantineTableHeadCellProps: { title: c.meaning },
+          Header: () => <HeaderCell symbol={symbol} unit={unit} />,
+          size: widthFor(symbol, unit, c.kind),
+          minSize: 60,
+          mantineTableHeadCellProps: { title: `${header(c)}: ${c.meaning}` },
         };
         if (c.type === 'boolean') {
           return {
@@ -95,7 +136,7 @@ export function ResultsTable({ sweepId, columns, flagNames = [] }: ResultsTableP
           Cell: ({ cell }) => <Num value={cell.getValue() as number | null} align="right" />,
         };
       }),
-    [columns, flagNames],
+    [columns, flagNames, symbols],
   );
 
   const table = useMantineReactTable({
@@ -121,8 +162,18 @@ export function ResultsTable({ sweepId, columns, flagNames = [] }: ResultsTableP
       setFilters(up);
       setPagination((p) => ({ ...p, pageIndex: 0 }));
     },
-    state: { pagination, sorting, columnFilters: filters, isLoading, showProgressBars: isFetching },
+    state: { pagination, sorting, columnFilters: filters, isLoading, showProgressBars: isFetching, columnVisibility },
     initialState: { density: 'xs', showColumnFilters: false },
+    enableHiding: false,
+    // Sorting by a header click and filters from the toolbar: no per-column menu taking header width.
+    enableColumnActions: false,
+    enableDensityToggle: true,
+    layoutMode: 'grid',
+    // Compact: headers wrap instead of widening the column; cells keep to one line.
+    mantineTableHeadCellProps: {
+      style: { whiteSpace: 'normal', verticalAlign: 'bottom', fontSize: 12, lineHeight: 1.25 },
+    },
+    mantineTableBodyCellProps: { style: { fontSize: 13, paddingTop: 2, paddingBottom: 2 } },
     mantinePaginationProps: { rowsPerPageOptions: ['25', '50', '100', '500', '1000'] },
     mantineTableProps: { striped: true, highlightOnHover: true, 'aria-label': 'Result rows' } as object,
     mantineToolbarAlertBannerProps: error ? { color: 'red', children: (error as Error).message } : undefined,
@@ -156,5 +207,36 @@ export function ResultsTable({ sweepId, columns, flagNames = [] }: ResultsTableP
     ),
   });
 
-  return <MantineReactTable table={table} />;
+  return (
+    <Stack gap="xs">
+      {layout.held.length ? (
+        <Text fz="sm" data-testid="held-fixed">
+          <Text span c="dimmed" fz="sm">
+            Held fixed over the whole sweep:{' '}
+          </Text>
+          {layout.held.map((h, i) => (
+            <span key={h.name} title={h.name}>
+              {i ? ', ' : ''}
+              {h.symbol} = <span className="dg-num">{formatQuantity(h.value, h.unit)}</span>
+            </span>
+          ))}
+        </Text>
+      ) : null}
+      <Group gap="xs" align="center">
+        <Text fz="sm" c="dimmed">
+          Columns:
+        </Text>
+        <Chip.Group multiple value={visible} onChange={chooseGroups}>
+          <Group gap={6} data-testid="column-groups">
+            {layout.groups.map((g) => (
+              <Chip key={g} value={g} size="xs" variant="outline">
+                {COLUMN_GROUP_LABELS[g]}
+              </Chip>
+            ))}
+          </Group>
+        </Chip.Group>
+      </Group>
+      <MantineReactTable table={table} />
+    </Stack>
+  );
 }

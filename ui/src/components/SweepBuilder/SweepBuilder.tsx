@@ -28,6 +28,7 @@ import {
   IconTemplate,
   IconTrash,
 } from '@tabler/icons-react';
+import { saveText } from '../../lib/download.js';
 import { useMemo, useState, type KeyboardEvent } from 'react';
 import { useNavigate } from 'react-router-dom';
 import { checkSweep, models, type PointEvaluation } from '@driftgrid/domain';
@@ -64,15 +65,6 @@ function slug(name: string): string {
       .replace(/[^a-z0-9]+/g, '-')
       .replace(/^-|-$/g, '') || 'sweep'
   );
-}
-
-function download(filename: string, text: string) {
-  const url = URL.createObjectURL(new Blob([text], { type: 'application/json' }));
-  const a = document.createElement('a');
-  a.href = url;
-  a.download = filename;
-  a.click();
-  setTimeout(() => URL.revokeObjectURL(url), 1000);
 }
 
 /**
@@ -258,7 +250,9 @@ export function SweepBuilder() {
             size="xs"
             leftSection={<IconDownload size={16} />}
             data-testid="export-json"
-            onClick={() => download(`${slug(state.name)}.json`, JSON.stringify(definition, null, 2) + '\n')}
+            onClick={() =>
+              saveText(JSON.stringify(definition, null, 2) + '\n', `${slug(state.name)}.json`, 'application/json')
+            }
           >
             Export JSON
           </Button>

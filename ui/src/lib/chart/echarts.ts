@@ -1,10 +1,13 @@
-// Only the echarts parts the sweep plots use; loaded lazily with the Plots tab.
+// The echarts parts every chart of the ui uses, in one lazily loaded chunk (loaded with the first chart).
 import { init, use, type EChartsType } from 'echarts/core';
 import { CustomChart, LineChart, ScatterChart } from 'echarts/charts';
 import {
   GridComponent,
   LegendComponent,
   MarkAreaComponent,
+  MarkLineComponent,
+  TitleComponent,
+  ToolboxComponent,
   TooltipComponent,
   VisualMapComponent,
 } from 'echarts/components';
@@ -17,6 +20,9 @@ use([
   GridComponent,
   LegendComponent,
   MarkAreaComponent,
+  MarkLineComponent,
+  TitleComponent,
+  ToolboxComponent,
   TooltipComponent,
   VisualMapComponent,
   CanvasRenderer,

@@ -1,0 +1,54 @@
+import { describe, expect, it } from 'vitest';
+import { compileSweep } from '@driftgrid/domain';
+import { DEFAULT_VISIBLE, loadVisibleGroups, saveVisibleGroups, tableLayout } from './tableLayout.js';
+
+const definition = {
+  fixed: { n_m3: 1e19, mu: 40, Z: 1, Er_Vm: 0, gamma_i: 1, gamma_e: 1, Ti_eV: 'Te_eV' },
+  axes: [
+    { param: 'B_T', kind: 'linear', min: 0.05, max: 0.5, count: 5 },
+    { param: 'Te_eV', kind: 'log', min: 1, max: 100, count: 7 },
+    { param: 'Ln_m', kind: 'list', values: [0.01, 0.02] },
+  ],
+  sampling: { kind: 'grid' },
+  derived: [{ name: 'drift_ratio', expr: 'vE_ms / vDe_ms' }],
+};
+const compiled = compileSweep({ model: 'cross-field', name: 'Argon table layout', ...definition });
+const columns = compiled.columns.map((c) => ({ ...c, meaning: '', type: 'float' as const })) as never;
+
+describe('results table layout', () => {
+  const layout = tableLayout({ model: 'cross-field', definition, columns });
+  const names = layout.columns.map((c) => c.column.name);
+
+  it('leads with the swept inputs in axis order, then outputs, derived, flags', () => {
+    expect(names.slice(0, 4)).toEqual(['B_T', 'Te_eV', 'Ln_m', 'Ti_eV']);
+    const order = layout.columns.map((c) => c.group);
+    expect(order.indexOf('drifts')).toBeGreaterThan(order.lastIndexOf('swept'));
+    expect(order.indexOf('derived')).toBeGreaterThan(order.lastIndexOf('orderings'));
+    expect(order.at(-1)).toBe('flags');
+    expect(names).toContain('drift_ratio');
+    expect(names).not.toContain('idx');
+  });
+
+  it('lists inputs held fixed over the whole sweep once, with their values, and drops them from the table', () => {
+    const held = Object.fromEntries(layout.held.map((h) => [h.name, h.value]));
+    expect(held).toEqual({ n_m3: 1e19, mu: 40, Z: 1, Er_Vm: 0, gamma_i: 1, gamma_e: 1 });
+    for (const h of layout.held) expect(names).not.toContain(h.name);
+    // Ti_eV follows Te_eV: it varies, so it stays.
+    expect(names).toContain('Ti_eV');
+    expect(layout.held.find((h) => h.name === 'n_m3')?.symbol).toBe('n_e');
+  });
+
+  it('remembers the chosen groups per model', () => {
+    const store = new Map<string, string>();
+    const storage = {
+      getItem: (k: string) => store.get(k) ?? null,
+      setItem: (k: string, v: string) => void store.set(k, v),
+    };
+    expect(loadVisibleGroups('cross-field', storage)).toEqual(DEFAULT_VISIBLE);
+    saveVisibleGroups('cross-field', ['swept', 'scales'], storage);
+    expect(loadVisibleGroups('cross-field', storage)).toEqual(['swept', 'scales']);
+    expect(loadVisibleGroups('parallel-balance', storage)).toEqual(DEFAULT_VISIBLE);
+    store.set('driftgrid.results.groups.cross-field', '{broken');
+    expect(loadVisibleGroups('cross-field', storage)).toEqual(DEFAULT_VISIBLE);
+  });
+});
