@@ -80,8 +80,9 @@ describe.runIf(run)('catalogue, sweep page and plots', () => {
         r.url().includes(`/api/sweeps/${argonId}/results`) && r.url().includes('sort=vDi_ms') && r.status() === 200,
     );
     await page
-      .getByRole('columnheader', { name: /^vDi_ms/ })
-      .getByText(/^vDi_ms/)
+      // Headers show the symbol over its unit (v_Di, m/s); the column name is in the title.
+      .getByRole('columnheader', { name: /^v_Di/ })
+      .getByText(/^v_Di$/)
       .first()
       .click();
     const body = (await (await sorted).json()) as { rows: { vDi_ms: number }[] };

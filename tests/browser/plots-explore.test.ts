@@ -104,14 +104,14 @@ describe.runIf(run)('plots of a three-axis sweep', () => {
     // Hover: every input and output of the point under the cursor.
     const box = (await page.getByTestId('sweep-plot').boundingBox())!;
     await page.mouse.move(box.x + box.width * 0.4, box.y + box.height * 0.5);
-    const tip = page
-      .locator('div')
-      .filter({ hasText: /^.*Stored point \d+/ })
-      .last();
-    await tip.waitFor({ timeout: 10000 });
-    const tipText = (await tip.textContent()) ?? '';
-    for (const name of ['Te_eV', 'B_T', 'Ln_m', 'n_m3', 'vDi_ms', 'rho_i_over_Ln', 'beta'])
+    // The tooltip is drawn inside the chart's element; it fills in once the point's row has been read.
+    const plot = page.getByTestId('sweep-plot');
+    await expect.poll(async () => (await plot.textContent()) ?? '', { timeout: 10000 }).toMatch(/Stored point \d+/);
+    const tipText = (await plot.textContent()) ?? '';
+    for (const name of ['Te_eV', 'B_T', 'Ln_m', 'n_m3', 'vDi_ms', 'rho_i_over_Ln', 'beta', 'valid'])
       expect(tipText).toContain(name);
+    expect(tipText).toMatch(/\d eV/);
+    expect(tipText).toMatch(/ m\/s/);
     await shot(page, 'heatmap-1440');
 
     // The boundary is drawn on a heatmap of another output too (its ordering parameter read on the same grid).

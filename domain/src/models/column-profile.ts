@@ -295,6 +295,7 @@ const flags: FlagSpec[] = [
   },
   {
     code: 'rho_s_over_Ln',
+    ordering: { output: 'max_rho_s_over_Ln', threshold: 'rho_s_over_Ln_max' },
     bit: 3,
     invalidates: true,
     meaning:

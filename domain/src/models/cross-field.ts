@@ -424,6 +424,7 @@ const flags: FlagSpec[] = [
   },
   {
     code: 'unmagnetised_ions',
+    ordering: { output: 'nu_over_omega_i', threshold: 'nu_over_omega_i_max' },
     bit: 3,
     invalidates: true,
     meaning:
@@ -431,6 +432,7 @@ const flags: FlagSpec[] = [
   },
   {
     code: 'unmagnetised_electrons',
+    ordering: { output: 'nu_over_omega_e', threshold: 'nu_over_omega_e_max' },
     bit: 4,
     invalidates: true,
     meaning:
@@ -438,6 +440,7 @@ const flags: FlagSpec[] = [
   },
   {
     code: 'relativistic',
+    ordering: { output: 'v_over_c', threshold: 'v_over_c_max' },
     bit: 5,
     invalidates: true,
     meaning: 'The E×B drift or the electron thermal speed is not small against c (v/c ≥ threshold).',

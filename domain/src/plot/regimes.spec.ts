@@ -20,6 +20,22 @@ describe('regimeBoundaries', () => {
         expect(byFlag[f.code]).toBeDefined();
   });
 
+  it('draws the magnetisation and relativistic boundaries through their ordering parameters', () => {
+    const b = regimeBoundaries(getModel('cross-field'));
+    const byFlag = Object.fromEntries(b.map((x) => [x.flag, x]));
+    // Unmagnetised when ν/ω_c ≥ 1 (collision and gyration rates equal), relativistic when v/c ≥ 0.1.
+    expect(byFlag.unmagnetised_ions).toMatchObject({ output: 'nu_over_omega_i', threshold: 'nu_over_omega_i_max' });
+    expect(byFlag.unmagnetised_electrons).toMatchObject({ output: 'nu_over_omega_e' });
+    expect(byFlag.relativistic).toMatchObject({ output: 'v_over_c', level: 0.1 });
+    expect(byFlag.rho_s_over_Ln).toMatchObject({ output: 'rho_s_over_Ln' });
+    // Every flag of cross-field has an ordering parameter and a threshold.
+    expect(b.map((x) => x.flag).sort()).toEqual(
+      getModel('cross-field')
+        .flags.map((f) => f.code)
+        .sort(),
+    );
+  });
+
   it("uses the sweep's threshold override", () => {
     const b = regimeBoundaries(getModel('cross-field'), { rho_i_over_Ln_max: 0.3 });
     expect(b.find((x) => x.flag === 'rho_i_over_Ln')?.level).toBe(0.3);

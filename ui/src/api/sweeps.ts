@@ -12,9 +12,11 @@ import {
   useQueryClient,
   type QueryClient,
 } from '@tanstack/react-query';
+import { useCallback } from 'react';
 import type { ErrorDetail, HeatmapSeries, LineSeries, QuotaVerdict, SweepSummary } from '@driftgrid/domain';
 import { api, ApiError, type Page, type Query } from './client.js';
 import { afterSuccess, type MutationHandlers } from './mutations.js';
+import { shouldRetry } from './queryClient.js';
 import { queryKeys } from './queryKeys.js';
 
 export type { HeatmapSeries, LineSeries, SweepSummary };
@@ -241,7 +243,15 @@ export function useArchiveSweep(id: number, handlers?: MutationHandlers<SweepVie
 /** Several plot series of one sweep at once (a heatmap and the ordering parameters its contours need). */
 export function useSeriesList(id: string | number, queries: Query[], enabled = true) {
   return useQueries({
-    queries: queries.map((q) => ({ ...sweepQueries.series(id, q), placeholderData: keepPreviousData, enabled })),
+    queries: queries.map((q) => ({
+      ...sweepQueries.series(id, q),
+      placeholderData: keepPreviousData,
+      enabled,
+      // Several reads at once may meet the per-user read limit (429) or a busy pool (503): wait and retry.
+      retry: (n: number, e: unknown) =>
+        e instanceof ApiError && (e.status === 429 || e.status === 503) ? n < 4 : shouldRetry(n, e),
+      retryDelay: (n: number) => 250 * 2 ** n,
+    })),
     combine: seriesData,
   });
 }
@@ -251,17 +261,14 @@ const seriesData = (results: { data?: LineSeries | HeatmapSeries }[]) => results
 
 type Row = ResultsPage['rows'][number];
 
-/** One stored point (every input, output, derived column and the flag mask) by its index. */
-export function resultRowQuery(id: string | number, idx: number) {
-  return queryOptions({
-    ...sweepQueries.results(id, { filter: JSON.stringify({ idx: { eq: idx } }), pageSize: 1 }),
-    select: (p: ResultsPage): Row | null => p.rows[0] ?? null,
-    staleTime: Infinity,
-  });
+/** A function reading one stored point by index through the query cache (hover read-outs drawn by the chart). */
+export function useResultRowReader(id: string | number): (idx: number) => Promise<Row | null> {
+  const qc = useQueryClient();
+  return useCallback((idx: number) => fetchResultRow(qc, id, idx), [qc, id]);
 }
 
-/** Fetches (or reads from the cache) one stored point, for hover read-outs drawn outside React. */
-export async function fetchResultRow(qc: QueryClient, id: string | number, idx: number): Promise<Row | null> {
+/** One stored point (every input, output, derived column and the flag mask) by its index, cached for good. */
+async function fetchResultRow(qc: QueryClient, id: string | number, idx: number): Promise<Row | null> {
   const page = await qc.fetchQuery({
     ...sweepQueries.results(id, { filter: JSON.stringify({ idx: { eq: idx } }), pageSize: 1 }),
     staleTime: Infinity,

@@ -100,6 +100,8 @@ export default function CataloguePage() {
         accessorKey: 'name',
         header: 'Name',
         size: 240,
+        // Long names wrap rather than being cut off.
+        mantineTableBodyCellProps: { style: { whiteSpace: 'normal', overflowWrap: 'anywhere' } },
         Cell: ({ row }) => (
           <Anchor component={Link} to={`/sweeps/${row.original.id}`} fz="sm" data-testid="catalogue-row-link">
             {row.original.name}
@@ -125,7 +127,7 @@ export default function CataloguePage() {
       {
         id: 'tags',
         header: 'Tags',
-        size: 170,
+        size: 160,
         enableSorting: false,
         Cell: ({ row }) => (
           <Group gap={4}>
@@ -150,7 +152,7 @@ export default function CataloguePage() {
       {
         accessorKey: 'points',
         header: 'Points',
-        size: 90,
+        size: 100,
         mantineTableBodyCellProps: { align: 'right' },
         Cell: ({ row }) => (
           <span
@@ -198,6 +200,8 @@ export default function CataloguePage() {
     // Fixed widths that add up to less than the content area at 1440 px, so no column is cut off there.
     layoutMode: 'grid',
     defaultColumn: { minSize: 70 },
+    // Sorting by a header click; no per-column menu taking header width.
+    enableColumnActions: false,
     onPaginationChange: (up) => {
       const next = typeof up === 'function' ? up(pagination) : up;
       set({ page: String(next.pageIndex + 1), pageSize: String(next.pageSize) }, true);

@@ -48,7 +48,7 @@ function header(c: SweepColumnView): string {
 function HeaderCell({ symbol, unit }: { symbol: string; unit: string }) {
   return (
     <span style={{ display: 'inline-block', lineHeight: 1.2, whiteSpace: 'nowrap' }}>
-      {symbol}
+      <span>{symbol}</span>
       <br />
       <span style={{ fontWeight: 400, opacity: 0.7, fontSize: 11 }}>{unit || '\u00a0'}</span>
     </span>
@@ -56,9 +56,11 @@ function HeaderCell({ symbol, unit }: { symbol: string; unit: string }) {
 }
 
 /** Width that fits the header (symbol or unit, whichever is longer) and the sort icon, no more. */
-function widthFor(symbol: string, unit: string, kind: SweepColumnView['kind']): number {
-  if (kind === 'flags') return 130;
-  return Math.max(66, Math.min(140, Math.max(symbol.length, unit.length) * 7.5 + 38));
+function widthFor(symbol: string, unit: string, c: SweepColumnView): number {
+  if (c.kind === 'flags') return 130;
+  if (c.type === 'boolean') return 64;
+  // A value such as "−1.959 × 10⁻⁵" at the compact size needs about 86 px.
+  return Math.max(86, Math.min(140, Math.max(symbol.length, unit.length) * 7 + 38));
 }
 
 /**
@@ -106,7 +108,7 @@ export function ResultsTable({ sweep, flagNames = [] }: ResultsTableProps) {
           accessorFn: (r: Row) => r[c.name],
           header: header(c),
           Header: () => <HeaderCell symbol={symbol} unit={unit} />,
-          size: widthFor(symbol, unit, c.kind),
+          size: widthFor(symbol, unit, c),
           minSize: 60,
           mantineTableHeadCellProps: { title: `${header(c)}: ${c.meaning}` },
         };
@@ -173,7 +175,21 @@ export function ResultsTable({ sweep, flagNames = [] }: ResultsTableProps) {
     mantineTableHeadCellProps: {
       style: { whiteSpace: 'normal', verticalAlign: 'bottom', fontSize: 12, lineHeight: 1.25 },
     },
-    mantineTableBodyCellProps: { style: { fontSize: 13, paddingTop: 2, paddingBottom: 2 } },
+    mantineTableBodyCellProps: {
+      style: { fontSize: 12, paddingTop: 2, paddingBottom: 2, paddingLeft: 6, paddingRight: 6 },
+    },
+    // Flagged rows carry a coloured edge and name their flags, so validity shows even with its columns hidden.
+    mantineTableBodyRowProps: ({ row }) => {
+      const mask = Number(row.original.flags ?? 0);
+      const raised = flagNames.filter((f) => mask & (1 << f.bit)).map((f) => f.code);
+      return raised.length
+        ? {
+            title: `Flagged: ${raised.join(', ')}`,
+            style: { boxShadow: 'inset 3px 0 0 var(--mantine-color-orange-6)' },
+            'data-flagged': 'true',
+          }
+        : {};
+    },
     mantinePaginationProps: { rowsPerPageOptions: ['25', '50', '100', '500', '1000'] },
     mantineTableProps: { striped: true, highlightOnHover: true, 'aria-label': 'Result rows' } as object,
     mantineToolbarAlertBannerProps: error ? { color: 'red', children: (error as Error).message } : undefined,

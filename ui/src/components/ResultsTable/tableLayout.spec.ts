@@ -31,7 +31,12 @@ describe('results table layout', () => {
 
   it('lists inputs held fixed over the whole sweep once, with their values, and drops them from the table', () => {
     const held = Object.fromEntries(layout.held.map((h) => [h.name, h.value]));
-    expect(held).toEqual({ n_m3: 1e19, mu: 40, Z: 1, Er_Vm: 0, gamma_i: 1, gamma_e: 1 });
+    expect(held).toMatchObject({ n_m3: 1e19, mu: 40, Z: 1, Er_Vm: 0, gamma_i: 1, gamma_e: 1 });
+    // Inputs left at their defaults are held fixed too: every input that is neither swept nor tied.
+    const others = compiled.model.inputs
+      .map((i) => i.name)
+      .filter((n) => !['B_T', 'Te_eV', 'Ln_m', 'Ti_eV'].includes(n));
+    expect(Object.keys(held).sort()).toEqual(others.sort());
     for (const h of layout.held) expect(names).not.toContain(h.name);
     // Ti_eV follows Te_eV: it varies, so it stays.
     expect(names).toContain('Ti_eV');

@@ -30,8 +30,11 @@ export interface TableLayout {
   symbols: Record<string, string>;
 }
 
-/** Groups shown until the user picks: the swept inputs with drifts, orderings and validity. */
-export const DEFAULT_VISIBLE: ColumnGroup[] = ['swept', 'drifts', 'orderings', 'derived', 'flags'];
+/**
+ * Groups shown until the user picks: the swept inputs with the drifts, orderings and derived columns (they
+ * fit 1440 px without cutting a column off). Flagged rows are marked on their edge either way.
+ */
+export const DEFAULT_VISIBLE: ColumnGroup[] = ['swept', 'drifts', 'orderings', 'derived'];
 
 export function tableLayout(sweep: Pick<SweepView, 'model' | 'definition' | 'columns'>): TableLayout {
   let model: ModelDefinition | null = null;

@@ -13,7 +13,6 @@ import {
   useComputedColorScheme,
 } from '@mantine/core';
 import { IconDownload } from '@tabler/icons-react';
-import { useQueryClient } from '@tanstack/react-query';
 import { useCallback, useMemo, useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import {
@@ -25,7 +24,7 @@ import {
   type LineSeries,
   type RegimeBoundary,
 } from '@driftgrid/domain';
-import { fetchResultRow, useLeadingRows, useSeries, useSeriesList, type SweepView } from '../../api/sweeps.js';
+import { useLeadingRows, useResultRowReader, useSeries, useSeriesList, type SweepView } from '../../api/sweeps.js';
 import { useChart } from '../../lib/chart/useChart.js';
 import { formatCount, formatQuantity, prettyUnit } from '../../lib/format.js';
 import {
@@ -180,7 +179,16 @@ function SlicePicker({
  * input and output of it.
  */
 export function SweepPlot({ sweep }: { sweep: SweepView }) {
-  const { ctx, regimes, flagNames, symbols } = useMemo(() => plotContext(sweep), [sweep]);
+  const { ctx, regimes: allRegimes, flagNames, symbols } = useMemo(() => plotContext(sweep), [sweep]);
+  // A boundary can only cross the plot when its flag is raised at some points of the sweep but not all.
+  const regimes = useMemo(
+    () =>
+      allRegimes.filter((r) => {
+        const n = sweep.flagsSummary.byFlag[r.flag] ?? 0;
+        return n > 0 && n < sweep.progress.done;
+      }),
+    [allRegimes, sweep.flagsSummary.byFlag, sweep.progress.done],
+  );
   const [params, setParams] = useSearchParams();
   const state = useMemo(() => readPlotState(params, ctx), [params, ctx]);
   const update = useCallback(
@@ -189,7 +197,7 @@ export function SweepPlot({ sweep }: { sweep: SweepView }) {
   );
   const scheme = useComputedColorScheme('light');
   const text = scheme === 'dark' ? '#d5dde3' : '#27323a';
-  const qc = useQueryClient();
+  const readRow = useResultRowReader(sweep.id);
   const [overlay, setOverlay] = useState<OverlaySeries | null>(null);
 
   const columns = useMemo(() => new Map(sweep.columns.map((c) => [c.name, c])), [sweep.columns]);
@@ -254,12 +262,12 @@ export function SweepPlot({ sweep }: { sweep: SweepView }) {
   const detail = useCallback(
     (idx: number | null, quick: string, ticket: string, done: (t: string, html: string) => void) => {
       if (idx === null) return quick;
-      void fetchResultRow(qc, sweep.id, idx).then((row) => {
+      void readRow(idx).then((row) => {
         if (row) done(ticket, pointDetailHtml(row, sweep.columns, flagNames, quick));
       });
       return `${quick}<br/><span style="opacity:.7">Reading every value of this point…</span>`;
     },
-    [qc, sweep.id, sweep.columns, flagNames],
+    [readRow, sweep.columns, flagNames],
   );
 
   const scatterPoints = useMemo<ScatterPoint[]>(() => {
