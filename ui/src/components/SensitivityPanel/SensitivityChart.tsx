@@ -1,9 +1,8 @@
 import { useComputedColorScheme } from '@mantine/core';
 import type { SensitivityReport } from '@driftgrid/domain';
-import { useEffect, useMemo, useRef } from 'react';
+import { useMemo } from 'react';
+import { useChart } from '../../lib/chart/useChart.js';
 import { sensitivityChartOption, type ChartColours } from './chart-option.js';
-
-type Chart = { dispose(): void; resize(): void; setOption(o: unknown): void };
 
 // Our own pair, told apart by lightness as well as hue; the dark-scheme shades keep ≥ 3:1 on the background.
 const LIGHT: ChartColours = {
@@ -22,23 +21,7 @@ export function SensitivityChart({ report, labels }: { report: SensitivityReport
     () => sensitivityChartOption(report, labels, scheme === 'dark' ? DARK : LIGHT),
     [report, labels, scheme],
   );
-  const ref = useRef<HTMLDivElement>(null);
-  useEffect(() => {
-    let disposed = false;
-    let chart: Chart | null = null;
-    const onResize = () => chart?.resize();
-    void import('./echarts.js').then(({ init }) => {
-      if (disposed || !ref.current) return;
-      chart = init(ref.current, scheme === 'dark' ? 'dark' : undefined, { renderer: 'svg' });
-      chart.setOption(option);
-      window.addEventListener('resize', onResize);
-    });
-    return () => {
-      disposed = true;
-      window.removeEventListener('resize', onResize);
-      chart?.dispose();
-    };
-  }, [option, scheme]);
+  const { ref } = useChart(option, { renderer: 'svg', dark: scheme === 'dark' });
   return (
     <div
       ref={ref}

@@ -1,6 +1,6 @@
 // The echarts parts every chart of the ui uses, in one lazily loaded chunk (loaded with the first chart).
 import { init, use, type EChartsType } from 'echarts/core';
-import { CustomChart, LineChart, ScatterChart } from 'echarts/charts';
+import { BarChart, CustomChart, LineChart, ScatterChart } from 'echarts/charts';
 import {
   GridComponent,
   LegendComponent,
@@ -14,6 +14,7 @@ import {
 import { CanvasRenderer, SVGRenderer } from 'echarts/renderers';
 
 use([
+  BarChart,
   CustomChart,
   LineChart,
   ScatterChart,
