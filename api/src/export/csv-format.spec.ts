@@ -46,16 +46,17 @@ describe('formatBatch', () => {
     expect(text.trim().split(',').map(Number)).toEqual(values);
   });
 
-  it('writes NULL as an empty cell and booleans as words', () => {
+  it('writes NULL (stored NaN) as NaN, ±Infinity as words and booleans as words', () => {
     expect(
       formatBatch(
         [
           [1, null, 1],
           [2, 3, 0],
+          [Infinity, -Infinity, 1],
         ],
         [2],
       ),
-    ).toBe('1,,true\n2,3,false\n');
+    ).toBe('1,NaN,true\n2,3,false\nInfinity,-Infinity,true\n');
     expect(formatBatch([], [])).toBe('');
   });
 });

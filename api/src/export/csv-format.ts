@@ -29,7 +29,7 @@ export function textLine(fields: readonly string[]): string {
   return fields.map(textCell).join(',') + '\n';
 }
 
-/** How a stored value is written: numbers at full precision, booleans as words, NULL as empty. */
+/** How a stored value is written: numbers at full precision (±Infinity as words), booleans as words, NULL as NaN. */
 export type CellFormat = 'number' | 'boolean';
 
 /**
@@ -42,7 +42,10 @@ export function formatRow(row: readonly (number | null)[], formats: readonly Cel
   for (let j = 0; j < n; j++) {
     const v = row[j];
     if (j > 0) s += ',';
-    if (v === null) continue;
+    if (v === null) {
+      if (formats[j] !== 'boolean') s += 'NaN';
+      continue;
+    }
     s += formats[j] === 'boolean' ? (v === 0 ? 'false' : 'true') : String(v);
   }
   return s + '\n';
@@ -59,9 +62,21 @@ export function formatBatch(rows: (number | boolean | null)[][], booleanColumns:
   if (booleanColumns.length) {
     for (const r of rows) for (const j of booleanColumns) if (r[j] !== null) r[j] = r[j] !== 0;
   }
+  // JSON writes ±Infinity as null: mark them first (a string, so quoted) and unquote after.
+  let marked = false;
+  for (const r of rows)
+    for (let j = 0; j < r.length; j++) {
+      const v = r[j];
+      if (v === Infinity || v === -Infinity) {
+        (r as unknown[])[j] = v > 0 ? 'Infinity' : '-Infinity';
+        marked = true;
+      }
+    }
   const json = JSON.stringify(rows);
-  // "[[a,b],[c,null]]" → "a,b\nc,\n": no number's text contains "null", "[" or "]".
-  return json.slice(2, -2).replaceAll('],[', '\n').replaceAll('null', '') + '\n';
+  // "[[a,b],[c,null]]" → "a,b\nc,NaN\n": NULL is how SQLite keeps NaN; no number's text contains
+  // "null", "[" or "]". Boolean columns hold no NULL.
+  const text = json.slice(2, -2).replaceAll('],[', '\n').replaceAll('null', 'NaN') + '\n';
+  return marked ? text.replaceAll('"', '') : text;
 }
 
 /** A slug for file names: lowercase ASCII letters, digits and dashes only, never empty. */

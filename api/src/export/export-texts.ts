@@ -70,7 +70,7 @@ export function sweepReadme(p: {
     '',
     'Numbers',
     '  Values are written at full precision (the shortest decimal that reads back to the same',
-    '  double). An empty cell is a value the model could not give as a finite number (NaN or infinite).',
+    '  double). Values that are not finite numbers are written Infinity, -Infinity or NaN.',
     '  Boolean columns hold true or false.',
     '',
     'Columns',

@@ -181,11 +181,24 @@ export class ReadTaskRunner {
   }
 }
 
-/** Boolean columns are stored as 0/1 and answered as true/false. */
+/**
+ * Boolean columns are stored as 0/1 and answered as true/false. JSON has no ±Infinity or NaN, so
+ * numeric values that are not finite are answered as the strings "Infinity" and "-Infinity", and
+ * NULL (how SQLite keeps NaN) as "NaN": the three stay distinguishable (README: results and exports).
+ */
 export function shapeRows(rows: ResultRow[], layout: readonly StoredColumn[]): ResultRow[] {
   const bools = layout.filter((c) => c.type === 'boolean');
-  if (bools.length)
-    for (const r of rows)
-      for (const c of bools) if (r[c.name] !== null) (r as Record<string, unknown>)[c.name] = r[c.name] === 1;
+  const numbers = layout.filter((c) => c.type !== 'boolean');
+  for (const r of rows) {
+    const out = r as Record<string, unknown>;
+    for (const c of bools) if (r[c.name] !== null) out[c.name] = r[c.name] === 1;
+    for (const c of numbers) {
+      if (!(c.name in r)) continue;
+      const v = r[c.name];
+      if (v === null) out[c.name] = 'NaN';
+      else if (v === Infinity) out[c.name] = 'Infinity';
+      else if (v === -Infinity) out[c.name] = '-Infinity';
+    }
+  }
   return rows;
 }

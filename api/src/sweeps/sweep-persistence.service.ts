@@ -164,7 +164,7 @@ function fillRow(
   params[at + 1] = flags[i];
   for (let c = 0; c < arrays.length; c++) {
     const v = arrays[c][i];
-    // SQLite has no NaN; NaN and ±Infinity are stored as NULL (reported as null in results).
-    params[at + 2 + c] = Number.isFinite(v) ? v : null;
+    // SQLite stores ±Infinity as REAL but has no NaN: NaN is stored as NULL (answered as "NaN").
+    params[at + 2 + c] = Number.isNaN(v) ? null : v;
   }
 }

@@ -135,7 +135,11 @@ export function ResultsTable({ sweep, flagNames = [] }: ResultsTableProps) {
           ...base,
           filterVariant: 'range',
           mantineTableBodyCellProps: { align: 'right' },
-          Cell: ({ cell }) => <Num value={cell.getValue() as number | null} align="right" />,
+          // The api answers non-finite values as "Infinity", "-Infinity" and "NaN" (JSON has no such numbers).
+          Cell: ({ cell }) => {
+            const v = cell.getValue() as number | string | null;
+            return v === 'NaN' ? 'NaN' : <Num value={typeof v === 'string' ? Number(v) : v} align="right" />;
+          },
         };
       }),
     [columns, flagNames, symbols],
