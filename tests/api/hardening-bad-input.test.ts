@@ -575,6 +575,12 @@ function routeCases(): Record<string, Case[]> {
         mention: 'B_T',
       },
     ],
+    // The sweep here is a grid design, so a well-formed output answers 409; every case must still be a 4xx.
+    'GET /api/sweeps/{id}/sensitivity': [
+      ...pathCases('get', '/api/sweeps/{id}/sensitivity?output=vE_ms', R),
+      ...queryCases(sweepPath('/sensitivity'), R, { output: 'vE_ms' }, { output: 'column' }, true),
+      { label: 'missing output', method: 'get', url: sweepPath('/sensitivity'), role: R, mention: 'output' },
+    ],
     'PUT /api/sweeps/{id}/sharing': [
       ...pathCases('put', '/api/sweeps/{id}/sharing', R, { visibility: 'private', userIds: [] }),
       ...bodyCases(
