@@ -6,8 +6,13 @@ import { layoutOf } from '../sweeps/results-reader.js';
 import { rowRange } from '../sweeps/sweep-layout.js';
 import type { SweepRow } from '../sweeps/sweeps.repository.js';
 
-/** Rows fetched per statement while streaming an export. */
-export const EXPORT_BATCH = 4000;
+/**
+ * Rows fetched per statement while streaming an export. Each batch is read and formatted on the api
+ * thread in one go (the CSV stream pulls one batch per read(): a batch of a wide sweep exceeds its 256 kB
+ * buffer), so this bounds how long an export holds the event loop: about 15 ms for 1,000 rows of 21
+ * columns on a loaded 2-core machine, against about 60 ms for 4,000.
+ */
+export const EXPORT_BATCH = 1000;
 
 export interface FitRecord {
   id: number;
