@@ -29,7 +29,8 @@ import { EmptyState } from '../components/EmptyState/EmptyState.js';
 import { PageHeader } from '../components/PageHeader/PageHeader.js';
 import { useSweepList, type SweepSummary } from '../api/sweeps.js';
 import { STATUS_LOOK, StatusBadge, SWEEP_STATUSES } from '../components/StatusBadge/StatusBadge.js';
-import { formatCount } from '../lib/format.js';
+import { formatCount, formatPercent } from '../lib/format.js';
+import { formatDateTime } from '../lib/formatDate.js';
 
 const SCOPES = [
   { value: 'all', label: 'All I can see' },
@@ -54,8 +55,7 @@ const FILTER_KEYS = [
   'owner',
 ] as const;
 
-const dateText = (iso: string | null) =>
-  iso ? new Date(iso).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' }) : '—';
+const dateText = (iso: string | null) => formatDateTime(iso);
 
 export default function CataloguePage() {
   const [params, setParams] = useSearchParams();
@@ -116,12 +116,7 @@ export default function CataloguePage() {
         Cell: ({ row }) => {
           const s = row.original;
           const running = s.status === 'running' || s.status === 'queued';
-          return (
-            <StatusBadge
-              status={s.status}
-              suffix={running ? `${Math.floor(s.progress.fraction * 100)} %` : undefined}
-            />
-          );
+          return <StatusBadge status={s.status} suffix={running ? formatPercent(s.progress.fraction) : undefined} />;
         },
       },
       {

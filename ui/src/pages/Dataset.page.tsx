@@ -13,6 +13,7 @@ import { Num } from '../components/Num/Num.js';
 import { PageHeader } from '../components/PageHeader/PageHeader.js';
 import { formatCount, prettyUnit } from '../lib/format.js';
 import { IconDatabaseOff } from '@tabler/icons-react';
+import { formatDateTime } from '../lib/formatDate.js';
 
 const DatasetScatter = lazy(() => import('../components/DatasetUpload/DatasetScatter.js'));
 const PAGE_SIZE = 50;
@@ -52,7 +53,7 @@ export default function DatasetPage() {
     <>
       <PageHeader
         title={d.name}
-        description={`${formatCount(d.rows)} rows · uploaded by ${d.owner.name} on ${new Date(d.createdAt).toLocaleString()}${d.fileName ? ` · ${d.fileName}` : ''}`}
+        description={`${formatCount(d.rows)} rows · uploaded by ${d.owner.name} on ${formatDateTime(d.createdAt)}${d.fileName ? ` · ${d.fileName}` : ''}`}
         actions={
           <Group gap="xs">
             <Button

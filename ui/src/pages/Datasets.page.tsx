@@ -8,6 +8,7 @@ import { useDatasetList } from '../api/datasets.js';
 import { EmptyState } from '../components/EmptyState/EmptyState.js';
 import { PageHeader } from '../components/PageHeader/PageHeader.js';
 import { formatCount, prettyUnit } from '../lib/format.js';
+import { formatDateTime } from '../lib/formatDate.js';
 
 const PAGE_SIZE = 25;
 
@@ -102,9 +103,7 @@ export default function DatasetsPage() {
                         ? `Shared with ${d.sharedWith.length}`
                         : 'Private'}
                   </Table.Td>
-                  <Table.Td>
-                    {new Date(d.createdAt).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' })}
-                  </Table.Td>
+                  <Table.Td>{formatDateTime(d.createdAt)}</Table.Td>
                 </Table.Tr>
               ))}
               {list.isSuccess && items.length === 0 ? (

@@ -9,6 +9,7 @@ import { ArchiveDigest } from '../components/ExportActions/ArchiveDigest.js';
 import { EmptyState } from '../components/EmptyState/EmptyState.js';
 import { PageHeader } from '../components/PageHeader/PageHeader.js';
 import { formatCount } from '../lib/format.js';
+import { formatDateTime } from '../lib/formatDate.js';
 
 const PAGE_SIZE = 25;
 
@@ -30,9 +31,7 @@ function ArchivedRow({ s }: { s: ArchivedSummary }) {
           {s.model} · {formatCount(s.points)} points · {s.owner.name}
         </Text>
       </Table.Td>
-      <Table.Td style={{ whiteSpace: 'nowrap' }}>
-        {archivedAt ? new Date(archivedAt).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' }) : '—'}
-      </Table.Td>
+      <Table.Td style={{ whiteSpace: 'nowrap' }}>{formatDateTime(archivedAt)}</Table.Td>
       <Table.Td>
         {archive ? (
           <ArchiveDigest sha256={archive.sha256} bytes={archive.bytes} />

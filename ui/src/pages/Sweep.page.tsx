@@ -29,10 +29,11 @@ import { PageHeader } from '../components/PageHeader/PageHeader.js';
 import { ResultsTable } from '../components/ResultsTable/ResultsTable.js';
 import { ACTIVE, useCancelSweep, useSaveSharing, useSweep, type SweepView } from '../api/sweeps.js';
 import { StatusBadge } from '../components/StatusBadge/StatusBadge.js';
-import { formatCount, prettyUnit } from '../lib/format.js';
+import { formatCount, formatPercent, prettyUnit } from '../lib/format.js';
 import { FitsPanel } from '../components/FitsPanel/FitsPanel.js';
 import { ExportActions } from '../components/ExportActions/ExportActions.js';
 import { SensitivityPanel } from '../components/SensitivityPanel/SensitivityPanel.js';
+import { formatDateTime } from '../lib/formatDate.js';
 
 /** Canonical unit of a model input, for showing fixed numbers with their unit. */
 function inputUnit(model: string, name: string): string {
@@ -46,8 +47,7 @@ function inputUnit(model: string, name: string): string {
 // echarts is heavy: the plot loads with its tab.
 const SweepPlot = lazy(() => import('../components/SweepPlot/SweepPlot.js').then((m) => ({ default: m.SweepPlot })));
 
-const dateText = (iso: string | null) =>
-  iso ? new Date(iso).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'medium' }) : '—';
+const dateText = (iso: string | null) => formatDateTime(iso);
 
 function duration(ms: number): string {
   if (ms < 1000) return `${Math.round(ms)} ms`;
@@ -172,12 +172,13 @@ function Overview({ sweep, canManage }: { sweep: SweepView; canManage: boolean }
           value={pct}
           size="lg"
           animated={active}
-          aria-label={`${pct} % of the points computed`}
+          aria-label={`${formatPercent(sweep.progress.fraction)} of the points computed`}
           data-testid="sweep-progress"
         />
         <Group justify="space-between" mt={6}>
           <Text fz="sm" className="dg-num">
-            {formatCount(sweep.progress.done)} of {formatCount(sweep.progress.total)} points · {pct} %
+            {formatCount(sweep.progress.done)} of {formatCount(sweep.progress.total)} points ·{' '}
+            {formatPercent(sweep.progress.fraction)}
           </Text>
           {canManage && active ? (
             <Button
@@ -410,7 +411,7 @@ export default function SweepPage() {
           <Group gap="xs" component="span">
             <StatusBadge
               status={sweep.status}
-              suffix={ACTIVE.includes(sweep.status) ? `${Math.floor(sweep.progress.fraction * 100)} %` : undefined}
+              suffix={ACTIVE.includes(sweep.status) ? formatPercent(sweep.progress.fraction) : undefined}
               data-testid="sweep-status"
             />
             <span>

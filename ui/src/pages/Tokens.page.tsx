@@ -10,6 +10,7 @@ import {
   type CreatedApiToken,
 } from '../api/tokens.js';
 import { formatDateTime } from '../lib/formatDate.js';
+import { StateBadge } from '../components/StatusBadge/StateBadge.js';
 import { ctrlEnter } from '../components/AdminShared/ctrlEnter.js';
 import { EmptyState } from '../components/EmptyState/EmptyState.js';
 import { PageHeader } from '../components/PageHeader/PageHeader.js';
@@ -21,10 +22,10 @@ const EXPIRY = [
   { value: 'never', label: 'Never' },
 ];
 
-function state(t: ApiTokenSummary): { label: string; color: string } {
-  if (t.revokedAt) return { label: 'revoked', color: 'gray' };
-  if (t.expiresAt !== null && t.expiresAt <= Date.now()) return { label: 'expired', color: 'gray' };
-  return { label: 'active', color: 'green' };
+function state(t: ApiTokenSummary): 'active' | 'expired' | 'revoked' {
+  if (t.revokedAt) return 'revoked';
+  if (t.expiresAt !== null && t.expiresAt <= Date.now()) return 'expired';
+  return 'active';
 }
 
 /** Personal API tokens: create (secret shown once, with a copy button), list and revoke. */
@@ -189,9 +190,7 @@ export default function TokensPage() {
                     </Table.Td>
                     <Table.Td>{t.scope === 'read' ? 'read only' : 'read and write'}</Table.Td>
                     <Table.Td>
-                      <Badge color={s.color} variant="light">
-                        {s.label}
-                      </Badge>
+                      <StateBadge kind="token" state={s} />
                     </Table.Td>
                     <Table.Td>
                       <Text fz="xs">{formatDateTime(t.createdAt)}</Text>
@@ -203,7 +202,7 @@ export default function TokensPage() {
                       <Text fz="xs">{t.lastUsedAt === null ? 'never' : formatDateTime(t.lastUsedAt)}</Text>
                     </Table.Td>
                     <Table.Td>
-                      {s.label === 'active' ? (
+                      {s === 'active' ? (
                         <Button
                           size="xs"
                           variant="subtle"

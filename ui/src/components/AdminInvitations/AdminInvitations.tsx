@@ -7,13 +7,7 @@ import type { Role } from '../../auth/session.js';
 import { ROLES } from '../AdminShared/labels.js';
 import { formatDateTime } from '../../lib/formatDate.js';
 import { ctrlEnter } from '../AdminShared/ctrlEnter.js';
-
-const STATUS_COLOR: Record<Invitation['status'], string> = {
-  pending: 'tide',
-  accepted: 'green',
-  expired: 'gray',
-  revoked: 'gray',
-};
+import { StateBadge } from '../StatusBadge/StateBadge.js';
 
 /** Invite by e-mail with a role (the link is valid 7 days, once), and the list of invitations. */
 export function AdminInvitations() {
@@ -134,9 +128,7 @@ export function AdminInvitations() {
                   <Table.Td>{i.email}</Table.Td>
                   <Table.Td>{i.role}</Table.Td>
                   <Table.Td>
-                    <Badge color={STATUS_COLOR[i.status]} variant="light">
-                      {i.status}
-                    </Badge>
+                    <StateBadge kind="invitation" state={i.status} />
                   </Table.Td>
                   <Table.Td>
                     <Text fz="xs">{i.invitedBy?.name ?? '—'}</Text>

@@ -7,6 +7,7 @@ import { ApiError } from '../../api/client.js';
 import { useDownloadZip, type DownloadedFile } from '../../api/downloads.js';
 import { useArchiveSweep, type SweepView } from '../../api/sweeps.js';
 import { ArchiveDigest } from './ArchiveDigest.js';
+import { formatDateTime } from '../../lib/formatDate.js';
 
 const EXPORTABLE = ['completed', 'archived'];
 
@@ -91,8 +92,8 @@ export function ExportActions({ sweep }: { sweep: SweepView }) {
           <Group gap={6}>
             <IconLock size={16} aria-hidden />
             <Text size="sm">
-              Archived {sweep.archive.archivedAt ? new Date(sweep.archive.archivedAt).toLocaleString() : ''}: the sweep
-              and its export are frozen.
+              Archived {sweep.archive.archivedAt ? formatDateTime(sweep.archive.archivedAt) : ''}: the sweep and its
+              export are frozen.
             </Text>
           </Group>
           <ArchiveDigest sha256={sweep.archive.sha256} bytes={sweep.archive.bytes} />

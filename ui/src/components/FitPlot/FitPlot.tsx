@@ -4,9 +4,7 @@ import { useChart } from '../../lib/chart/useChart.js';
 import { formatNumber, prettyUnit } from '../../lib/format.js';
 import type { FitPlotData } from '../FitResult/fit-types.js';
 import { fitPlotSeries, type Pair } from './plot-series.js';
-
-const DATA = '#1f6f8b';
-const FIT = '#c0612b';
+import { fitColours } from '../../theme/graphics.js';
 
 export function axis(name: string, log: boolean) {
   return {
@@ -52,6 +50,8 @@ export function FitPlot({
   xUnit?: string;
 }) {
   const scheme = useComputedColorScheme('light');
+  // Scheme-aware colours: 3:1 against the card in both schemes (theme/graphics.ts).
+  const { data: DATA, curve: FIT } = fitColours(scheme);
   const s = useMemo(() => fitPlotSeries(plot, yName), [plot, yName]);
   const [log, setLog] = useState(s.kind === 'parity' && s.logOk);
   const useLog = log && s.logOk;

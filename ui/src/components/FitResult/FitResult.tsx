@@ -5,6 +5,7 @@ import { prettyUnit } from '../../lib/format.js';
 import { FitCorrelation } from './FitCorrelation.js';
 import { FitStatus } from './FitStatus.js';
 import { MODEL_LABEL, xList, type FitView } from './fit-types.js';
+import { formatDateTime } from '../../lib/formatDate.js';
 
 /** Readable parameter names: `exp_B_T` is "exponent of B_T". */
 function paramLabel(name: string): string {
@@ -276,7 +277,7 @@ export function FitResult({
           </>
         ) : null}
         <Text fz="xs" c="dimmed">
-          Fit {fit.id} by {fit.owner.name}, {new Date(fit.createdAt).toLocaleString()} · app {fit.appVersion}
+          Fit {fit.id} by {fit.owner.name}, {formatDateTime(fit.createdAt)} · app {fit.appVersion}
           {fit.modelVersion ? ` · source model version ${fit.modelVersion}` : ''}
         </Text>
       </Stack>

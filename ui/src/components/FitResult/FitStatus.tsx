@@ -1,6 +1,7 @@
 import { Badge } from '@mantine/core';
 import { IconAlertTriangle, IconCircleCheck, IconHourglass, IconPlayerPlay, type Icon } from '@tabler/icons-react';
 import type { FitView } from './fit-types.js';
+import { formatPercent } from '../../lib/format.js';
 
 const LOOK: Record<string, { label: string; icon: Icon; color: string; meaning: string }> = {
   queued: {
@@ -39,7 +40,7 @@ export function FitStatus({ fit }: { fit: Pick<FitView, 'status' | 'progress' | 
       data-testid="fit-status"
       data-status={fit.status}
     >
-      {live ? `${label} · ${Math.round(fit.progress * 100)} %` : label}
+      {live ? `${label} · ${formatPercent(fit.progress)}` : label}
     </Badge>
   );
 }

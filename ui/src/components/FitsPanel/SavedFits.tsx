@@ -6,6 +6,7 @@ import { useFitList } from '../../api/fits.js';
 import { Num } from '../Num/Num.js';
 import { FitStatus } from '../FitResult/FitStatus.js';
 import { MODEL_LABEL, xList, type FitSourceKind, type FitView } from '../FitResult/fit-types.js';
+import { formatDateTime } from '../../lib/formatDate.js';
 
 const PAGE_SIZE = 20;
 
@@ -145,7 +146,7 @@ export function SavedFits({
               <Table.Td>
                 <Text fz="xs">{f.owner.name}</Text>
                 <Text fz="xs" c="dimmed">
-                  {new Date(f.createdAt).toLocaleString()}
+                  {formatDateTime(f.createdAt)}
                 </Text>
               </Table.Td>
             </Table.Tr>

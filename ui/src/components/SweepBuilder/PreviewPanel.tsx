@@ -86,7 +86,7 @@ export function PreviewPanel({
               </div>
               <div>
                 <Text fz="xs" c="dimmed">
-                  Chunks (queue jobs)
+                  Chunks
                 </Text>
                 <Text fz="xl" fw={600} data-testid="preview-chunks" style={{ fontVariantNumeric: 'tabular-nums' }}>
                   {formatCount(server?.chunks ?? chunkCount(compiled.totalPoints, DEFAULT_CHUNK_SIZE))}
@@ -157,7 +157,7 @@ export function PreviewPanel({
             <div data-testid="preview-sample">
               <Text fz="sm" fw={500} mb={4}>
                 Sample point #0{' '}
-                <Badge size="xs" variant="light" color="gray">
+                <Badge size="xs" variant="light" color="gray" tt="none">
                   computed in your browser
                 </Badge>
               </Text>
