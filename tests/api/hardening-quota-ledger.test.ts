@@ -91,7 +91,7 @@ describe('the 30-day points ledger', () => {
       .set(auth(researcher))
       .send(smallSweep({ name: 'ledger loop 2' }));
     expect(third.status).toBe(429);
-    expect(third.body.message).toMatch(/maxPointsPer30Days/);
+    expect(third.body.details).toEqual([expect.objectContaining({ path: 'maxPointsPer30Days' })]);
     expect(await used()).toBe(cap);
   });
 });
