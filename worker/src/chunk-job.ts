@@ -8,6 +8,12 @@ export interface ChunkJobData {
   definition: unknown;
   /** Cheap cache key for the compiled definition. */
   definitionHash: string;
+  /**
+   * The model version the sweep was created with. A worker whose registry has moved on refuses the
+   * chunk rather than fill the sweep's stored column layout with another version's outputs.
+   * Optional only so that jobs queued by an older api are still read.
+   */
+  modelVersion?: string;
 }
 
 /** A computed chunk on the wire: typed arrays as base64 so JSON-only Redis values carry them compactly. */

@@ -1,5 +1,6 @@
 import { InjectQueue, OnWorkerEvent, Processor, WorkerHost } from '@nestjs/bullmq';
 import { Inject, Logger, type OnApplicationBootstrap, type OnModuleDestroy } from '@nestjs/common';
+import { DomainError } from '@driftgrid/domain';
 import { UnrecoverableError, type Job, type Queue } from 'bullmq';
 import { encodeFloat64, encodeUint32 } from './chunk-codec.js';
 import { chunkJobId, type ChunkJobData, type ChunkResultPayload } from './chunk-job.js';
@@ -61,7 +62,9 @@ export class ChunkProcessor extends WorkerHost implements OnApplicationBootstrap
       r = await this.pool.run(d);
     } catch (e) {
       // A definition the domain rejects fails the same way on every attempt: do not retry it.
-      if (e instanceof ChunkComputeError && e.details) throw new UnrecoverableError(e.message);
+      // (On a thread it arrives as a ChunkComputeError; computed inline it is the domain error itself.)
+      if ((e instanceof ChunkComputeError || e instanceof DomainError) && e.details)
+        throw new UnrecoverableError(e.message);
       throw e;
     }
     const binary = this.transport.binary;

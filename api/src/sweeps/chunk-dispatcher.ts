@@ -45,6 +45,7 @@ export class ChunkDispatcher implements OnApplicationBootstrap {
             i1: c.i1,
             definition,
             definitionHash: hash,
+            modelVersion: sweep.modelVersion,
           } satisfies ChunkJobData,
           // Same id for the same chunk: re-enqueueing a chunk still on a real Redis is a no-op.
           opts: { ...JOB_OPTIONS, jobId: chunkJobId(sweep.id, c.chunkIndex) },
