@@ -1,5 +1,7 @@
 import { Alert, Button, Paper, PasswordInput, Stack, Text } from '@mantine/core';
-import { useState, type FormEvent } from 'react';
+import { useForm } from '@mantine/form';
+import { zod4Resolver } from 'mantine-form-zod-resolver';
+import { useState } from 'react';
 import { changePasswordSchema } from '@driftgrid/domain';
 import { ApiError } from '../api/client.js';
 import { useChangePassword } from '../api/accounts.js';
@@ -7,43 +9,43 @@ import { ctrlEnter } from '../components/AdminShared/ctrlEnter.js';
 import { PageHeader } from '../components/PageHeader/PageHeader.js';
 import { RevokeTokensOption } from '../components/RevokeTokensOption/RevokeTokensOption.js';
 
+type Values = { current: string; next: string; repeat: string; revokeTokens: boolean };
+
+const checkRequest = zod4Resolver(changePasswordSchema);
+
+/** The domain's request schema, plus the repeat field only this form has; errors keyed by field. */
+function validate(v: Values): Record<string, string> {
+  const errors = checkRequest({ current: v.current, next: v.next, revokeTokens: v.revokeTokens }) as Record<
+    string,
+    string
+  >;
+  if (v.next !== v.repeat) errors.repeat = 'does not match the new password';
+  return errors;
+}
+
 /** Change the password you sign in with (needs the current one). */
 export default function PasswordPage() {
-  const [current, setCurrent] = useState('');
-  const [next, setNext] = useState('');
-  const [repeat, setRepeat] = useState('');
-  const [revokeTokens, setRevokeTokens] = useState(false);
-  const [errors, setErrors] = useState<{ current?: string; next?: string; repeat?: string; form?: string }>({});
+  const form = useForm<Values>({
+    mode: 'controlled',
+    initialValues: { current: '', next: '', repeat: '', revokeTokens: false },
+    validate,
+    // Errors appear once a field was left or the form submitted, never before anything is typed.
+    validateInputOnBlur: true,
+  });
+  const [formError, setFormError] = useState<string | null>(null);
   const change = useChangePassword({
-    onSuccess: () => {
-      setCurrent('');
-      setNext('');
-      setRepeat('');
-      setRevokeTokens(false);
-    },
+    onSuccess: () => form.reset(),
     onError: (err) => {
-      if (err instanceof ApiError)
-        setErrors({
-          current: err.detailFor('current'),
-          next: err.detailFor('next'),
-          form: err.details.length ? undefined : err.message,
-        });
-      else setErrors({ form: 'The password could not be changed' });
+      if (err instanceof ApiError && err.details.length) {
+        form.setErrors({ current: err.detailFor('current'), next: err.detailFor('next') });
+        setFormError(null);
+      } else setFormError(err instanceof ApiError ? err.message : 'The password could not be changed');
     },
   });
-  const submit = () => {
-    const e: typeof errors = {};
-    const parsed = changePasswordSchema.safeParse({ current, next, revokeTokens });
-    if (!parsed.success) for (const i of parsed.error.issues) e[String(i.path[0]) as 'current' | 'next'] ??= i.message;
-    if (next !== repeat) e.repeat = 'does not match the new password';
-    setErrors(e);
-    if (Object.keys(e).length || !parsed.success) return;
-    change.mutate(parsed.data);
-  };
-  const onSubmit = (ev: FormEvent) => {
-    ev.preventDefault();
-    submit();
-  };
+  const submit = form.onSubmit((v) => {
+    setFormError(null);
+    change.mutate({ current: v.current, next: v.next, revokeTokens: v.revokeTokens });
+  });
   return (
     <>
       <PageHeader title="Password" description="Change the password you sign in with." />
@@ -52,45 +54,42 @@ export default function PasswordPage() {
         p="md"
         maw={460}
         component="form"
-        onSubmit={onSubmit}
-        onKeyDown={ctrlEnter(submit)}
+        onSubmit={submit}
+        onKeyDown={ctrlEnter(() => submit())}
         noValidate
         aria-label="Change password"
       >
         <Stack gap="sm">
           <PasswordInput
             label="Current password"
-            value={current}
-            onChange={(e) => setCurrent(e.currentTarget.value)}
-            error={errors.current}
+            {...form.getInputProps('current')}
             autoComplete="current-password"
             required
           />
           <PasswordInput
             label="New password"
             description="At least 10 characters; a few unrelated words work well."
-            value={next}
-            onChange={(e) => setNext(e.currentTarget.value)}
-            error={errors.next}
+            {...form.getInputProps('next')}
             autoComplete="new-password"
             required
           />
           <PasswordInput
             label="New password again"
-            value={repeat}
-            onChange={(e) => setRepeat(e.currentTarget.value)}
-            error={errors.repeat}
+            {...form.getInputProps('repeat')}
             autoComplete="new-password"
             required
           />
-          <RevokeTokensOption checked={revokeTokens} onChange={setRevokeTokens} />
+          <RevokeTokensOption
+            checked={form.values.revokeTokens}
+            onChange={(v) => form.setFieldValue('revokeTokens', v)}
+          />
           <Button type="submit" loading={change.isPending}>
             Change password
           </Button>
           <Text fz="xs" c="dimmed">
             Ctrl+Enter submits. Forgot it? Sign out and use “reset password” on the sign-in page.
           </Text>
-          {errors.form ? <Alert color="red">{errors.form}</Alert> : null}
+          {formError ? <Alert color="red">{formError}</Alert> : null}
           {change.isSuccess ? <Alert color="green">{change.data.message}.</Alert> : null}
         </Stack>
       </Paper>
