@@ -79,6 +79,10 @@ export function ResultsTable({ sweep, flagNames = [] }: ResultsTableProps) {
     setVisible(next);
     saveVisibleGroups(sweep.model, next);
   };
+  const columnPinning = useMemo(
+    () => ({ left: layout.columns.filter((c) => c.group === 'swept').map((c) => c.column.name), right: [] }),
+    [layout],
+  );
   const columnVisibility = useMemo(
     () => Object.fromEntries(layout.columns.map((c) => [c.column.name, visible.includes(c.group)])),
     [layout, visible],
@@ -168,7 +172,17 @@ export function ResultsTable({ sweep, flagNames = [] }: ResultsTableProps) {
       setFilters(up);
       setPagination((p) => ({ ...p, pageIndex: 0 }));
     },
-    state: { pagination, sorting, columnFilters: filters, isLoading, showProgressBars: isFetching, columnVisibility },
+    state: {
+      pagination,
+      sorting,
+      columnFilters: filters,
+      isLoading,
+      showProgressBars: isFetching,
+      columnVisibility,
+      columnPinning,
+    },
+    // The swept inputs stay in view while wider groups scroll sideways.
+    enableColumnPinning: true,
     initialState: { density: 'xs', showColumnFilters: false },
     enableHiding: false,
     // Sorting by a header click and filters from the toolbar: no per-column menu taking header width.
