@@ -6,6 +6,7 @@ import { unzipSync, strFromU8 } from 'fflate';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DatasetsService } from '../../api/src/datasets/datasets.service.js';
 import { DEMO, startTestApp, type TestApp } from '../support/app.js';
+import { binary } from '../support/binary.js';
 
 const fixtures = path.join(path.dirname(fileURLToPath(import.meta.url)), '../fixtures/datasets');
 const probeCsv = fs.readFileSync(path.join(fixtures, 'argon-probe-profile.csv'));
@@ -298,13 +299,3 @@ describe('reading, sharing, deleting', () => {
     expect(left.n).toBe(0);
   });
 });
-
-/** supertest parser that keeps a binary body as a Buffer. */
-function binary(
-  res: NodeJS.ReadableStream & { setEncoding(e: string): void },
-  cb: (err: Error | null, body: Buffer) => void,
-) {
-  const chunks: Buffer[] = [];
-  res.on('data', (c: Buffer) => chunks.push(c));
-  res.on('end', () => cb(null, Buffer.concat(chunks)));
-}

@@ -5,6 +5,7 @@ import Papa from 'papaparse';
 import { strFromU8, unzipSync } from 'fflate';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO, startTestApp, type TestApp } from '../support/app.js';
+import { binary } from '../support/binary.js';
 import { smallSweep, waitForSweep } from '../support/sweeps.js';
 
 let t: TestApp;
@@ -17,12 +18,6 @@ const auth = (token: string) => ({ authorization: `Bearer ${token}` });
 const sha256 = (b: Uint8Array) => createHash('sha256').update(b).digest('hex');
 
 /** supertest parser that keeps a binary body as a Buffer. */
-function binary(res: NodeJS.ReadableStream, cb: (err: Error | null, body: Buffer) => void) {
-  const chunks: Buffer[] = [];
-  res.on('data', (c: Buffer) => chunks.push(c));
-  res.on('end', () => cb(null, Buffer.concat(chunks)));
-}
-
 async function download(id: number, token: string) {
   const res = await t.http.get(`/api/sweeps/${id}/export`).set(auth(token)).buffer(true).parse(binary);
   return { res, body: res.body as Buffer };

@@ -25,7 +25,7 @@ function crossFieldScan(counts = { ti: 4, b: 4, ln: [0.05, 0.1, 0.2, 0.5] }, nam
   });
 }
 
-async function runSweep(token: string, def: unknown): Promise<number> {
+async function runSweep(token: string, def: object): Promise<number> {
   const res = await t.http.post('/api/sweeps').set(auth(token)).send(def);
   expect(res.status).toBe(201);
   const done = await waitForSweep(t, token, res.body.id, 120_000);

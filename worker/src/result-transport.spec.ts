@@ -19,7 +19,7 @@ describe('result transports', () => {
   it('in-process: the job carries a reference, the api receives the very same arrays once', () => {
     const t = new InProcessResultTransport();
     const p = payload(2);
-    const job = t.send(p) as Record<string, unknown>;
+    const job = t.send(p);
     expect(Object.keys(job).sort()).toEqual(['chunkIndex', 'ref', 'sweepId']);
     expect(t.size).toBe(1);
     expect(t.receive(JSON.parse(JSON.stringify(job)))).toBe(p);
