@@ -12,12 +12,13 @@ const silent = 'passed-only' as const;
 export default defineConfig({
   resolve: { alias },
   test: {
+    // A root-only option: vitest ignores (and its types refuse) `silent` inside a project.
+    silent,
     projects: [
       {
         resolve: { alias },
         test: {
           name: 'unit',
-          silent,
           include: ['domain/src/**/*.spec.ts', 'worker/src/**/*.spec.ts', 'api/src/**/*.spec.ts'],
           environment: 'node',
         },
@@ -26,7 +27,6 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: 'ui',
-          silent,
           include: ['ui/src/**/*.spec.{ts,tsx}'],
           environment: 'happy-dom',
           setupFiles: ['ui/src/test/setup.ts'],
@@ -36,7 +36,6 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: 'integration',
-          silent,
           include: ['tests/integration/**/*.test.ts'],
           environment: 'node',
           testTimeout: 120000,
@@ -47,7 +46,6 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: 'queue',
-          silent,
           include: ['tests/queue/**/*.test.ts'],
           environment: 'node',
           testTimeout: 60000,
@@ -58,7 +56,6 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: 'api',
-          silent,
           include: ['tests/api/**/*.test.ts'],
           environment: 'node',
           testTimeout: 120000,
@@ -69,7 +66,6 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: 'browser',
-          silent,
           include: ['tests/browser/**/*.test.ts'],
           environment: 'node',
           testTimeout: 120000,
