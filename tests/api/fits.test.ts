@@ -71,6 +71,7 @@ const powerLaw = (over: Record<string, unknown> = {}) => ({
 });
 
 describe('power law on a noiseless cross-field sweep (SPEC §13.2)', () => {
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any -- a supertest response body, asserted field by field
   let fit: Record<string, any>;
 
   it('recovers exponents 1, −1, −1 to 1e-9 on the valid points, with the sign of vDi on C', async () => {
@@ -419,6 +420,7 @@ describe('long fits run queued (≥ 100,000 points)', () => {
       .send(powerLaw({ source: { kind: 'sweep', id: big }, filter: undefined }));
     expect(res.status).toBe(202);
     expect(res.body).toMatchObject({ status: 'queued', n: 100_000 });
+    // eslint-disable-next-line @typescript-eslint/no-explicit-any -- a supertest response body, asserted field by field
     let f: Record<string, any> = {};
     const deadline = Date.now() + 120_000;
     while (Date.now() < deadline) {

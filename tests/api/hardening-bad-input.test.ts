@@ -484,7 +484,7 @@ function routeCases(): Record<string, Case[]> {
         ['100 kB unit', { Te_eV: KB100 }],
         ['wrong unit', { Te_eV: '3 kg' }],
       ].map(([label, inputs]) => ({
-        label: `inputs ${label}`,
+        label: `inputs ${label as string}`,
         method: 'post' as const,
         url: '/api/models/cross-field/evaluate',
         role: R,

@@ -9,7 +9,7 @@ import { CHUNK_QUEUE } from '../../worker/src/queue-names.js';
 import { DEMO, startTestApp, tempDataDir } from '../support/app.js';
 import { apiJson, apiLogin, freePort, REPO, spawnNode, startApiProcess, type Proc } from '../support/processes.js';
 import { realRedis, type RedisHandle } from '../support/redis.js';
-import { smallSweep, waitForSweep } from '../support/sweeps.js';
+import { smallSweep } from '../support/sweeps.js';
 
 /*
  * Faults: kill -9 of the api and of a standalone worker at moments a seeded PRNG picks, during

@@ -103,7 +103,7 @@ export async function main(): Promise<number> {
     loadStart,
     loadEnd,
     config: cfg,
-    failure: failure ? String(failure instanceof Error ? failure.message : failure) : null,
+    failure: failure ? (failure instanceof Error ? failure.message : JSON.stringify(failure)) : null,
     rows: report.rows,
     notes: report.notes,
     details: report.details,
@@ -112,7 +112,7 @@ export async function main(): Promise<number> {
   console.log(`results written to ${path.relative(process.cwd(), RESULTS) || RESULTS}`);
   if (failure) {
     console.error(
-      `\nBENCH FAILED (harness error, figures above are partial):\n${failure instanceof Error ? (failure.stack ?? failure.message) : String(failure)}`,
+      `\nBENCH FAILED (harness error, figures above are partial):\n${failure instanceof Error ? (failure.stack ?? failure.message) : JSON.stringify(failure)}`,
     );
     return 1;
   }

@@ -223,7 +223,7 @@ describe('QuotasService', () => {
               try {
                 resolve(submit(10 + i));
               } catch (e) {
-                reject(e);
+                reject(e as Error);
               }
             }),
           ),

@@ -75,7 +75,7 @@ export class ChunkThreadPool {
       try {
         return Promise.resolve(computeChunk(data));
       } catch (e) {
-        return Promise.reject(e);
+        return Promise.reject(e as Error);
       }
     }
     const slot = this.threads.reduce((a, b) => (b.busy < a.busy ? b : a));

@@ -12,7 +12,13 @@ const record = (v: unknown): Record<string, unknown> =>
   v && typeof v === 'object' && !Array.isArray(v) ? (v as Record<string, unknown>) : {};
 const text = (v: unknown): string => (typeof v === 'string' ? v : typeof v === 'number' ? String(v) : '');
 const fmt = (n: unknown): string =>
-  n === null || n === undefined ? 'the role default' : typeof n === 'number' ? n.toLocaleString('en-US') : String(n);
+  n === null || n === undefined
+    ? 'the role default'
+    : typeof n === 'number'
+      ? n.toLocaleString('en-US')
+      : typeof n === 'string'
+        ? n
+        : JSON.stringify(n);
 
 const USER_FIELDS: Record<string, (before: unknown, after: unknown) => string> = {
   role: (b, a) => `role from ${text(b) || '?'} to ${text(a) || '?'}`,

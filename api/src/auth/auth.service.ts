@@ -1,4 +1,4 @@
-import { Inject, Injectable, UnauthorizedException } from '@nestjs/common';
+import { Injectable, UnauthorizedException } from '@nestjs/common';
 import { JwtService } from '@nestjs/jwt';
 import type { LoginRequest, LoginResponse, PublicUser } from '@driftgrid/domain';
 import { Clock } from '../common/clock.js';

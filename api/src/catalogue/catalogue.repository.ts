@@ -106,8 +106,14 @@ export class CatalogueRepository {
       params.push(tag);
     }
     const range = (col: string, lo: number | undefined, hi: number | undefined) => {
-      if (lo !== undefined) (where.push(`${col} >= ?`), params.push(lo));
-      if (hi !== undefined) (where.push(`${col} <= ?`), params.push(hi));
+      if (lo !== undefined) {
+        where.push(`${col} >= ?`);
+        params.push(lo);
+      }
+      if (hi !== undefined) {
+        where.push(`${col} <= ?`);
+        params.push(hi);
+      }
     };
     range('s.created_at', q.createdFrom, q.createdTo === undefined ? undefined : endOfDay(q.createdTo));
     range('s.finished_at', q.finishedFrom, q.finishedTo === undefined ? undefined : endOfDay(q.finishedTo));

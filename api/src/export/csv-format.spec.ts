@@ -16,7 +16,7 @@ describe('formatBatch', () => {
       1e21,
       1e-7,
       123456789012345680000,
-      9007199254740993,
+      9007199254740992, // 2^53, the last integer a double holds exactly
       null,
     ];
     const rows: (number | null)[][] = [];

@@ -40,7 +40,7 @@ export function columnByName(layout: readonly StoredColumn[], name: string, path
 /** Parses the `filter` query parameter (JSON text or an object) against the sweep's columns. */
 export function parseFilter(raw: unknown, layout: readonly StoredColumn[], path = 'filter'): ResultFilter {
   if (raw === undefined || raw === null || raw === '') return {};
-  let value = raw;
+  let value: unknown = raw;
   if (typeof raw === 'string') {
     if (raw.length > 10_000)
       throw new ValidationError('filter is too long', [{ path, message: 'at most 10,000 characters' }]);

@@ -92,7 +92,7 @@ export class SweepPersistence {
       const counts = JSON.parse(sweep.flagCounts) as Record<string, number>;
       let invalid = 0;
       const invalidMask = model.flags.filter((f) => f.invalidates).reduce((m, f) => m | (1 << f.bit), 0);
-      const perBit = new Array(32).fill(0);
+      const perBit = new Array<number>(32).fill(0);
       for (let i = 0; i < p.n; i++) {
         const f = flags[i];
         if (f & invalidMask) invalid++;

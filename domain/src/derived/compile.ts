@@ -49,7 +49,7 @@ export function compileDerived(defs: readonly DerivedDef[], symbols: readonly st
   const known = new Set(symbols);
   const names: string[] = [];
   const compiled: CompiledExpression[] = [];
-  if (!Array.isArray(defs)) {
+  if (!Array.isArray(defs as unknown)) {
     throw new ValidationError('derived must be a list of { name, expr }', [
       { path: 'derived', message: 'expected a list of { name, expr }' },
     ]);

@@ -628,10 +628,23 @@ function kernel(
   // The window edge r = 2a itself. A peak that is largest there (strictly) sits at the edge.
   let edge = false;
   drifts(rEdge, pressureAndField(rEdge));
-  if (Math.abs(L.vdi) > Math.abs(vDiPk)) ((vDiPk = L.vdi), (edge = true));
-  if (Math.abs(L.vde) > Math.abs(vDePk)) ((vDePk = L.vde), (edge = true));
-  if (Math.abs(L.ve) > Math.abs(vEPk)) ((vEPk = L.ve), (edge = true));
-  if (Math.abs(L.j) > Math.abs(jPk)) ((jPk = L.j), (rPk = rEdge), (edge = true));
+  if (Math.abs(L.vdi) > Math.abs(vDiPk)) {
+    vDiPk = L.vdi;
+    edge = true;
+  }
+  if (Math.abs(L.vde) > Math.abs(vDePk)) {
+    vDePk = L.vde;
+    edge = true;
+  }
+  if (Math.abs(L.ve) > Math.abs(vEPk)) {
+    vEPk = L.ve;
+    edge = true;
+  }
+  if (Math.abs(L.j) > Math.abs(jPk)) {
+    jPk = L.j;
+    rPk = rEdge;
+    edge = true;
+  }
   if (!(L.rhoI <= rhoIMax)) rhoIMax = L.rhoI;
   if (!(L.rhoS <= rhoSMax)) rhoSMax = L.rhoS;
   if (!(L.ld <= ldMaxV)) ldMaxV = L.ld;

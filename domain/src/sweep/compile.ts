@@ -259,7 +259,6 @@ function checkExpressionCorners(
       try {
         value = Number(e.fn(scope));
       } catch (err) {
-        value = Number.NaN;
         if (!reported.has(e.name)) {
           reported.add(e.name);
           errors.push({ path: `fixed.${e.name}`, message: `cannot be evaluated: ${(err as Error).message}` });

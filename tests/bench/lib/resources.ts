@@ -48,14 +48,14 @@ export async function cleanupAll(): Promise<void> {
     try {
       await withTimeout(s.stop(), 10_000, s.label);
     } catch (e) {
-      console.error(`cleanup of ${s.label} failed: ${e instanceof Error ? e.message : e}`);
+      console.error(`cleanup of ${s.label} failed: ${e instanceof Error ? e.message : JSON.stringify(e)}`);
     }
   }
   for (const d of [...dirs]) {
     try {
       removeDir(d);
     } catch (e) {
-      console.error(`could not remove ${d}: ${e instanceof Error ? e.message : e}`);
+      console.error(`could not remove ${d}: ${e instanceof Error ? e.message : JSON.stringify(e)}`);
     }
   }
 }
@@ -68,9 +68,9 @@ function withTimeout<T>(p: Promise<T>, ms: number, label: string): Promise<T> {
         clearTimeout(t);
         resolve(v);
       },
-      (e) => {
+      (e: unknown) => {
         clearTimeout(t);
-        reject(e);
+        reject(e instanceof Error ? e : new Error(JSON.stringify(e)));
       },
     );
   });

@@ -14,8 +14,12 @@ interface Query {
   limit?: number;
   limitText?: string;
   /** What the answer held, for the note (rows, total, points). */
-  describe(body: any): string;
+  describe(body: Body): string;
 }
+
+/** An answer body as the harness reads it: JSON of any shape (supertest types bodies as any too). */
+// eslint-disable-next-line @typescript-eslint/no-explicit-any -- bodies are printed, never trusted
+type Body = any;
 
 export async function benchQueries(cfg: BenchConfig, kept: KeptSweep, report: Report): Promise<void> {
   const { api, sweepId: id, points } = kept;
@@ -24,8 +28,8 @@ export async function benchQueries(cfg: BenchConfig, kept: KeptSweep, report: Re
   );
   const filter = encodeURIComponent(JSON.stringify({ Te_eV: { gte: 5, lte: 50 } }));
   const deepPage = Math.max(1, Math.floor(points / 50 / 2));
-  const rows = (b: any) => `${b?.rows?.length ?? '?'} rows of ${b?.total ?? '?'}`;
-  const series = (b: any) => `${b?.returned ?? '?'} points in ${b?.groups?.length ?? '?'} groups, ${b?.method ?? '?'}`;
+  const rows = (b: Body) => `${b?.rows?.length ?? '?'} rows of ${b?.total ?? '?'}`;
+  const series = (b: Body) => `${b?.returned ?? '?'} points in ${b?.groups?.length ?? '?'} groups, ${b?.method ?? '?'}`;
   const queries: Query[] = [
     {
       metric: 'results page 1, default order (50 rows)',
@@ -74,7 +78,7 @@ async function one(api: ApiHandle, q: Query, runs: number, report: Report): Prom
     return { available: false, status: first.status };
   }
   if (first.status !== 200) {
-    const msg = (first.body as any)?.message ?? String(first.body).slice(0, 120);
+    const msg = (first.body as Body)?.message ?? JSON.stringify(first.body).slice(0, 120);
     report.add({
       scenario,
       metric: q.metric,

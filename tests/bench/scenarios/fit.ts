@@ -83,6 +83,7 @@ export async function benchFitApi(cfg: BenchConfig, kept: KeptSweep, report: Rep
     x: ['Te_eV', 'B_T', 'Ln_m'],
   };
   const ms: number[] = [];
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any -- the fit answer body, printed only
   let last: any;
   for (let r = 0; r < Math.max(1, cfg.fitRuns); r++) {
     const t0 = performance.now();

@@ -75,7 +75,7 @@ export async function benchRedisSweep(cfg: BenchConfig, report: Report): Promise
       workers.push(proc);
     }
     const api = await startApi('redis', { ...common, EMBEDDED_WORKERS: '0' });
-    stops.unshift(api.stop);
+    stops.unshift(() => api.stop());
     for (const proc of workers) await waitForOutput(proc, 'started', 60_000);
     const warmUpMs = await warmUp(api, crossFieldGrid(WARM_UP_POINTS));
     report.add({

@@ -97,7 +97,7 @@ export function useSignOut() {
   return useCallback(() => {
     clearSession();
     qc.clear();
-    navigate('/sign-in', { replace: true });
+    void navigate('/sign-in', { replace: true });
   }, [qc, navigate]);
 }
 

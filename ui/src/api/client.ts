@@ -92,7 +92,7 @@ async function send(path: string, opts: RequestOptions): Promise<Response> {
 /** Reads the SPEC §6 error shape `{ statusCode, error, message, details? }`, tolerating others. */
 export async function toApiError(res: Response): Promise<ApiError> {
   const correlationId = res.headers.get('x-correlation-id') ?? res.headers.get('x-request-id') ?? undefined;
-  let payload: unknown = null;
+  let payload: unknown;
   try {
     const text = await res.text();
     payload = text ? JSON.parse(text) : null;

@@ -19,7 +19,7 @@ const listeners = new Set<() => void>();
 let cached: { raw: string | null; value: Session | null } = { raw: null, value: null };
 
 function read(): Session | null {
-  let raw: string | null = null;
+  let raw: string | null;
   try {
     raw = window.localStorage.getItem(KEY);
   } catch {

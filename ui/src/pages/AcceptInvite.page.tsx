@@ -21,7 +21,7 @@ export default function AcceptInvitePage() {
   }, []);
   const accept = useAcceptInvite({
     onSuccess: () => {
-      navigate('/', { replace: true });
+      void navigate('/', { replace: true });
     },
     onError: (err) => {
       if (err instanceof ApiError)

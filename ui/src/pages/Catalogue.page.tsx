@@ -78,7 +78,7 @@ export default function CataloguePage() {
   const [debounced] = useDebouncedValue(text, 300);
   useEffect(() => {
     if (debounced !== get('q')) set({ q: debounced || null });
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- only a settled search text writes the URL
   }, [debounced]);
 
   const page = Math.max(1, Number(get('page')) || 1);
@@ -170,7 +170,7 @@ export default function CataloguePage() {
         Cell: ({ row }) => dateText(row.original.finishedAt),
       },
     ],
-    // eslint-disable-next-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- the cells read only the URL params
     [params],
   );
 

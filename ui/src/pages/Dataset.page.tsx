@@ -35,7 +35,7 @@ export default function DatasetPage() {
       <EmptyState
         icon={IconDatabaseOff}
         title={notFound ? 'Dataset not found' : 'Cannot load the dataset'}
-        actions={<Button onClick={() => navigate('/datasets')}>All datasets</Button>}
+        actions={<Button onClick={() => void navigate('/datasets')}>All datasets</Button>}
       >
         {notFound ? 'It does not exist, was deleted, or is not shared with you.' : (dataset.error as Error).message}
       </EmptyState>
@@ -160,7 +160,7 @@ export default function DatasetPage() {
             <Button
               color="red"
               loading={remove.isPending}
-              onClick={() => remove.mutate(d.id, { onSuccess: () => navigate('/datasets') })}
+              onClick={() => remove.mutate(d.id, { onSuccess: () => void navigate('/datasets') })}
             >
               Delete
             </Button>

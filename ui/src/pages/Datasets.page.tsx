@@ -132,7 +132,7 @@ export default function DatasetsPage() {
           onCancel={() => setUploading(false)}
           onUploaded={(r) => {
             setUploading(false);
-            navigate(`/datasets/${r.id}`);
+            void navigate(`/datasets/${r.id}`);
           }}
         />
       </Modal>

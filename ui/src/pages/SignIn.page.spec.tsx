@@ -62,7 +62,7 @@ describe('SignInPage', () => {
     const [url, init] = fetchMock.mock.calls[0]!;
     expect(url).toBe('/api/auth/login');
     expect(init?.method).toBe('POST');
-    expect(JSON.parse(String(init?.body))).toEqual({ email: 'researcher@example.com', password: 'not-the-password' });
+    expect(JSON.parse(init?.body as string)).toEqual({ email: 'researcher@example.com', password: 'not-the-password' });
     // Sign-in must not send a stale token.
     expect((init?.headers as Record<string, string>).Authorization).toBeUndefined();
   });
@@ -84,7 +84,7 @@ describe('SignInPage', () => {
       accessToken: 'tok-123',
       user: { id: 2, email: 'researcher@example.com', name: 'Rosa Researcher', role: 'researcher' },
     });
-    expect(JSON.parse(String(fetchMock.mock.calls[0]![1]?.body)).email).toBe('researcher@example.com');
+    expect(JSON.parse(fetchMock.mock.calls[0]![1]?.body as string).email).toBe('researcher@example.com');
   });
 
   it('ignores a next parameter that points off-site', async () => {

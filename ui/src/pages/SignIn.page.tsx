@@ -60,7 +60,7 @@ export default function SignInPage() {
       {
         onSuccess: () => {
           resetSessionExpired();
-          navigate(next, { replace: true });
+          void navigate(next, { replace: true });
         },
       },
     );

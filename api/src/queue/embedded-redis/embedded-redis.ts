@@ -13,19 +13,25 @@ const require = createRequire(import.meta.url);
 
 type Arg = string | Buffer;
 type SyncCommand = (this: EmbeddedRedis, ...args: Arg[]) => unknown;
-/* eslint-disable @typescript-eslint/no-explicit-any -- the mock ships untyped internals */
-const RedisMock: any = require('ioredis-mock');
+// The mock ships no types for its internals: the one we reach (Pipeline's command copier) is typed here.
+interface RedisMockModule {
+  new (options: Record<string, unknown>): object;
+  Pipeline: { prototype: { copyCommands(this: object): void } };
+}
+const RedisMock = require('ioredis-mock') as RedisMockModule;
 
 // The mock keeps its command emulators in a module-private table; its Pipeline copies them
 // by name, which lets us collect the plain synchronous functions for use inside scripts.
 const mockCommands: Record<string, SyncCommand> = (() => {
-  const collector: any = { redis: { customCommands: {} }, _createCommand: (_n: string, fn: SyncCommand) => fn };
+  const collector: Record<string, unknown> = {
+    redis: { customCommands: {} },
+    _createCommand: (_n: string, fn: SyncCommand) => fn,
+  };
   RedisMock.Pipeline.prototype.copyCommands.call(collector);
   delete collector.redis;
   delete collector._createCommand;
   return collector as Record<string, SyncCommand>;
 })();
-/* eslint-enable @typescript-eslint/no-explicit-any */
 
 /** Commands whose Redis reply is a status (+OK); scripts receive those as {ok=...}. */
 const STATUS_COMMANDS = new Set([
@@ -71,6 +77,7 @@ function argToString(a: unknown): Arg {
   if (a === null || a === undefined) return '';
   if (Buffer.isBuffer(a)) return a;
   if (a instanceof Uint8Array) return Buffer.from(a);
+  // eslint-disable-next-line @typescript-eslint/no-base-to-string -- ioredis sends any other argument as String(arg)
   return String(a);
 }
 

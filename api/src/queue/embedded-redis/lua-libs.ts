@@ -81,7 +81,7 @@ function encodeJson(L: L, idx: number, depth: number): string {
     case lua.LUA_TNUMBER:
       return formatLuaNumber(lua.lua_tonumber(L, idx));
     case lua.LUA_TSTRING:
-      return JSON.stringify(bytesToText(lua.lua_tolstring(L, idx)));
+      return JSON.stringify(bytesToText(lua.lua_tolstring(L, idx) as Uint8Array));
     case lua.LUA_TLIGHTUSERDATA:
       if (lua.lua_touserdata(L, idx) === CJSON_NULL) return 'null';
       throw new Error('cjson.encode: cannot serialise userdata');
@@ -107,7 +107,7 @@ function encodeJson(L: L, idx: number, depth: number): string {
         }
         // Copy the key before converting it: tolstring on the key itself would confuse lua_next.
         lua.lua_pushvalue(L, -2);
-        const key = bytesToText(lua.lua_tolstring(L, -1));
+        const key = bytesToText(lua.lua_tolstring(L, -1) as Uint8Array);
         lua.lua_pop(L, 1);
         parts.push(`${JSON.stringify(key)}:${encodeJson(L, -1, depth + 1)}`);
         lua.lua_pop(L, 1);

@@ -60,6 +60,7 @@ export function pushReply(L: L, value: unknown): void {
   } else if (value instanceof StatusReply) {
     pushFieldTable(L, 'ok', value.text);
   } else {
+    // eslint-disable-next-line @typescript-eslint/no-base-to-string -- Redis replies are strings or numbers here
     pushBytes(L, String(value));
   }
 }

@@ -142,8 +142,6 @@ export function refine(
     }
     if (!accepted) {
       // No descent at any damping: the point is stationary to rounding, or we are stuck.
-      lambda = 1e-3;
-      nu = 2;
       if (st.singular) break;
       const final = check(prob, params, r, jac, STALL_TOL);
       if (final.converged)

@@ -141,7 +141,7 @@ export function parseExpression(expr: string): ParsedExpression {
     );
   }
   const compiled = node.compile();
-  return { symbols, evaluate: (scope) => compiled.evaluate(scope) };
+  return { symbols, evaluate: (scope) => compiled.evaluate(scope) as number };
 }
 
 /** A mathjs expression over x columns with named parameters (all need start values). */

@@ -53,7 +53,7 @@ describe('DatasetUpload', () => {
     fireEvent.click(screen.getByRole('button', { name: /Upload dataset/ }));
     await waitFor(() => expect(onUploaded).toHaveBeenCalled());
     const form = sent[0];
-    expect(JSON.parse(String(form.get('units')))).toEqual({ r_cm: 'cm', phi_V: 'V', n: 'cm^-3' });
+    expect(JSON.parse(form.get('units') as string)).toEqual({ r_cm: 'cm', phi_V: 'V', n: 'cm^-3' });
     expect(form.get('name')).toBe('argon-probe');
     expect((form.get('file') as File).name).toBe('argon-probe.csv');
   });

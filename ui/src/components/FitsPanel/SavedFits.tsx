@@ -163,7 +163,7 @@ export function SavedFits({
           leftSection={<IconArrowsDiff size={14} />}
           disabled={picked.length < 2}
           data-testid="compare-fits"
-          onClick={() => navigate(`/fits/compare?ids=${picked.join(',')}`)}
+          onClick={() => void navigate(`/fits/compare?ids=${picked.join(',')}`)}
         >
           Compare {picked.length >= 2 ? `${picked.length} fits` : ''}
         </Button>

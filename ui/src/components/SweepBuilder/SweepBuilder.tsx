@@ -120,7 +120,7 @@ export function SweepBuilder() {
   const submit = useSubmitSweep({
     onSuccess: (res) => {
       draft.clear();
-      navigate(`/sweeps/${res.id}`);
+      void navigate(`/sweeps/${res.id}`);
     },
   });
   const submitError = submit.error instanceof ApiError ? submit.error : null;

@@ -35,7 +35,15 @@ export interface BuilderState {
   visibility: 'private' | 'group';
 }
 
-export function emptyChoice(spec: InputSpec): InputChoice {
+/** Text of a value read from an imported definition (unknown JSON): objects as JSON, never "[object Object]". */
+function asText(v: unknown): string {
+  if (v === null || v === undefined) return '';
+  if (typeof v === 'string') return v;
+  if (typeof v === 'number' || typeof v === 'boolean' || typeof v === 'bigint') return String(v);
+  return JSON.stringify(v);
+}
+
+export function emptyChoice(_spec: InputSpec): InputChoice {
   return { mode: 'default', value: '', kind: 'linear', min: '', max: '', count: '11', values: '' };
 }
 
@@ -157,9 +165,9 @@ export function fromDefinition(raw: unknown): BuilderState {
   }
   const order: string[] = [];
   for (const a of Array.isArray(d.axes) ? (d.axes as Record<string, unknown>[]) : []) {
-    const param = String(a.param ?? '');
+    const param = asText(a.param ?? '');
     const unit = typeof a.unit === 'string' ? a.unit : undefined;
-    const kind = (['linear', 'log', 'list'].includes(String(a.kind)) ? a.kind : 'linear') as AxisKind;
+    const kind = (['linear', 'log', 'list'].includes(asText(a.kind)) ? a.kind : 'linear') as AxisKind;
     order.push(param);
     choices[param] = {
       mode: 'axis',
@@ -167,7 +175,7 @@ export function fromDefinition(raw: unknown): BuilderState {
       kind,
       min: text(a.min, unit),
       max: text(a.max, unit),
-      count: a.count === undefined ? '' : String(a.count),
+      count: a.count === undefined ? '' : asText(a.count),
       values: Array.isArray(a.values) ? (a.values as unknown[]).map((v) => text(v, unit)).join(', ') : '',
     };
   }
@@ -175,15 +183,15 @@ export function fromDefinition(raw: unknown): BuilderState {
   state.axisOrder = { [modelId]: order };
   const s = (d.sampling && typeof d.sampling === 'object' ? d.sampling : { kind: 'grid' }) as Record<string, unknown>;
   const kind = (
-    ['grid', 'latin-hypercube', 'sobol', 'saltelli'].includes(String(s.kind)) ? s.kind : 'grid'
+    ['grid', 'latin-hypercube', 'sobol', 'saltelli'].includes(asText(s.kind)) ? s.kind : 'grid'
   ) as SamplingKind;
   state.sampling = {
     kind,
-    samples: s.samples === undefined ? state.sampling.samples : String(s.samples),
-    seed: s.seed === undefined ? state.sampling.seed : String(s.seed),
+    samples: s.samples === undefined ? state.sampling.samples : asText(s.samples),
+    seed: s.seed === undefined ? state.sampling.seed : asText(s.seed),
   };
   state.derived = Array.isArray(d.derived)
-    ? (d.derived as Record<string, unknown>[]).map((x) => ({ name: String(x.name ?? ''), expr: String(x.expr ?? '') }))
+    ? (d.derived as Record<string, unknown>[]).map((x) => ({ name: asText(x.name ?? ''), expr: asText(x.expr ?? '') }))
     : [];
   state.tags = Array.isArray(d.tags) ? (d.tags as unknown[]).map(String) : [];
   state.visibility = d.visibility === 'group' ? 'group' : 'private';

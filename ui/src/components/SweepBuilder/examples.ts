@@ -17,6 +17,11 @@ export interface ExampleDefinition {
 export const exampleDefinitions: ExampleDefinition[] = Object.entries(files)
   .map(([path, definition]) => {
     const d = definition as { name?: unknown; model?: unknown };
-    return { file: path.split('/').pop()!, name: String(d.name ?? path), model: String(d.model ?? ''), definition };
+    return {
+      file: path.split('/').pop()!,
+      name: typeof d.name === 'string' ? d.name : path,
+      model: typeof d.model === 'string' ? d.model : '',
+      definition,
+    };
   })
   .sort((a, b) => a.file.localeCompare(b.file));

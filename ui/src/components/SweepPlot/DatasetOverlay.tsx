@@ -67,13 +67,15 @@ export function DatasetOverlay({
     : '';
   useEffect(() => {
     onOverlay(overlay);
-  }, [key]); // eslint-disable-line react-hooks/exhaustive-deps
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- keyed on the overlay's content, not its identity
+  }, [key]);
   useEffect(
     () => () => {
       onOverlay(null);
     },
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- clear the overlay once, on unmount
     [],
-  ); // eslint-disable-line react-hooks/exhaustive-deps
+  );
 
   const columnOptions = columns.map((c) => ({
     value: c.name,

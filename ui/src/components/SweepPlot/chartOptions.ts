@@ -102,7 +102,10 @@ export function lineOption(
       const bad = (p[2] & s.invalidMask) !== 0;
       if (bad && start === null) start = p[0];
       if (bad) last = p[0];
-      if (!bad && start !== null) (bands.push([start, last!]), (start = null));
+      if (!bad && start !== null) {
+        bands.push([start, last!]);
+        start = null;
+      }
     }
     if (start !== null) bands.push([start, last!]);
   }

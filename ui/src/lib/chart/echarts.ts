@@ -1,5 +1,6 @@
 // The echarts parts every chart of the ui uses, in one lazily loaded chunk (loaded with the first chart).
-import { init, use, type EChartsType } from 'echarts/core';
+// `use` renamed: it registers chart parts, it is not a React hook.
+import { init, use as registerParts, type EChartsType } from 'echarts/core';
 import { BarChart, CustomChart, LineChart, ScatterChart } from 'echarts/charts';
 import {
   GridComponent,
@@ -13,7 +14,7 @@ import {
 } from 'echarts/components';
 import { CanvasRenderer, SVGRenderer } from 'echarts/renderers';
 
-use([
+registerParts([
   BarChart,
   CustomChart,
   LineChart,
