@@ -8,18 +8,13 @@ import { strFromU8, unzipSync } from 'fflate';
 import Papa from 'papaparse';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO, startTestApp, type TestApp } from '../support/app.js';
+import { binary } from '../support/binary.js';
 import { smallSweep, waitForSweep } from '../support/sweeps.js';
 
 let t: TestApp;
 let researcher: string;
 let id: number;
 const auth = (token: string) => ({ authorization: `Bearer ${token}` });
-
-function binary(res: NodeJS.ReadableStream, cb: (err: Error | null, body: Buffer) => void) {
-  const chunks: Buffer[] = [];
-  res.on('data', (c: Buffer) => chunks.push(c));
-  res.on('end', () => cb(null, Buffer.concat(chunks)));
-}
 
 beforeAll(async () => {
   t = await startTestApp();

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 
 /** C0 controls (NUL, bell, line breaks, tab…) and DEL: never part of a name. */
+// eslint-disable-next-line no-control-regex -- matching control characters is the point
 const CONTROL = /[\u0000-\u001f\u007f]/;
 /**
  * Bidirectional embedding, override and isolate controls (Unicode UAX #9: U+202A–U+202E,

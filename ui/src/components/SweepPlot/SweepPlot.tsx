@@ -67,7 +67,7 @@ export function plotContext(sweep: Pick<SweepView, 'definition' | 'columns' | 'm
   let axes: PlotAxis[];
   let regimes: RegimeBoundary[] = [];
   let grid = (sweep.definition.sampling?.kind ?? 'grid') === 'grid';
-  let flagNames: { bit: number; code: string }[] = [];
+  let flagNames: { bit: number; code: string }[];
   const symbols: Record<string, string> = {};
   try {
     const c = compileSweep({ name: 'sweep', model: sweep.model, ...sweep.definition });
