@@ -1,4 +1,4 @@
-import { Alert, Badge, Button, CopyButton, Group, Paper, Select, Table, Text, TextInput, Code } from '@mantine/core';
+import { Alert, Button, CopyButton, Group, Paper, Select, Table, Text, TextInput, Code } from '@mantine/core';
 import { IconCheck, IconCopy, IconKey } from '@tabler/icons-react';
 import { useState, type FormEvent } from 'react';
 import { ApiError } from '../api/client.js';

@@ -1,8 +1,8 @@
-import { Alert, Badge, Button, Group, Pagination, Paper, Select, Table, Text, TextInput } from '@mantine/core';
+import { Alert, Button, Group, Pagination, Paper, Select, Table, Text, TextInput } from '@mantine/core';
 import { useState, type FormEvent } from 'react';
 import { invitationRequestSchema } from '@driftgrid/domain';
 import { ApiError } from '../../api/client.js';
-import { useInvitations, useInvite, useRevokeInvitation, type Invitation } from '../../api/admin.js';
+import { useInvitations, useInvite, useRevokeInvitation } from '../../api/admin.js';
 import type { Role } from '../../auth/session.js';
 import { ROLES } from '../AdminShared/labels.js';
 import { formatDateTime } from '../../lib/formatDate.js';

@@ -87,7 +87,7 @@ export function FitPlot({
         },
       ],
     }),
-    [s, useLog, text, unit, xUnit],
+    [s, useLog, text, unit, xUnit, DATA, FIT],
   );
   const resid = useMemo(
     () => ({
@@ -115,7 +115,7 @@ export function FitPlot({
         },
       ],
     }),
-    [s, text, unit, xUnit],
+    [s, text, unit, xUnit, DATA],
   );
   const { ref: mainRef } = useChart(main, { renderer: 'svg', dark: scheme === 'dark' });
   const { ref: residRef } = useChart(resid, { renderer: 'svg', dark: scheme === 'dark' });
