@@ -275,6 +275,7 @@ const outputs: OutputSpec[] = [
   },
   {
     name: 'lnLambda_ei',
+    group: 'collisions',
     symbol: 'lnΛ_ei',
     unit: '1',
     kind: 'number',
@@ -283,6 +284,7 @@ const outputs: OutputSpec[] = [
   },
   {
     name: 'lnLambda_ii',
+    group: 'collisions',
     symbol: 'lnΛ_ii',
     unit: '1',
     kind: 'number',
@@ -290,6 +292,7 @@ const outputs: OutputSpec[] = [
   },
   {
     name: 'nu_ei_s',
+    group: 'collisions',
     symbol: 'ν_ei',
     unit: '1/s',
     kind: 'number',
@@ -298,6 +301,7 @@ const outputs: OutputSpec[] = [
   },
   {
     name: 'nu_ii_s',
+    group: 'collisions',
     symbol: 'ν_ii',
     unit: '1/s',
     kind: 'number',
@@ -306,6 +310,7 @@ const outputs: OutputSpec[] = [
   },
   {
     name: 'nu_in_s',
+    group: 'collisions',
     symbol: 'ν_in',
     unit: '1/s',
     kind: 'number',
@@ -313,6 +318,7 @@ const outputs: OutputSpec[] = [
   },
   {
     name: 'nu_en_s',
+    group: 'collisions',
     symbol: 'ν_en',
     unit: '1/s',
     kind: 'number',
@@ -320,6 +326,7 @@ const outputs: OutputSpec[] = [
   },
   {
     name: 'nu_e_s',
+    group: 'collisions',
     symbol: 'ν_e',
     unit: '1/s',
     kind: 'number',
@@ -327,6 +334,7 @@ const outputs: OutputSpec[] = [
   },
   {
     name: 'nu_i_s',
+    group: 'collisions',
     symbol: 'ν_i',
     unit: '1/s',
     kind: 'number',
@@ -349,6 +357,7 @@ const outputs: OutputSpec[] = [
   },
   {
     name: 'vTheta_e_ms',
+    group: 'collisions',
     symbol: 'v_eθ',
     unit: 'm/s',
     kind: 'number',
@@ -356,6 +365,7 @@ const outputs: OutputSpec[] = [
   },
   {
     name: 'vTheta_i_ms',
+    group: 'collisions',
     symbol: 'v_iθ',
     unit: 'm/s',
     kind: 'number',
@@ -363,6 +373,7 @@ const outputs: OutputSpec[] = [
   },
   {
     name: 'vr_e_ms',
+    group: 'collisions',
     symbol: 'v_er',
     unit: 'm/s',
     kind: 'number',
@@ -371,6 +382,7 @@ const outputs: OutputSpec[] = [
   },
   {
     name: 'vr_i_ms',
+    group: 'collisions',
     symbol: 'v_ir',
     unit: 'm/s',
     kind: 'number',
@@ -378,6 +390,7 @@ const outputs: OutputSpec[] = [
   },
   {
     name: 'vTheta_i_ratio',
+    group: 'collisions',
     symbol: 'v_iθ/v_iθ,0',
     unit: '1',
     kind: 'number',
@@ -385,6 +398,7 @@ const outputs: OutputSpec[] = [
   },
   {
     name: 'D_Bohm_m2s',
+    group: 'collisions',
     symbol: 'D_B',
     unit: 'm^2/s',
     kind: 'number',

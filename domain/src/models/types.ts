@@ -39,7 +39,7 @@ export interface OutputSpec {
   group?: OutputGroup;
 }
 
-export type OutputGroup = 'drifts' | 'scales' | 'orderings' | 'flags' | 'other';
+export type OutputGroup = 'drifts' | 'scales' | 'orderings' | 'collisions' | 'flags' | 'other';
 
 export interface FlagSpec {
   /** Stable code stored with results, e.g. `rho_i_over_Ln`. */

@@ -1,7 +1,16 @@
 import type { ModelDefinition, OutputGroup, OutputSpec } from '../models/types.js';
 
 /** Column groups of a results table, in the order they are shown: the physics first. */
-export const COLUMN_GROUPS = ['swept', 'drifts', 'scales', 'orderings', 'other', 'derived', 'flags'] as const;
+export const COLUMN_GROUPS = [
+  'swept',
+  'drifts',
+  'scales',
+  'orderings',
+  'collisions',
+  'other',
+  'derived',
+  'flags',
+] as const;
 export type ColumnGroup = (typeof COLUMN_GROUPS)[number];
 
 export const COLUMN_GROUP_LABELS: Record<ColumnGroup, string> = {
@@ -9,6 +18,7 @@ export const COLUMN_GROUP_LABELS: Record<ColumnGroup, string> = {
   drifts: 'Drifts',
   scales: 'Speeds, lengths, frequencies',
   orderings: 'Orderings and ratios',
+  collisions: 'Collisions and collisional drifts',
   other: 'Other outputs',
   derived: 'Derived',
   flags: 'Validity and flags',

@@ -84,6 +84,12 @@ describe('column groups', () => {
     expect(g('rho_i_over_Ln')).toBe('orderings');
     expect(g('valid')).toBe('flags');
     expect(g('jTheta_Am2')).toBe('other');
+    // The collision rates and the collisional drifts form their own group, so the default table keeps to the
+    // collisionless drifts and orderings (and fits 1440 px); the magnetisation ratios stay orderings.
+    for (const name of ['nu_in_s', 'lnLambda_ei', 'vTheta_i_ms', 'vr_e_ms', 'D_Bohm_m2s'])
+      expect(g(name)).toBe('collisions');
+    expect(g('nu_over_omega_i')).toBe('orderings');
+    expect(m.outputs.filter((o) => outputGroup(o) === 'drifts').map((o) => o.name)).not.toContain('vTheta_e_ms');
   });
 
   it('groups stored columns: swept inputs, outputs, derived, flags; fixed inputs and the index have none', () => {
