@@ -90,7 +90,26 @@ describe('stored fit result', () => {
     const stride = Math.ceil(n / PLOT_MAX_POINTS);
     expect(s.plot.x.x![5]).toBe(x[5 * stride]);
     expect(s.plot.y[5]).toBe(y[5 * stride]);
-    expect(s.parameters.map((p) => p.unit)).toEqual(['m^-3', 'V']);
+    // x a potential in V: the scale s (= Te/e) in V reads as Te in eV (Boltzmann relation, Chen §3.5).
+    expect(s.parameters.map((p) => p.unit)).toEqual(['m^-3', 'eV']);
+  });
+
+  it("gives the power-law prefactor C the unit [y]·[x]^(−a) with the fitted exponent, and the scale s x's unit", () => {
+    // y = 2·B^-1.5 (dimensional homogeneity: [C] = [y]/[B]^a, common practice).
+    const B = [0.5, 1, 1.5, 2, 2.5, 3];
+    const y = B.map((b) => 2 * b ** -1.5);
+    const r = req({ model: 'power-law', y: 'y', x: 'B' });
+    const d = data({ y, B }, { y: 'm/s', B: 'T' });
+    const s = buildStoredResult(r, d, fitModel(engineInput(r, d).input), false);
+    expect(s.parameters.map((p) => [p.name, p.unit])).toEqual([
+      ['C', 'm/s * T^1.5'],
+      ['exp_B', '1'],
+    ]);
+    const e = req({ model: 'exponential', y: 'y', x: 'z' });
+    const z = [0, 1, 2, 3, 4];
+    const de = data({ y: z.map((v) => 3 * Math.exp(-v / 2)), z }, { y: 'm^-3', z: 'm' });
+    const se = buildStoredResult(e, de, fitModel(engineInput(e, de).input), false);
+    expect(se.parameters.map((p) => p.unit)).toEqual(['m^-3', 'm']);
   });
 
   it('leaves a power law of mixed sign to the engine, which refuses it naming y', () => {

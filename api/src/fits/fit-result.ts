@@ -1,4 +1,5 @@
 import {
+  fitParameterUnit,
   retardationRegion,
   tQuantile,
   type FitInput,
@@ -100,29 +101,14 @@ export function engineInput(req: FitRequest, data: FitData): { input: FitInput; 
   };
 }
 
-function paramUnit(req: FitRequest, name: string, units: Map<string, string>): string | null {
-  const xs = xNamesOf(req);
-  switch (req.model) {
-    case 'power-law':
-      return name === 'C' ? null : '1';
-    case 'exponential':
-      return name === 'A' ? units.get(req.y) || null : units.get(xs[0]!) || null;
-    case 'polytropic':
-      // n0 is the density scale, in y's unit (m^-3 for a density column); γ is a pure number.
-      if (name === 'n0') return units.get(req.y) || null;
-      return name === 'Te_eV' ? 'eV' : '1';
-    case 'probe-retarding':
-    case 'probe-double': {
-      const yu = units.get(req.y) || null;
-      const xu = units.get(xs[0]!) || null;
-      if (name === 'I_is') return yu;
-      if (name === 'V_f') return xu;
-      if (name === 'Te_eV') return 'eV';
-      return yu && xu ? `${yu}/${xu}` : null;
-    }
-    default:
-      return null;
-  }
+/** Parameter units from the model and the columns' units (one rule, shared with the ui: domain fitParameterUnit). */
+function paramUnit(req: FitRequest, name: string, units: Map<string, string>, r: FitResult): string | null {
+  const xNames = xNamesOf(req);
+  const values = Object.fromEntries(r.parameters.map((p) => [p.name, p.value]));
+  return fitParameterUnit(
+    { model: req.model, yUnit: units.get(req.y), xUnits: xNames.map((x) => units.get(x)), xNames, values },
+    name,
+  );
 }
 
 function sample(col: ArrayLike<number>, stride: number, m: number): (number | null)[] {
@@ -152,7 +138,7 @@ export function buildStoredResult(
       name: p.name,
       value: finite(value),
       stdError: finite(p.stdError),
-      unit: paramUnit(req, p.name, units),
+      unit: paramUnit(req, p.name, units, r),
       ci95:
         !p.fixed && Number.isFinite(half) && Number.isFinite(value) ? { low: value - half, high: value + half } : null,
       fixed: p.fixed,

@@ -15,3 +15,4 @@ export { regularizedBeta, tQuantile, tTwoSidedTail } from './stats/t-quantile.js
 export { chiSquareUpperTail } from './stats/chi-square.js';
 export { retardationRegion, type ProbeRegion } from './probe/region.js';
 export { probeDensity, DEFAULT_SHEATH_FACTOR, type ProbeGeometry, type DerivedQuantity } from './probe/density.js';
+export { fitParameterUnit, exponentialScaleIsTe, type ParamUnitContext } from './param-unit.js';

@@ -6,6 +6,7 @@ import { axis, baseOption } from '../FitPlot/FitPlot.js';
 import { useChart } from '../../lib/chart/useChart.js';
 import { Num } from '../Num/Num.js';
 import { FitStatus } from '../FitResult/FitStatus.js';
+import { parameterUnit } from '../FitResult/param-units.js';
 import { bestBy, residualSeries, sameData } from './compare-series.js';
 
 const PALETTE = ['#1f6f8b', '#c0612b', '#5b8c3a', '#8a4fa3', '#b8860b', '#4a5a66'];
@@ -81,10 +82,11 @@ export function FitCompare({ fits }: { fits: FitView[] }) {
                 row(name, (f) => {
                   const p = f.parameters?.find((q) => q.name === name);
                   if (!p) return '—';
+                  const unit = parameterUnit(f, p);
                   return (
                     <>
                       <Num value={p.value} sig={6} /> ± <Num value={p.stdError} sig={2} />
-                      {p.unit && p.unit !== '1' ? ` ${prettyUnit(p.unit)}` : ''}
+                      {unit && unit !== '1' ? ` ${prettyUnit(unit)}` : ''}
                       {p.fixed ? ' (fixed)' : ''}
                     </>
                   );

@@ -6,16 +6,7 @@ import { FitCorrelation } from './FitCorrelation.js';
 import { FitStatus } from './FitStatus.js';
 import { MODEL_LABEL, xList, type FitView } from './fit-types.js';
 import { formatDateTime } from '../../lib/formatDate.js';
-
-/** Readable parameter names: `exp_B_T` is "exponent of B_T". */
-function paramLabel(name: string): string {
-  if (name.startsWith('exp_')) return `exponent of ${name.slice(4)}`;
-  if (name === 'gamma') return 'γ (polytropic index)';
-  if (name === 'Te_eV') return 'Te';
-  if (name === 'I_is') return 'ion saturation current';
-  if (name === 'V_f') return 'floating potential';
-  return name;
-}
+import { parameterLabel, parameterUnit } from './param-units.js';
 
 function Stat({ label, children, testId }: { label: string; children: React.ReactNode; testId?: string }) {
   return (
@@ -126,10 +117,10 @@ export function FitResult({
                       <Text fz="sm" ff="monospace" span>
                         {p.name}
                       </Text>
-                      {paramLabel(p.name) !== p.name ? (
+                      {parameterLabel(fit, p.name) !== p.name ? (
                         <Text fz="xs" c="dimmed" span>
                           {' '}
-                          — {paramLabel(p.name)}
+                          — {parameterLabel(fit, p.name)}
                         </Text>
                       ) : null}
                       {p.fixed ? (
@@ -150,7 +141,7 @@ export function FitResult({
                         '—'
                       )}
                     </Table.Td>
-                    <Table.Td>{unitLabel(p.unit)}</Table.Td>
+                    <Table.Td data-testid={`fit-param-unit-${p.name}`}>{unitLabel(parameterUnit(fit, p))}</Table.Td>
                   </Table.Tr>
                 ))}
               </Table.Tbody>

@@ -49,7 +49,7 @@ const MODELS: { value: FitModel; label: string; hint: string }[] = [
   {
     value: 'exponential',
     label: 'Exponential  y = A·exp(x/s)',
-    hint: 'The Boltzmann form: with x = φ in V, the fitted s is Te in eV.',
+    hint: 'The Boltzmann form n = n₀·exp(φ/Te): A is in y’s unit and s is the e-folding scale in x’s unit; with x = φ in V, s is Te and is shown as Te in eV.',
   },
   {
     value: 'polytropic',
