@@ -3,7 +3,7 @@
  * data, |v_Di| ∝ Ti/(B·Ln) with 1 % multiplicative noise from a fixed congruential sequence;
  * (b) POST /api/fits on a Te × B × Ln grid sweep (vDe ∝ Te/(B·Ln)) when the route exists.
  */
-import { fitModel } from '../../../domain/dist/index.js';
+import { fitModel } from '@driftgrid/domain';
 import { apiJson } from '../../support/processes.js';
 import { runSweep } from '../lib/api.js';
 import type { BenchConfig } from '../lib/config.js';

@@ -9,7 +9,7 @@ import {
   DEFAULT_CHUNK_SIZE,
   getModel,
   type ModelDefinition,
-} from '../../../domain/dist/index.js';
+} from '@driftgrid/domain';
 import type { BenchConfig } from '../lib/config.js';
 import { columnProfileGrid, crossFieldGrid, parallelBalanceGrid } from '../lib/definitions.js';
 import type { Report } from '../lib/report.js';

@@ -4,7 +4,7 @@
  * sweep (the first sweep after a start pays one-off costs, reported apart). The api of the default
  * chunk size is kept running and handed back for the catalogue, export, storage and fit scenarios.
  */
-import { DEFAULT_CHUNK_SIZE } from '../../../domain/dist/index.js';
+import { DEFAULT_CHUNK_SIZE } from '@driftgrid/domain';
 import { checkpointedBytes, startApi, warmUp, type ApiHandle } from '../lib/api.js';
 import type { BenchConfig } from '../lib/config.js';
 import { crossFieldGrid } from '../lib/definitions.js';
