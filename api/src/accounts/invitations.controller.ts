@@ -1,7 +1,7 @@
 import { Body, Controller, Delete, Get, Param, Post, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiBody, ApiOperation, ApiTags } from '@nestjs/swagger';
 import { invitationRequestSchema, pageQuerySchema, type InvitationRequest, type PageQuery } from '@driftgrid/domain';
-import { IdParamPipe } from '../admin/id-param.pipe.js';
+import { IdParamPipe } from '../common/id-param.pipe.js';
 import { Roles } from '../auth/access.decorators.js';
 import { CurrentUser, type AuthUser } from '../auth/current-user.js';
 import { openApiSchema } from '../common/openapi.js';

@@ -11,7 +11,7 @@ import { CurrentUser, type AuthUser } from '../auth/current-user.js';
 import { openApiSchema } from '../common/openapi.js';
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
 import { AdminUsersService } from './admin-users.service.js';
-import { IdParamPipe } from './id-param.pipe.js';
+import { IdParamPipe } from '../common/id-param.pipe.js';
 
 @ApiTags('admin')
 @ApiBearerAuth()

@@ -5,7 +5,7 @@ import { Roles } from '../auth/access.decorators.js';
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
 import { MailRepository } from '../mail/mail.repository.js';
 import { MailService } from '../mail/mail.service.js';
-import { IdParamPipe } from './id-param.pipe.js';
+import { IdParamPipe } from '../common/id-param.pipe.js';
 
 /** The built-in mailbox: messages received by the in-process SMTP server (empty with a real relay). */
 @ApiTags('admin')

@@ -1,4 +1,4 @@
-import { Body, Controller, Get, Param, ParseIntPipe, Put, Query } from '@nestjs/common';
+import { Body, Controller, Get, Param, Put, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiBody, ApiOperation, ApiTags } from '@nestjs/swagger';
 import {
   foldSliceParams,
@@ -12,6 +12,7 @@ import {
   type SweepSharing,
 } from '@driftgrid/domain';
 import { Roles, SignedIn } from '../auth/access.decorators.js';
+import { IdParamPipe } from '../common/id-param.pipe.js';
 import { CurrentUser, type AuthUser } from '../auth/current-user.js';
 import { openApiSchema } from '../common/openapi.js';
 import { ClientSignal } from '../reads/client-signal.js';
@@ -43,7 +44,7 @@ export class CatalogueController {
   @ApiOperation({ summary: 'A page of result rows: sort=col:dir, filter={"col":{"gte":…}}, valid=true|false' })
   results(
     @CurrentUser() user: AuthUser,
-    @Param('id', ParseIntPipe) id: number,
+    @Param('id', new IdParamPipe()) id: number,
     @Query(new ZodValidationPipe(resultsQuerySchema, 'query')) q: ResultsQuery,
     @ClientSignal() signal: AbortSignal,
   ) {
@@ -58,7 +59,7 @@ export class CatalogueController {
   })
   series(
     @CurrentUser() user: AuthUser,
-    @Param('id', ParseIntPipe) id: number,
+    @Param('id', new IdParamPipe()) id: number,
     @Query(seriesQuery) q: SeriesQuery,
     @ClientSignal() signal: AbortSignal,
   ) {
@@ -73,7 +74,7 @@ export class CatalogueController {
   @ApiBody({ schema: openApiSchema(sweepSharingSchema) })
   share(
     @CurrentUser() user: AuthUser,
-    @Param('id', ParseIntPipe) id: number,
+    @Param('id', new IdParamPipe()) id: number,
     @Body(new ZodValidationPipe(sweepSharingSchema)) body: SweepSharing,
   ) {
     return this.catalogue.share(user, id, body);

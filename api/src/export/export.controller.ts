@@ -1,7 +1,7 @@
 import { Controller, Get, HttpCode, Param, Post, Req, Res } from '@nestjs/common';
 import { ApiBearerAuth, ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
 import type { Request, Response } from 'express';
-import { IdParamPipe } from '../admin/id-param.pipe.js';
+import { IdParamPipe } from '../common/id-param.pipe.js';
 import { Roles, SignedIn } from '../auth/access.decorators.js';
 import { CurrentUser, type AuthUser } from '../auth/current-user.js';
 import { Downloads } from './downloads.service.js';

@@ -1,8 +1,9 @@
-import { Body, Controller, Get, Param, ParseIntPipe, Post, Query, Res } from '@nestjs/common';
+import { Body, Controller, Get, Param, Post, Query, Res } from '@nestjs/common';
 import { ApiBearerAuth, ApiBody, ApiOperation, ApiTags } from '@nestjs/swagger';
 import { fitRequestSchema, type FitRequest } from '@driftgrid/domain';
 import type { Response } from 'express';
 import { Roles, SignedIn } from '../auth/access.decorators.js';
+import { IdParamPipe } from '../common/id-param.pipe.js';
 import { CurrentUser, type AuthUser } from '../auth/current-user.js';
 import { openApiSchema } from '../common/openapi.js';
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
@@ -42,7 +43,7 @@ export class FitsController {
   @Get(':id')
   @SignedIn()
   @ApiOperation({ summary: 'One fit with parameters, 95 % intervals, goodness of fit, plot data, status and progress' })
-  get(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number) {
+  get(@CurrentUser() user: AuthUser, @Param('id', new IdParamPipe()) id: number) {
     return this.fits.get(user, id);
   }
 }

@@ -9,7 +9,7 @@ import {
   type RoleQuotaPatch,
   type UserQuotaPatch,
 } from '@driftgrid/domain';
-import { IdParamPipe } from '../admin/id-param.pipe.js';
+import { IdParamPipe } from '../common/id-param.pipe.js';
 import { Roles } from '../auth/access.decorators.js';
 import { CurrentUser, type AuthUser } from '../auth/current-user.js';
 import { openApiSchema } from '../common/openapi.js';

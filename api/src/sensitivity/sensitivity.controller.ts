@@ -1,7 +1,8 @@
-import { Controller, Get, Param, ParseIntPipe, Query } from '@nestjs/common';
+import { Controller, Get, Param, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiOperation, ApiTags } from '@nestjs/swagger';
 import { sensitivityQuerySchema, type SensitivityQuery } from '@driftgrid/domain';
 import { SignedIn } from '../auth/access.decorators.js';
+import { IdParamPipe } from '../common/id-param.pipe.js';
 import { CurrentUser, type AuthUser } from '../auth/current-user.js';
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
 import { ClientSignal } from '../reads/client-signal.js';
@@ -21,7 +22,7 @@ export class SensitivityController {
   })
   report(
     @CurrentUser() user: AuthUser,
-    @Param('id', ParseIntPipe) id: number,
+    @Param('id', new IdParamPipe()) id: number,
     @Query(new ZodValidationPipe(sensitivityQuerySchema, 'query')) q: SensitivityQuery,
     @ClientSignal() signal: AbortSignal,
   ) {

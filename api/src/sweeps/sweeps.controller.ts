@@ -1,7 +1,8 @@
-import { Body, Controller, Delete, Get, HttpCode, Param, ParseIntPipe, Post } from '@nestjs/common';
+import { Body, Controller, Delete, Get, HttpCode, Param, Post } from '@nestjs/common';
 import { ApiBearerAuth, ApiBody, ApiOperation, ApiTags } from '@nestjs/swagger';
 import { sweepDefinitionSchema } from '@driftgrid/domain';
 import { Roles, SignedIn } from '../auth/access.decorators.js';
+import { IdParamPipe } from '../common/id-param.pipe.js';
 import { CurrentUser, type AuthUser } from '../auth/current-user.js';
 import { openApiSchema } from '../common/openapi.js';
 import { SweepsService } from './sweeps.service.js';
@@ -32,7 +33,7 @@ export class SweepsController {
   @Get(':id')
   @SignedIn()
   @ApiOperation({ summary: 'Definition, status, progress and provenance of a sweep' })
-  get(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number) {
+  get(@CurrentUser() user: AuthUser, @Param('id', new IdParamPipe()) id: number) {
     return this.sweeps.get(user, id);
   }
 
@@ -40,7 +41,7 @@ export class SweepsController {
   @HttpCode(200)
   @Roles('researcher', 'admin')
   @ApiOperation({ summary: 'Cancel a queued or running sweep (owner or admin)' })
-  cancel(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number) {
+  cancel(@CurrentUser() user: AuthUser, @Param('id', new IdParamPipe()) id: number) {
     return this.sweeps.cancel(user, id);
   }
 
@@ -48,7 +49,7 @@ export class SweepsController {
   @HttpCode(204)
   @Roles('researcher', 'admin')
   @ApiOperation({ summary: 'Delete a sweep and its results (owner or admin; archived sweeps cannot be deleted)' })
-  async remove(@CurrentUser() user: AuthUser, @Param('id', ParseIntPipe) id: number): Promise<void> {
+  async remove(@CurrentUser() user: AuthUser, @Param('id', new IdParamPipe()) id: number): Promise<void> {
     await this.sweeps.remove(user, id);
   }
 }

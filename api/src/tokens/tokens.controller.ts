@@ -7,7 +7,7 @@ import {
   type CreateTokenParsed,
   type PageQuery,
 } from '@driftgrid/domain';
-import { IdParamPipe } from '../admin/id-param.pipe.js';
+import { IdParamPipe } from '../common/id-param.pipe.js';
 import { SignedIn } from '../auth/access.decorators.js';
 import { CurrentUser, type AuthUser } from '../auth/current-user.js';
 import { openApiSchema } from '../common/openapi.js';
