@@ -1,5 +1,7 @@
 import { Alert, Anchor, Button, Center, Paper, PasswordInput, Stack, Text, TextInput, Title } from '@mantine/core';
-import { useEffect, useState, type FormEvent } from 'react';
+import { useForm } from '@mantine/form';
+import { zod4Resolver } from 'mantine-form-zod-resolver';
+import { useEffect, useState } from 'react';
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { acceptInviteSchema } from '@driftgrid/domain';
 import { useAcceptInvite } from '../api/accounts.js';
@@ -7,15 +9,30 @@ import { ApiError } from '../api/client.js';
 import { ctrlEnter } from '../components/AdminShared/ctrlEnter.js';
 import { NameMark } from '../components/NameMark/NameMark.js';
 
+type Values = { name: string; password: string; repeat: string };
+
+const checkAccept = zod4Resolver(acceptInviteSchema);
+
 /** Accept an invitation from the e-mail link (`/accept-invite?token=…`): choose a name and password, then signed in. */
 export default function AcceptInvitePage() {
   const [params] = useSearchParams();
   const token = params.get('token') ?? '';
   const navigate = useNavigate();
-  const [name, setName] = useState('');
-  const [password, setPassword] = useState('');
-  const [repeat, setRepeat] = useState('');
-  const [errors, setErrors] = useState<{ name?: string; password?: string; repeat?: string; form?: string }>({});
+  const validate = (v: Values): Record<string, string> => {
+    const errors = checkAccept({ token, name: v.name, password: v.password }) as Record<string, string>;
+    // The token comes from the link, not a field: its problem is said in the alert below the fields.
+    if (errors.token) errors.token = 'This invitation link is incomplete; open the link from the e-mail again.';
+    if (v.password !== v.repeat) errors.repeat = 'does not match the password';
+    return errors;
+  };
+  const form = useForm<Values>({
+    mode: 'controlled',
+    initialValues: { name: '', password: '', repeat: '' },
+    validate,
+    // Errors appear once a field was left or the form submitted, never before anything is typed.
+    validateInputOnBlur: true,
+  });
+  const [formError, setFormError] = useState<string | null>(null);
   useEffect(() => {
     document.title = 'Accept invitation · Driftgrid';
   }, []);
@@ -24,33 +41,18 @@ export default function AcceptInvitePage() {
       void navigate('/', { replace: true });
     },
     onError: (err) => {
-      if (err instanceof ApiError)
-        setErrors({
-          name: err.detailFor('name'),
-          password: err.detailFor('password'),
-          form: err.detailFor('name') || err.detailFor('password') ? undefined : err.message,
-        });
-      else setErrors({ form: 'The invitation could not be accepted' });
+      if (err instanceof ApiError && (err.detailFor('name') || err.detailFor('password'))) {
+        form.setErrors({ name: err.detailFor('name'), password: err.detailFor('password') });
+        setFormError(null);
+      } else setFormError(err instanceof ApiError ? err.message : 'The invitation could not be accepted');
     },
   });
-  const submit = () => {
-    const parsed = acceptInviteSchema.safeParse({ token, name, password });
-    const e: typeof errors = {};
-    if (!parsed.success)
-      for (const i of parsed.error.issues)
-        (e as Record<string, string>)[String(i.path[0]) === 'token' ? 'form' : String(i.path[0])] ??=
-          i.path[0] === 'token'
-            ? 'This invitation link is incomplete; open the link from the e-mail again.'
-            : i.message;
-    if (password !== repeat) e.repeat = 'does not match the password';
-    setErrors(e);
-    if (Object.keys(e).length || !parsed.success) return;
-    accept.mutate(parsed.data);
-  };
-  const onSubmit = (ev: FormEvent) => {
-    ev.preventDefault();
-    submit();
-  };
+  // Validated: parse only applies the schema's trimming.
+  const submit = form.onSubmit((v) => {
+    setFormError(null);
+    accept.mutate(acceptInviteSchema.parse({ token, name: v.name, password: v.password }));
+  });
+  const alert = formError ?? (typeof form.errors.token === 'string' ? form.errors.token : null);
   return (
     <Center mih="100vh" px="md">
       <Stack w="100%" maw={420} gap="lg">
@@ -63,8 +65,8 @@ export default function AcceptInvitePage() {
           p="lg"
           radius="md"
           component="form"
-          onSubmit={onSubmit}
-          onKeyDown={ctrlEnter(submit)}
+          onSubmit={submit}
+          onKeyDown={ctrlEnter(() => submit())}
           noValidate
           aria-labelledby="accept-title"
         >
@@ -81,34 +83,23 @@ export default function AcceptInvitePage() {
             {!token ? (
               <Alert color="red">This page needs the link from your invitation e-mail (it ends in ?token=…).</Alert>
             ) : null}
-            <TextInput
-              label="Your name"
-              value={name}
-              onChange={(e) => setName(e.currentTarget.value)}
-              error={errors.name}
-              autoComplete="name"
-              required
-            />
+            <TextInput label="Your name" {...form.getInputProps('name')} autoComplete="name" required />
             <PasswordInput
               label="Password"
               description="At least 10 characters."
-              value={password}
-              onChange={(e) => setPassword(e.currentTarget.value)}
-              error={errors.password}
+              {...form.getInputProps('password')}
               autoComplete="new-password"
               required
             />
             <PasswordInput
               label="Password again"
-              value={repeat}
-              onChange={(e) => setRepeat(e.currentTarget.value)}
-              error={errors.repeat}
+              {...form.getInputProps('repeat')}
               autoComplete="new-password"
               required
             />
-            {errors.form ? (
+            {alert ? (
               <Alert color="red" role="alert">
-                {errors.form}
+                {alert}
               </Alert>
             ) : null}
             <Button type="submit" loading={accept.isPending} disabled={!token}>

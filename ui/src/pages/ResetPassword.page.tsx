@@ -1,5 +1,7 @@
 import { Alert, Anchor, Button, Center, Paper, PasswordInput, Stack, Text, TextInput, Title } from '@mantine/core';
-import { useEffect, useState, type FormEvent } from 'react';
+import { useForm } from '@mantine/form';
+import { zod4Resolver } from 'mantine-form-zod-resolver';
+import { useEffect, useState } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
 import { passwordResetConfirmSchema, passwordResetRequestSchema } from '@driftgrid/domain';
 import { useConfirmPasswordReset, useRequestPasswordReset } from '../api/accounts.js';
@@ -7,42 +9,35 @@ import { ApiError } from '../api/client.js';
 import { ctrlEnter } from '../components/AdminShared/ctrlEnter.js';
 import { NameMark } from '../components/NameMark/NameMark.js';
 
+const checkRequest = zod4Resolver(passwordResetRequestSchema);
+const checkConfirm = zod4Resolver(passwordResetConfirmSchema);
+
+// Errors appear once a field was left or the form submitted, never before anything is typed.
+const SHOW_AFTER_TOUCH = { mode: 'controlled', validateInputOnBlur: true } as const;
+
 function RequestForm() {
-  const [email, setEmail] = useState('');
-  const [error, setError] = useState<string | undefined>();
+  const form = useForm<{ email: string }>({
+    ...SHOW_AFTER_TOUCH,
+    initialValues: { email: '' },
+    validate: (v) => checkRequest(v) as Record<string, string>,
+  });
   const request = useRequestPasswordReset({
     onError: (err) =>
-      setError(err instanceof ApiError ? (err.detailFor('email') ?? err.message) : 'The request could not be sent'),
+      form.setFieldError(
+        'email',
+        err instanceof ApiError ? (err.detailFor('email') ?? err.message) : 'The request could not be sent',
+      ),
   });
-  const submit = () => {
-    const parsed = passwordResetRequestSchema.safeParse({ email });
-    if (!parsed.success) return setError(parsed.error.issues[0]?.message);
-    setError(undefined);
-    request.mutate(parsed.data);
-  };
+  // Validated: parse only applies the schema's trimming and lower-casing.
+  const submit = form.onSubmit((v) => request.mutate(passwordResetRequestSchema.parse(v)));
   return (
-    <form
-      onSubmit={(e: FormEvent) => {
-        e.preventDefault();
-        submit();
-      }}
-      onKeyDown={ctrlEnter(submit)}
-      noValidate
-      aria-label="Ask for a reset link"
-    >
+    <form onSubmit={submit} onKeyDown={ctrlEnter(() => submit())} noValidate aria-label="Ask for a reset link">
       <Stack gap="md">
         <Text fz="sm" c="dimmed">
           Enter the e-mail address of your account. We send a link that lets you choose a new password; it works once,
           for one hour.
         </Text>
-        <TextInput
-          label="E-mail address"
-          value={email}
-          onChange={(e) => setEmail(e.currentTarget.value)}
-          error={error}
-          autoComplete="email"
-          required
-        />
+        <TextInput label="E-mail address" {...form.getInputProps('email')} autoComplete="email" required />
         {request.isSuccess ? <Alert color="green">{request.data.message}</Alert> : null}
         <Button type="submit" loading={request.isPending}>
           Send the reset link
@@ -52,29 +47,31 @@ function RequestForm() {
   );
 }
 
+type ConfirmValues = { password: string; repeat: string };
+
 function ConfirmForm({ token }: { token: string }) {
-  const [password, setPassword] = useState('');
-  const [repeat, setRepeat] = useState('');
-  const [errors, setErrors] = useState<{ password?: string; repeat?: string; form?: string }>({});
+  /** The domain's confirm schema (token + password), plus the repeat field only this form has. */
+  const validate = (v: ConfirmValues): Record<string, string> => {
+    const errors = checkConfirm({ token, password: v.password }) as Record<string, string>;
+    // The token comes from the link, not a field: its problem is said in the alert below the fields.
+    if (errors.token) errors.token = 'This reset link is incomplete; open the link from the e-mail again.';
+    if (v.password !== v.repeat) errors.repeat = 'does not match the new password';
+    return errors;
+  };
+  const form = useForm<ConfirmValues>({ ...SHOW_AFTER_TOUCH, initialValues: { password: '', repeat: '' }, validate });
+  const [formError, setFormError] = useState<string | null>(null);
   const confirm = useConfirmPasswordReset({
     onError: (err) => {
-      if (err instanceof ApiError)
-        setErrors({ password: err.detailFor('password'), form: err.detailFor('password') ? undefined : err.message });
-      else setErrors({ form: 'The password could not be changed' });
+      if (err instanceof ApiError && err.detailFor('password')) {
+        form.setFieldError('password', err.detailFor('password'));
+        setFormError(null);
+      } else setFormError(err instanceof ApiError ? err.message : 'The password could not be changed');
     },
   });
-  const submit = () => {
-    const parsed = passwordResetConfirmSchema.safeParse({ token, password });
-    const e: typeof errors = {};
-    if (!parsed.success)
-      for (const i of parsed.error.issues)
-        (e as Record<string, string>)[i.path[0] === 'token' ? 'form' : 'password'] ??=
-          i.path[0] === 'token' ? 'This reset link is incomplete; open the link from the e-mail again.' : i.message;
-    if (password !== repeat) e.repeat = 'does not match the new password';
-    setErrors(e);
-    if (Object.keys(e).length || !parsed.success) return;
-    confirm.mutate(parsed.data);
-  };
+  const submit = form.onSubmit((v) => {
+    setFormError(null);
+    confirm.mutate(passwordResetConfirmSchema.parse({ token, password: v.password }));
+  });
   if (confirm.isSuccess) {
     return (
       <Stack gap="md">
@@ -85,37 +82,26 @@ function ConfirmForm({ token }: { token: string }) {
       </Stack>
     );
   }
+  const alert = formError ?? (typeof form.errors.token === 'string' ? form.errors.token : null);
   return (
-    <form
-      onSubmit={(e: FormEvent) => {
-        e.preventDefault();
-        submit();
-      }}
-      onKeyDown={ctrlEnter(submit)}
-      noValidate
-      aria-label="Choose a new password"
-    >
+    <form onSubmit={submit} onKeyDown={ctrlEnter(() => submit())} noValidate aria-label="Choose a new password">
       <Stack gap="md">
         <PasswordInput
           label="New password"
           description="At least 10 characters."
-          value={password}
-          onChange={(e) => setPassword(e.currentTarget.value)}
-          error={errors.password}
+          {...form.getInputProps('password')}
           autoComplete="new-password"
           required
         />
         <PasswordInput
           label="New password again"
-          value={repeat}
-          onChange={(e) => setRepeat(e.currentTarget.value)}
-          error={errors.repeat}
+          {...form.getInputProps('repeat')}
           autoComplete="new-password"
           required
         />
-        {errors.form ? (
+        {alert ? (
           <Alert color="red" role="alert">
-            {errors.form}{' '}
+            {alert}{' '}
             <Anchor component={Link} to="/reset-password">
               Ask for a new link
             </Anchor>

@@ -106,6 +106,23 @@ describe('SignInPage', () => {
     expect(fetchMock).not.toHaveBeenCalled();
   });
 
+  it("checks the address with the domain's login schema: nothing before typing, the error beside the field once left", async () => {
+    renderAt('/sign-in');
+    expect(screen.queryByText('must be an e-mail address')).toBeNull();
+    const email = screen.getByLabelText('Email');
+    fireEvent.change(email, { target: { value: 'researcher-at-example' } });
+    expect(screen.queryByText('must be an e-mail address')).toBeNull();
+    fireEvent.blur(email);
+    const error = await screen.findByText('must be an e-mail address');
+    // Mantine links the error to its input (aria-describedby), so it sits beside the field it names.
+    expect(error.id).not.toBe('');
+    expect(email.getAttribute('aria-describedby') ?? '').toContain(error.id);
+    fireEvent.change(screen.getByLabelText('Password'), { target: { value: 'driftgrid-demo' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Sign in' }));
+    expect(await screen.findByText('must be an e-mail address')).toBeTruthy();
+    expect(fetchMock).not.toHaveBeenCalled();
+  });
+
   it("submits with Enter: the button is the form's submit button", () => {
     renderAt('/sign-in');
     const button = screen.getByRole('button', { name: 'Sign in' });

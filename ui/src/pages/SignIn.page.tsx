@@ -12,8 +12,11 @@ import {
   TextInput,
   Title,
 } from '@mantine/core';
+import { useForm } from '@mantine/form';
 import { IconAlertCircle, IconClock } from '@tabler/icons-react';
-import { useEffect, useState, type FormEvent } from 'react';
+import { zod4Resolver } from 'mantine-form-zod-resolver';
+import { useEffect, useState } from 'react';
+import { loginRequestSchema } from '@driftgrid/domain';
 import { Link, Navigate, useNavigate, useSearchParams } from 'react-router-dom';
 import { useLogin } from '../api/auth.js';
 import { ApiError } from '../api/client.js';
@@ -22,6 +25,18 @@ import { resetSessionExpired, sessionExpired, useSession } from '../auth/session
 import { NameMark } from '../components/NameMark/NameMark.js';
 import { CautionNote } from '../components/Shell/CautionNote.js';
 import { ColorSchemeToggle } from '../components/Shell/ColorSchemeToggle.js';
+
+type Values = { email: string; password: string };
+
+const checkRequest = zod4Resolver(loginRequestSchema);
+
+/** The domain's login schema; an empty field is named in the user's words rather than as "required". */
+function validate(v: Values): Record<string, string> {
+  const errors = checkRequest(v) as Record<string, string>;
+  if (!v.email.trim()) errors.email = 'Enter the email address your account uses';
+  if (!v.password) errors.password = 'Enter your password';
+  return errors;
+}
 
 function messageOf(error: unknown): string {
   if (error instanceof ApiError) return error.message;
@@ -34,9 +49,13 @@ export default function SignInPage() {
   const navigate = useNavigate();
   const session = useSession();
   const loginMutation = useLogin();
-  const [email, setEmail] = useState('');
-  const [password, setPassword] = useState('');
-  const [fieldErrors, setFieldErrors] = useState<{ email?: string; password?: string }>({});
+  const form = useForm<Values>({
+    mode: 'controlled',
+    initialValues: { email: '', password: '' },
+    validate,
+    // Errors appear once a field was left or the form submitted, never before anything is typed.
+    validateInputOnBlur: true,
+  });
   const [expired] = useState(sessionExpired);
 
   useEffect(() => {
@@ -46,17 +65,9 @@ export default function SignInPage() {
   // Already signed in (another tab, or the back button): go where the user was heading.
   if (session && !loginMutation.isPending && !loginMutation.isSuccess) return <Navigate to={next} replace />;
 
-  const onSubmit = (e: FormEvent) => {
-    e.preventDefault();
-    const errors: typeof fieldErrors = {};
-    const trimmed = email.trim();
-    if (!trimmed) errors.email = 'Enter the email address your account uses';
-    else if (!/^[^\s@]+@[^\s@]+$/.test(trimmed)) errors.email = 'This does not look like an email address';
-    if (!password) errors.password = 'Enter your password';
-    setFieldErrors(errors);
-    if (errors.email || errors.password) return;
+  const onSubmit = form.onSubmit((v) => {
     loginMutation.mutate(
-      { email: trimmed, password },
+      { email: v.email.trim(), password: v.password },
       {
         onSuccess: () => {
           resetSessionExpired();
@@ -64,7 +75,7 @@ export default function SignInPage() {
         },
       },
     );
-  };
+  });
 
   return (
     <Box mih="100vh" style={{ display: 'flex', flexDirection: 'column' }}>
@@ -114,17 +125,13 @@ export default function SignInPage() {
                   name="email"
                   autoComplete="username"
                   autoFocus
-                  value={email}
-                  onChange={(e) => setEmail(e.currentTarget.value)}
-                  error={fieldErrors.email}
+                  {...form.getInputProps('email')}
                 />
                 <PasswordInput
                   label="Password"
                   name="password"
                   autoComplete="current-password"
-                  value={password}
-                  onChange={(e) => setPassword(e.currentTarget.value)}
-                  error={fieldErrors.password}
+                  {...form.getInputProps('password')}
                   visibilityToggleButtonProps={{ 'aria-label': 'Show or hide the typed characters' }}
                 />
                 <Button type="submit" fullWidth loading={loginMutation.isPending}>

@@ -1,6 +1,9 @@
 import { Alert, Button, CopyButton, Group, Paper, Select, Table, Text, TextInput, Code } from '@mantine/core';
 import { IconCheck, IconCopy, IconKey } from '@tabler/icons-react';
-import { useState, type FormEvent } from 'react';
+import { useForm } from '@mantine/form';
+import { zod4Resolver } from 'mantine-form-zod-resolver';
+import { useState } from 'react';
+import { createTokenSchema, type TokenScope } from '@driftgrid/domain';
 import { ApiError } from '../api/client.js';
 import {
   useCreateToken,
@@ -22,6 +25,27 @@ const EXPIRY = [
   { value: 'never', label: 'Never' },
 ];
 
+type Values = { name: string; scope: TokenScope; expiry: string };
+
+/** The request the form stands for: the expiry choice becomes an ISO date-time (or null for never). */
+function requestOf(v: Values): { name: string; scope: TokenScope; expiresAt: string | null } {
+  return {
+    name: v.name.trim(),
+    scope: v.scope,
+    expiresAt: v.expiry === 'never' ? null : new Date(Date.now() + Number(v.expiry) * 86_400_000).toISOString(),
+  };
+}
+
+const checkRequest = zod4Resolver(createTokenSchema);
+
+/** The domain's token schema; its expiresAt error shows beside "Expires after", an empty name in the user's words. */
+function validate(v: Values): Record<string, string> {
+  const { expiresAt, ...errors } = checkRequest(requestOf(v)) as Record<string, string>;
+  if (expiresAt) errors.expiry = expiresAt;
+  if (!v.name.trim()) errors.name = 'Give the token a name, e.g. the script or machine that uses it';
+  return errors;
+}
+
 function state(t: ApiTokenSummary): 'active' | 'expired' | 'revoked' {
   if (t.revokedAt) return 'revoked';
   if (t.expiresAt !== null && t.expiresAt <= Date.now()) return 'expired';
@@ -31,43 +55,39 @@ function state(t: ApiTokenSummary): 'active' | 'expired' | 'revoked' {
 /** Personal API tokens: create (secret shown once, with a copy button), list and revoke. */
 export default function TokensPage() {
   const list = useTokens();
-  const [name, setName] = useState('');
-  const [scope, setScope] = useState<'read' | 'read-write'>('read');
-  const [expiry, setExpiry] = useState('90');
-  const [errors, setErrors] = useState<{ name?: string; scope?: string; expiresAt?: string; form?: string }>({});
+  const form = useForm<Values>({
+    mode: 'controlled',
+    initialValues: { name: '', scope: 'read', expiry: '90' },
+    validate,
+    // Errors appear once a field was left or the form submitted, never before anything is typed.
+    validateInputOnBlur: true,
+  });
+  const [formError, setFormError] = useState<string | null>(null);
   const [created, setCreated] = useState<CreatedApiToken | null>(null);
   const create = useCreateToken({
     onSuccess: (t) => {
       setCreated(t);
-      setName('');
+      form.setFieldValue('name', '');
+      form.resetTouched();
     },
     onError: (err) => {
-      if (err instanceof ApiError)
-        setErrors({
+      if (err instanceof ApiError && err.details.length) {
+        form.setErrors({
           name: err.detailFor('name'),
           scope: err.detailFor('scope'),
-          expiresAt: err.detailFor('expiresAt'),
-          form: err.details.length ? undefined : err.message,
+          expiry: err.detailFor('expiresAt'),
         });
-      else setErrors({ form: 'The token could not be created' });
+        setFormError(null);
+      } else setFormError(err instanceof ApiError ? err.message : 'The token could not be created');
     },
   });
   const revoke = useRevokeToken();
 
-  const submit = () => {
-    if (!name.trim()) return setErrors({ name: 'Give the token a name, e.g. the script or machine that uses it' });
-    setErrors({});
+  const submit = form.onSubmit((v) => {
+    setFormError(null);
     setCreated(null);
-    create.mutate({
-      name: name.trim(),
-      scope,
-      expiresAt: expiry === 'never' ? null : new Date(Date.now() + Number(expiry) * 86_400_000).toISOString(),
-    });
-  };
-  const onSubmit = (e: FormEvent) => {
-    e.preventDefault();
-    submit();
-  };
+    create.mutate(requestOf(v));
+  });
   const items = list.data?.items ?? [];
 
   return (
@@ -81,8 +101,8 @@ export default function TokensPage() {
         p="md"
         mb="md"
         component="form"
-        onSubmit={onSubmit}
-        onKeyDown={ctrlEnter(submit)}
+        onSubmit={submit}
+        onKeyDown={ctrlEnter(() => submit())}
         noValidate
         aria-label="Create a token"
       >
@@ -90,9 +110,7 @@ export default function TokensPage() {
           <TextInput
             label="Name"
             placeholder="analysis notebook"
-            value={name}
-            onChange={(e) => setName(e.currentTarget.value)}
-            error={errors.name}
+            {...form.getInputProps('name')}
             w={260}
             maxLength={80}
             required
@@ -103,21 +121,11 @@ export default function TokensPage() {
               { value: 'read', label: 'Read only' },
               { value: 'read-write', label: 'Read and write' },
             ]}
-            value={scope}
-            onChange={(v) => v && setScope(v as 'read' | 'read-write')}
+            {...form.getInputProps('scope')}
             allowDeselect={false}
-            error={errors.scope}
             w={170}
           />
-          <Select
-            label="Expires after"
-            data={EXPIRY}
-            value={expiry}
-            onChange={(v) => v && setExpiry(v)}
-            allowDeselect={false}
-            error={errors.expiresAt}
-            w={150}
-          />
+          <Select label="Expires after" data={EXPIRY} {...form.getInputProps('expiry')} allowDeselect={false} w={150} />
           <Button type="submit" mt={25} loading={create.isPending} leftSection={<IconKey size={16} />}>
             Create token
           </Button>
@@ -126,9 +134,9 @@ export default function TokensPage() {
           Read-only tokens can list, read and download; read-and-write tokens can also submit and change work.
           Ctrl+Enter creates.
         </Text>
-        {errors.form ? (
+        {formError ? (
           <Alert color="red" mt="sm">
-            {errors.form}
+            {formError}
           </Alert>
         ) : null}
       </Paper>

@@ -1,5 +1,7 @@
 import { Alert, Button, Group, Pagination, Paper, Select, Table, Text, TextInput } from '@mantine/core';
-import { useState, type FormEvent } from 'react';
+import { useForm } from '@mantine/form';
+import { zod4Resolver } from 'mantine-form-zod-resolver';
+import { useState } from 'react';
 import { invitationRequestSchema } from '@driftgrid/domain';
 import { ApiError } from '../../api/client.js';
 import { useInvitations, useInvite, useRevokeInvitation } from '../../api/admin.js';
@@ -9,11 +11,20 @@ import { formatDateTime } from '../../lib/formatDate.js';
 import { ctrlEnter } from '../AdminShared/ctrlEnter.js';
 import { StateBadge } from '../StatusBadge/StateBadge.js';
 
+type Values = { email: string; role: Role };
+
+const checkInvite = zod4Resolver(invitationRequestSchema);
+
 /** Invite by e-mail with a role (the link is valid 7 days, once), and the list of invitations. */
 export function AdminInvitations() {
-  const [email, setEmail] = useState('');
-  const [role, setRole] = useState<Role>('researcher');
-  const [errors, setErrors] = useState<{ email?: string; role?: string; form?: string }>({});
+  const form = useForm<Values>({
+    mode: 'controlled',
+    initialValues: { email: '', role: 'researcher' },
+    validate: (v) => checkInvite(v) as Record<string, string>,
+    // Errors appear once a field was left or the form submitted, never before anything is typed.
+    validateInputOnBlur: true,
+  });
+  const [formError, setFormError] = useState<string | null>(null);
   const [sent, setSent] = useState<string | null>(null);
   const [page, setPage] = useState(1);
   const list = useInvitations(page);
@@ -24,36 +35,27 @@ export function AdminInvitations() {
           ? `Invitation for ${inv.email} saved, but the mail could not be sent; check the mail settings.`
           : `Invitation sent to ${inv.email}.`,
       );
-      setEmail('');
+      form.setFieldValue('email', '');
+      form.resetTouched();
     },
     onError: (err) => {
-      if (err instanceof ApiError)
-        setErrors({
-          email: err.detailFor('email'),
-          role: err.detailFor('role'),
-          form: err.detailFor('email') ? undefined : err.message,
-        });
-      else setErrors({ form: 'The invitation could not be sent' });
+      if (err instanceof ApiError && (err.detailFor('email') || err.detailFor('role'))) {
+        form.setErrors({ email: err.detailFor('email'), role: err.detailFor('role') });
+        setFormError(null);
+      } else setFormError(err instanceof ApiError ? err.message : 'The invitation could not be sent');
     },
   });
   const revoke = useRevokeInvitation();
 
-  const submit = () => {
-    setSent(null);
-    const parsed = invitationRequestSchema.safeParse({ email, role });
-    if (!parsed.success) {
-      const e: typeof errors = {};
-      for (const i of parsed.error.issues) e[String(i.path[0]) as 'email' | 'role'] = i.message;
-      setErrors(e);
-      return;
-    }
-    setErrors({});
-    invite.mutate(parsed.data);
-  };
-  const onSubmit = (e: FormEvent) => {
-    e.preventDefault();
-    submit();
-  };
+  const submit = form.onSubmit(
+    (v) => {
+      setSent(null);
+      setFormError(null);
+      // Validated: parse only applies the schema's trimming and lower-casing.
+      invite.mutate(invitationRequestSchema.parse(v));
+    },
+    () => setSent(null),
+  );
 
   return (
     <>
@@ -62,8 +64,8 @@ export function AdminInvitations() {
         p="md"
         mb="md"
         component="form"
-        onSubmit={onSubmit}
-        onKeyDown={ctrlEnter(submit)}
+        onSubmit={submit}
+        onKeyDown={ctrlEnter(() => submit())}
         noValidate
         aria-label="Invite someone"
       >
@@ -71,19 +73,15 @@ export function AdminInvitations() {
           <TextInput
             label="E-mail address"
             placeholder="colleague@university.example"
-            value={email}
-            onChange={(e) => setEmail(e.currentTarget.value)}
-            error={errors.email}
+            {...form.getInputProps('email')}
             w={300}
             required
           />
           <Select
             label="Role"
             data={ROLES.map((r) => ({ value: r, label: r }))}
-            value={role}
-            onChange={(v) => v && setRole(v as Role)}
+            {...form.getInputProps('role')}
             allowDeselect={false}
-            error={errors.role}
             w={160}
           />
           <Button type="submit" mt={25} loading={invite.isPending}>
@@ -94,9 +92,9 @@ export function AdminInvitations() {
           The invitee gets a link valid for 7 days that works once; they choose their name and password. Ctrl+Enter
           sends.
         </Text>
-        {errors.form ? (
+        {formError ? (
           <Alert color="red" mt="sm">
-            {errors.form}
+            {formError}
           </Alert>
         ) : null}
         {sent ? (
