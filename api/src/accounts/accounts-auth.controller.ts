@@ -16,7 +16,7 @@ import { openApiSchema } from '../common/openapi.js';
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
 import { InvitationsService } from './invitations.service.js';
 import { LoginThrottleGuard } from './login-throttle.js';
-import { PasswordsService } from './passwords.service.js';
+import { PasswordChangeService } from './password-change.service.js';
 
 /** Account routes under /api/auth: accept an invitation, reset and change the password. */
 @ApiTags('auth')
@@ -24,7 +24,7 @@ import { PasswordsService } from './passwords.service.js';
 export class AccountsAuthController {
   constructor(
     private readonly invitations: InvitationsService,
-    private readonly passwords: PasswordsService,
+    private readonly passwordChanges: PasswordChangeService,
   ) {}
 
   @Post('accept-invite')
@@ -44,7 +44,7 @@ export class AccountsAuthController {
   @ApiOperation({ summary: 'Mail a reset link; the same answer whether or not the address has an account' })
   @ApiBody({ schema: openApiSchema(passwordResetRequestSchema) })
   requestReset(@Body(new ZodValidationPipe(passwordResetRequestSchema)) body: PasswordResetRequest) {
-    return this.passwords.requestReset(body);
+    return this.passwordChanges.requestReset(body);
   }
 
   @Post('password-reset/confirm')
@@ -54,7 +54,7 @@ export class AccountsAuthController {
   @ApiOperation({ summary: 'Set a new password with the token from the reset link' })
   @ApiBody({ schema: openApiSchema(passwordResetConfirmSchema) })
   confirmReset(@Body(new ZodValidationPipe(passwordResetConfirmSchema)) body: PasswordResetConfirm) {
-    return this.passwords.confirmReset(body);
+    return this.passwordChanges.confirmReset(body);
   }
 
   @Post('password')
@@ -67,6 +67,6 @@ export class AccountsAuthController {
     @CurrentUser() user: AuthUser,
     @Body(new ZodValidationPipe(changePasswordSchema)) body: ChangePasswordRequest,
   ) {
-    return this.passwords.change(user, body);
+    return this.passwordChanges.change(user, body);
   }
 }

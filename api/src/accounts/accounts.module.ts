@@ -6,13 +6,13 @@ import { AccountsRepository } from './accounts.repository.js';
 import { InvitationsController } from './invitations.controller.js';
 import { InvitationsService } from './invitations.service.js';
 import { LoginThrottleGuard, LoginThrottlerModule } from './login-throttle.js';
-import { PasswordsService } from './passwords.service.js';
+import { PasswordChangeService } from './password-change.service.js';
 
 /** Invitations, password reset and change of password. */
 @Module({
   imports: [AuthModule, AuditModule, LoginThrottlerModule],
   controllers: [AccountsAuthController, InvitationsController],
-  providers: [AccountsRepository, InvitationsService, PasswordsService, LoginThrottleGuard],
-  exports: [PasswordsService],
+  providers: [AccountsRepository, InvitationsService, PasswordChangeService, LoginThrottleGuard],
+  exports: [PasswordChangeService],
 })
 export class AccountsModule {}

@@ -14,7 +14,7 @@ import {
 import { AuditService } from '../admin/audit.service.js';
 import { AuthService } from '../auth/auth.service.js';
 import type { AuthUser } from '../auth/current-user.js';
-import { PasswordService } from '../auth/password.service.js';
+import { PasswordHasher } from '../auth/password-hasher.js';
 import { Clock } from '../common/clock.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
 import { DB_HANDLE } from '../db/db.module.js';
@@ -42,7 +42,7 @@ export class InvitationsService {
     @Inject(DB_HANDLE) private readonly handle: OpenedDatabase,
     private readonly repo: AccountsRepository,
     private readonly users: UsersRepository,
-    private readonly passwords: PasswordService,
+    private readonly hasher: PasswordHasher,
     private readonly auth: AuthService,
     private readonly mail: MailService,
     private readonly audit: AuditService,
@@ -138,7 +138,7 @@ export class InvitationsService {
   /** Creates the account, marks the invitation used and signs the new user in. */
   async accept(req: AcceptInviteRequest): Promise<LoginResponse> {
     this.usable(req.token);
-    const passwordHash = await this.passwords.hash(req.password);
+    const passwordHash = await this.hasher.hash(req.password);
     // Re-check after the (asynchronous) hashing, inside one transaction: a token is used once.
     const user = this.handle.sqlite.transaction(() => {
       const inv = this.usable(req.token);

@@ -11,7 +11,7 @@ import { AuthController } from './auth.controller.js';
 import { AuthService } from './auth.service.js';
 import { JwtStrategy } from './jwt.strategy.js';
 import { AccountFacts, MeService } from './me.service.js';
-import { PasswordService } from './password.service.js';
+import { PasswordHasher } from './password-hasher.js';
 import { TokenAuthenticator } from './token-authenticator.js';
 
 @Module({
@@ -29,7 +29,7 @@ import { TokenAuthenticator } from './token-authenticator.js';
   controllers: [AuthController],
   providers: [
     AuthService,
-    PasswordService,
+    PasswordHasher,
     JwtStrategy,
     MeService,
     // Both come from global modules (tokens, quotas) registered by PeopleModule.
@@ -37,6 +37,6 @@ import { TokenAuthenticator } from './token-authenticator.js';
     { provide: AccountFacts, useExisting: QuotaAccountFacts },
     { provide: APP_GUARD, useClass: AccessGuard },
   ],
-  exports: [AuthService, PasswordService, JwtModule],
+  exports: [AuthService, PasswordHasher, JwtModule],
 })
 export class AuthModule {}

@@ -3,7 +3,7 @@ import { JwtService } from '@nestjs/jwt';
 import type { LoginRequest, LoginResponse, PublicUser } from '@driftgrid/domain';
 import { Clock } from '../common/clock.js';
 import { UsersRepository, type UserRow } from '../users/users.repository.js';
-import { PasswordService } from './password.service.js';
+import { PasswordHasher } from './password-hasher.js';
 
 export function toPublicUser(u: UserRow): PublicUser {
   return { id: u.id, email: u.email, name: u.name, role: u.role };
@@ -18,14 +18,14 @@ const BAD_CREDENTIALS = 'Wrong e-mail or password, or the account is locked for 
 export class AuthService {
   constructor(
     private readonly users: UsersRepository,
-    private readonly passwords: PasswordService,
+    private readonly hasher: PasswordHasher,
     private readonly jwt: JwtService,
     private readonly clock: Clock,
   ) {}
 
   async login(req: LoginRequest): Promise<LoginResponse> {
     const user = this.users.findByEmail(req.email);
-    const ok = await this.passwords.verify(req.password, user?.passwordHash);
+    const ok = await this.hasher.verify(req.password, user?.passwordHash);
     const now = this.clock.now();
     // One message for unknown address, wrong password, inactive and locked: nothing reveals which.
     if (!user || !user.active || (user.lockedUntil && user.lockedUntil > now))

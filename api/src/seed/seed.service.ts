@@ -1,5 +1,5 @@
 import { Inject, Injectable, Logger } from '@nestjs/common';
-import { PasswordService } from '../auth/password.service.js';
+import { PasswordHasher } from '../auth/password-hasher.js';
 import { Clock } from '../common/clock.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
 import { DB_HANDLE } from '../db/db.module.js';
@@ -22,7 +22,7 @@ export class SeedService {
     @Inject(APP_CONFIG) private readonly config: AppConfig,
     @Inject(DB_HANDLE) private readonly handle: OpenedDatabase,
     private readonly users: UsersRepository,
-    private readonly passwords: PasswordService,
+    private readonly hasher: PasswordHasher,
     private readonly clock: Clock,
   ) {}
 
@@ -38,7 +38,7 @@ export class SeedService {
     if (this.config.env !== 'production' || this.config.allowInsecureDemo) return;
     for (const u of DEMO_USERS) {
       const row = this.users.findByEmail(u.email);
-      if (row?.active && (await this.passwords.verify(DEMO_PASSWORD, row.passwordHash))) {
+      if (row?.active && (await this.hasher.verify(DEMO_PASSWORD, row.passwordHash))) {
         throw new Error(
           `Refusing to start in production: the demo user ${u.email} still has the demo password; change or deactivate it (or set ALLOW_INSECURE_DEMO=true for a trial).`,
         );
@@ -48,7 +48,7 @@ export class SeedService {
 
   async seedUsers(): Promise<Record<string, number>> {
     // One hash (and salt) per account, as for any user: equal hashes would reveal equal passwords.
-    const hashes = await Promise.all(DEMO_USERS.map(() => this.passwords.hash(DEMO_PASSWORD)));
+    const hashes = await Promise.all(DEMO_USERS.map(() => this.hasher.hash(DEMO_PASSWORD)));
     const now = this.clock.now();
     const ids: Record<string, number> = {};
     DEMO_USERS.forEach((u, i) => {

@@ -1,9 +1,9 @@
 import { Injectable } from '@nestjs/common';
 import bcrypt from 'bcryptjs';
 
-/** bcrypt (pure-JS implementation, no native build); cost 10 keeps sign-in near 100 ms. */
+/** Hashes and verifies passwords with bcrypt (pure-JS implementation, no native build); cost 10 keeps sign-in near 100 ms. */
 @Injectable()
-export class PasswordService {
+export class PasswordHasher {
   private readonly cost = 10;
   // A valid hash of a random string, compared against when the account does not exist so the
   // response time does not reveal whether an e-mail address is registered.

@@ -10,7 +10,7 @@ import {
   type TokensRevoked,
 } from '@driftgrid/domain';
 import type { AuthUser } from '../auth/current-user.js';
-import { PasswordService } from '../auth/password.service.js';
+import { PasswordHasher } from '../auth/password-hasher.js';
 import { AuthService } from '../auth/auth.service.js';
 import { Clock } from '../common/clock.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
@@ -27,7 +27,7 @@ export const RESET_MINUTES = 60;
 
 /** Password reset by e-mail link, and change of password when signed in. */
 @Injectable()
-export class PasswordsService {
+export class PasswordChangeService {
   /** Mails still being sent (the reset answer does not wait for them); tests and shutdown may await. */
   readonly pending = new Set<Promise<boolean>>();
 
@@ -36,7 +36,7 @@ export class PasswordsService {
     @Inject(DB_HANDLE) private readonly handle: OpenedDatabase,
     private readonly repo: AccountsRepository,
     private readonly users: UsersRepository,
-    private readonly passwords: PasswordService,
+    private readonly hasher: PasswordHasher,
     private readonly mail: MailService,
     private readonly clock: Clock,
     private readonly auth: AuthService,
@@ -82,7 +82,7 @@ export class PasswordsService {
       return user;
     };
     check();
-    const passwordHash = await this.passwords.hash(req.password);
+    const passwordHash = await this.hasher.hash(req.password);
     const tokensRevoked = this.handle.sqlite.transaction(() => {
       const user = check();
       const now = this.clock.now();
@@ -111,12 +111,12 @@ export class PasswordsService {
     if (user.via !== 'session')
       throw new ForbiddenError('Change your password when signed in with it, not with an API token');
     const row = this.users.findById(user.id);
-    if (!row || !(await this.passwords.verify(req.current, row.passwordHash))) {
+    if (!row || !(await this.hasher.verify(req.current, row.passwordHash))) {
       throw new ValidationError('Invalid body: current: is not your current password', [
         { path: 'current', message: 'is not your current password' },
       ]);
     }
-    const passwordHash = await this.passwords.hash(req.next);
+    const passwordHash = await this.hasher.hash(req.next);
     const now = this.clock.now();
     // Read and raise the session version in one synchronous transaction (no lost increment).
     const { updated, tokensRevoked } = this.handle.sqlite.transaction(() => {
