@@ -3,13 +3,7 @@
  * model, (b) the sweep chunk evaluator compileSweep(def).evaluateChunk over a whole grid in chunks of
  * the default chunk size (axis decoding, expressions and flags included). One warm-up, then a median.
  */
-import {
-  allocateChunk,
-  compileSweep,
-  DEFAULT_CHUNK_SIZE,
-  getModel,
-  type ModelDefinition,
-} from '@driftgrid/domain';
+import { allocateChunk, compileSweep, DEFAULT_CHUNK_SIZE, getModel, type ModelDefinition } from '@driftgrid/domain';
 import type { BenchConfig } from '../lib/config.js';
 import { columnProfileGrid, crossFieldGrid, parallelBalanceGrid } from '../lib/definitions.js';
 import type { Report } from '../lib/report.js';
