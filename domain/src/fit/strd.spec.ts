@@ -110,7 +110,7 @@ describe('NIST StRD nonlinear regression (source: NIST ITL Statistical Reference
     expect(datasets.length + NOT_YET_COPIED.length).toBe(27);
   });
 
-  // Transcription check: the sum of squares at the certified parameters reproduces the certified RSS.
+  // Copy check: the sum of squares at the certified parameters reproduces the certified RSS.
   for (const cert of datasets) {
     it(`${cert.name}: the copied data reproduce the certified RSS at the certified parameters`, () => {
       const { x, xNames, y } = loadData(cert.name);
