@@ -47,6 +47,32 @@ describe('sweep preview', () => {
     expect(paths.some((p: string) => p.startsWith('axes.1'))).toBe(true);
   });
 
+  it('refuses a body that is not a JSON object with a 400 naming the body, on preview and submit alike', async () => {
+    for (const url of ['/api/sweeps/preview', '/api/sweeps']) {
+      for (const body of [[smallSweep()], []]) {
+        const res = await t.http.post(url).set(auth(researcher)).send(body);
+        expect(res.status, `${url} ${JSON.stringify(body).slice(0, 40)}`).toBe(400);
+        expect(res.body.details).toEqual([{ path: 'body', message: 'the sweep definition must be a JSON object' }]);
+      }
+    }
+  });
+
+  it('still reports a structural error and a model error together (the envelope check does not short-circuit)', async () => {
+    const res = await t.http
+      .post('/api/sweeps')
+      .set(auth(researcher))
+      .send(
+        smallSweep({
+          name: 42,
+          axes: [{ param: 'nonsense', kind: 'linear', min: 0, max: 1, count: 2 }],
+        }),
+      );
+    expect(res.status).toBe(400);
+    const paths = (res.body.details as { path: string }[]).map((e) => e.path);
+    expect(paths).toContain('name');
+    expect(paths.some((p) => p.startsWith('axes.0'))).toBe(true);
+  });
+
   it('is closed to reviewers', async () => {
     const res = await t.http.post('/api/sweeps/preview').set(auth(reviewer)).send(smallSweep());
     expect(res.status).toBe(403);

@@ -1,10 +1,11 @@
 import { Body, Controller, Delete, Get, HttpCode, Param, Post } from '@nestjs/common';
 import { ApiBearerAuth, ApiBody, ApiOperation, ApiTags } from '@nestjs/swagger';
-import { sweepDefinitionSchema } from '@driftgrid/domain';
+import { sweepDefinitionSchema, sweepSubmissionSchema, type SweepSubmission } from '@driftgrid/domain';
 import { Roles, SignedIn } from '../auth/access.decorators.js';
 import { IdParamPipe } from '../common/id-param.pipe.js';
 import { CurrentUser, type AuthUser } from '../auth/current-user.js';
 import { openApiSchema } from '../common/openapi.js';
+import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
 import { SweepsService } from './sweeps.service.js';
 
 @ApiTags('sweeps')
@@ -18,7 +19,7 @@ export class SweepsController {
   @Roles('researcher', 'admin')
   @ApiOperation({ summary: 'Point count, chunks, time estimate, quota verdict and every definition error' })
   @ApiBody({ schema: openApiSchema(sweepDefinitionSchema) })
-  preview(@CurrentUser() user: AuthUser, @Body() body: unknown) {
+  preview(@CurrentUser() user: AuthUser, @Body(new ZodValidationPipe(sweepSubmissionSchema)) body: SweepSubmission) {
     return this.sweeps.preview(user, body);
   }
 
@@ -26,7 +27,7 @@ export class SweepsController {
   @Roles('researcher', 'admin')
   @ApiOperation({ summary: 'Submit a sweep: 201 { id, status, points }; 400 bad definition; 429 quota' })
   @ApiBody({ schema: openApiSchema(sweepDefinitionSchema) })
-  create(@CurrentUser() user: AuthUser, @Body() body: unknown) {
+  create(@CurrentUser() user: AuthUser, @Body(new ZodValidationPipe(sweepSubmissionSchema)) body: SweepSubmission) {
     return this.sweeps.create(user, body);
   }
 

@@ -6,3 +6,4 @@ export * from './datasets.js';
 export * from './fits.js';
 export * from './sensitivity.js';
 export * from './queue.js';
+export * from './sweeps.js';
