@@ -60,7 +60,8 @@ function widthFor(symbol: string, unit: string, c: SweepColumnView): number {
   if (c.kind === 'flags') return 130;
   if (c.type === 'boolean') return 64;
   // A value such as "−1.959 × 10⁻⁵" at the compact size needs about 86 px.
-  return Math.max(86, Math.min(140, Math.max(symbol.length, unit.length) * 7 + 38));
+  // Header: about 8 px a character at the compact size, plus the sort icon and padding (46 px).
+  return Math.max(86, Math.min(150, Math.max(symbol.length, unit.length) * 8 + 46));
 }
 
 /**

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { compileSweep } from '@driftgrid/domain';
-import { DEFAULT_VISIBLE, loadVisibleGroups, saveVisibleGroups, tableLayout } from './tableLayout.js';
+import { DEFAULT_VISIBLE, loadVisibleGroups, saveVisibleGroups, tableLayout, varyingInputs } from './tableLayout.js';
 
 const definition = {
   fixed: { n_m3: 1e19, mu: 40, Z: 1, Er_Vm: 0, gamma_i: 1, gamma_e: 1, Ti_eV: 'Te_eV' },
@@ -55,5 +55,35 @@ describe('results table layout', () => {
     expect(loadVisibleGroups('parallel-balance', storage)).toEqual(DEFAULT_VISIBLE);
     store.set('driftgrid.results.groups.cross-field', '{broken');
     expect(loadVisibleGroups('cross-field', storage)).toEqual(DEFAULT_VISIBLE);
+  });
+});
+
+describe('which inputs vary with the axes', () => {
+  it('keeps inputs tied to a swept one by an expression, directly or through another, and holds the rest', () => {
+    const fixed = {
+      Ti_eV: 'Te_eV / 20',
+      gamma_i: 'Ti_eV > 1 ? 3 : 1',
+      Ln_m: '2 cm',
+      mu: '39.948 * m_u / m_p',
+      Er_Vm: '-200 V/m',
+      n_m3: 1e18,
+    };
+    expect([...varyingInputs(['Te_eV', 'B_T'], fixed)].sort()).toEqual(['B_T', 'Te_eV', 'Ti_eV', 'gamma_i']);
+  });
+
+  it('lists unit-carrying and constant-only fixed values as held, not as table columns', () => {
+    const def = {
+      fixed: { Ti_eV: 'Te_eV / 20', Ln_m: '2 cm', mu: '39.948 * m_u / m_p', n_m3: '1e18 m^-3' },
+      axes: [{ param: 'Te_eV', kind: 'log', min: 1, max: 20, count: 3 }],
+      sampling: { kind: 'grid' },
+    };
+    const c = compileSweep({ model: 'cross-field', name: 'held with units', ...def });
+    const cols = c.columns.map((x) => ({ ...x, meaning: '', type: 'float' as const })) as never;
+    const l = tableLayout({ model: 'cross-field', definition: def, columns: cols });
+    const held = Object.fromEntries(l.held.map((h) => [h.name, h.value]));
+    expect(held.Ln_m).toBeCloseTo(0.02, 15);
+    expect(held.n_m3).toBe(1e18);
+    expect(held.mu).toBeCloseTo(39.948 * (1.6605390666e-27 / 1.67262192369e-27), 9); // CODATA 2018 m_u, m_p
+    expect(l.columns.filter((x) => x.group === 'swept').map((x) => x.column.name)).toEqual(['Te_eV', 'Ti_eV']);
   });
 });

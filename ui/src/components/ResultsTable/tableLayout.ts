@@ -45,8 +45,7 @@ export function tableLayout(sweep: Pick<SweepView, 'model' | 'definition' | 'col
   }
   const swept = (sweep.definition.axes ?? []).map((a) => a.param);
   const fixed = sweep.definition.fixed ?? {};
-  // Inputs given as an expression of swept inputs (Ti_eV = "Te_eV") vary with them: they stay in the table.
-  const varying = new Set([...swept, ...Object.keys(fixed).filter((k) => typeof fixed[k] === 'string')]);
+  const varying = varyingInputs(swept, fixed);
   const held: HeldInput[] = [];
   let values: Record<string, number> | null = null;
   try {
@@ -72,6 +71,27 @@ export function tableLayout(sweep: Pick<SweepView, 'model' | 'definition' | 'col
   const symbols: Record<string, string> = { flags: 'flags' };
   for (const x of [...(model?.inputs ?? []), ...(model?.outputs ?? [])]) symbols[x.name] = x.symbol;
   return { columns: placed.map(({ column, group }) => ({ column, group })), groups, held, symbols };
+}
+
+/**
+ * The swept inputs and those whose fixed value is an expression naming one of them (Ti_eV = "Te_eV / 20"),
+ * directly or through another such input: they vary with the axes and stay in the table. A fixed value
+ * with a unit or of constants only ("2 cm", "39.948 * m_u / m_p") is held at one value and leaves it.
+ */
+export function varyingInputs(swept: readonly string[], fixed: Record<string, unknown>): Set<string> {
+  const varying = new Set(swept);
+  const names = (v: string) => v.match(/[A-Za-z_][A-Za-z0-9_]*/g) ?? [];
+  for (let grew = true; grew;) {
+    grew = false;
+    for (const [k, v] of Object.entries(fixed)) {
+      if (varying.has(k) || typeof v !== 'string') continue;
+      if (names(v).some((n) => varying.has(n))) {
+        varying.add(k);
+        grew = true;
+      }
+    }
+  }
+  return varying;
 }
 
 const KEY = (model: string) => `driftgrid.results.groups.${model}`;
