@@ -2,11 +2,13 @@
  * The whole SQLite schema (Drizzle). Times are integer milliseconds since the epoch (UTC).
  * Migrations are generated from this file with `npm run db:generate` and committed in drizzle/.
  */
+import { ROLE_NAMES, SWEEP_STATUSES, type RoleName, type SweepStatus } from '@driftgrid/domain';
 import { sql } from 'drizzle-orm';
 import { index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 
-export const ROLES = ['admin', 'researcher', 'reviewer'] as const;
-export type Role = (typeof ROLES)[number];
+// Roles and sweep statuses are declared once, in the domain's contracts (shared with the ui).
+export const ROLES = ROLE_NAMES;
+export type Role = RoleName;
 
 export const users = sqliteTable(
   'users',
@@ -32,8 +34,7 @@ export const users = sqliteTable(
   (t) => [uniqueIndex('users_email_unique').on(t.email)],
 );
 
-export const SWEEP_STATUSES = ['draft', 'queued', 'running', 'completed', 'failed', 'cancelled', 'archived'] as const;
-export type SweepStatus = (typeof SWEEP_STATUSES)[number];
+export { SWEEP_STATUSES, type SweepStatus };
 
 export const sweeps = sqliteTable(
   'sweeps',

@@ -1,3 +1,4 @@
+import { ACTIVE_STATES } from '@driftgrid/domain';
 import { Inject, Injectable } from '@nestjs/common';
 import { and, eq, inArray } from 'drizzle-orm';
 import { DB } from '../db/db.module.js';
@@ -60,11 +61,7 @@ export class FitsRepository {
 
   /** Fits left queued or running by a process that stopped. */
   unfinished(): FitRow[] {
-    return this.db
-      .select()
-      .from(fits)
-      .where(inArray(fits.status, ['queued', 'running']))
-      .all();
+    return this.db.select().from(fits).where(inArray(fits.status, ACTIVE_STATES)).all();
   }
 
   list(

@@ -1,3 +1,4 @@
+import { ACTIVE_STATES } from '@driftgrid/domain';
 import { InjectQueue } from '@nestjs/bullmq';
 import { Injectable, Logger, type OnApplicationBootstrap } from '@nestjs/common';
 import type { JobsOptions, Queue } from 'bullmq';
@@ -32,7 +33,7 @@ export class ChunkDispatcher implements OnApplicationBootstrap {
     const definition = JSON.parse(sweep.definition) as unknown;
     const hash = definitionHash(sweep.definition);
     const chunks = this.sweeps
-      .chunks(sweep.id, ['queued', 'running'])
+      .chunks(sweep.id, ACTIVE_STATES)
       .filter((c) => !chunkIndexes || chunkIndexes.includes(c.chunkIndex));
     for (let k = 0; k < chunks.length; k += BULK) {
       await this.queue.addBulk(

@@ -1,3 +1,4 @@
+import { ACTIVE_STATES } from '@driftgrid/domain';
 import { Processor, WorkerHost } from '@nestjs/bullmq';
 import { Logger } from '@nestjs/common';
 import type { Job } from 'bullmq';
@@ -60,7 +61,7 @@ export class ResultsProcessor extends WorkerHost {
 
   /** Once a sweep has failed, its chunks still waiting are removed so no worker computes them. */
   private async withdrawRest(sweepId: number): Promise<void> {
-    const open = this.sweeps.chunks(sweepId, ['queued', 'running']).map((c) => c.chunkIndex);
+    const open = this.sweeps.chunks(sweepId, ACTIVE_STATES).map((c) => c.chunkIndex);
     if (open.length) await this.dispatcher.withdraw(sweepId, open);
   }
 }

@@ -1,7 +1,7 @@
 import { Inject, Injectable, Logger } from '@nestjs/common';
 import type { Statement } from 'better-sqlite3';
 import { decodeFloat64, decodeUint32, type ChunkResultPayload } from '@driftgrid/worker';
-import { getModel } from '@driftgrid/domain';
+import { ACTIVE_STATES, getModel } from '@driftgrid/domain';
 import { Clock } from '../common/clock.js';
 import { DB_HANDLE } from '../db/db.module.js';
 import type { OpenedDatabase } from '../db/database.js';
@@ -137,7 +137,7 @@ export class SweepPersistence {
           "UPDATE sweep_chunks SET state = 'failed', error = ?, worker_id = ?, updated_at = ? WHERE sweep_id = ? AND chunk_index = ? AND state != 'done'",
         )
         .run(f.reason.slice(0, 2000), f.workerId, now, f.sweepId, f.chunkIndex);
-      return this.sweeps.transition(f.sweepId, ['queued', 'running'], {
+      return this.sweeps.transition(f.sweepId, ACTIVE_STATES, {
         status: 'failed',
         error: `chunk ${f.chunkIndex}: ${f.reason}`.slice(0, 2000),
         finishedAt: now,

@@ -1,3 +1,4 @@
+import { ACTIVE_STATES } from '@driftgrid/domain';
 import { Inject, Injectable } from '@nestjs/common';
 import { and, eq, inArray, sql } from 'drizzle-orm';
 import { DB } from '../db/db.module.js';
@@ -103,11 +104,7 @@ export class SweepsRepository {
 
   /** Sweeps with work outstanding (re-enqueued at start). */
   unfinished(): SweepRow[] {
-    return this.db
-      .select()
-      .from(sweeps)
-      .where(inArray(sweeps.status, ['queued', 'running']))
-      .all();
+    return this.db.select().from(sweeps).where(inArray(sweeps.status, ACTIVE_STATES)).all();
   }
 
   /** Chunk rows of every sweep by state (`done`, `failed`, …): the admin queue page's true totals. */

@@ -1,5 +1,6 @@
 import { Inject, Injectable } from '@nestjs/common';
 import {
+  ACTIVE_STATES,
   ConflictError,
   checkSweep,
   planChunks,
@@ -160,11 +161,11 @@ export class SweepsService {
     const s = this.access.manageable(user, id);
     const now = this.clock.now();
     const pending = this.repo.transaction(() => {
-      if (!this.repo.transition(id, ['queued', 'running', 'draft'], { status: 'cancelled', finishedAt: now })) {
+      if (!this.repo.transition(id, [...ACTIVE_STATES, 'draft'], { status: 'cancelled', finishedAt: now })) {
         throw new ConflictError(`Sweep ${id} is ${s.status}; only queued or running sweeps can be cancelled`);
       }
-      const open = this.repo.chunks(id, ['queued', 'running']).map((c) => c.chunkIndex);
-      this.repo.setChunkStates(id, ['queued', 'running'], 'cancelled', now);
+      const open = this.repo.chunks(id, ACTIVE_STATES).map((c) => c.chunkIndex);
+      this.repo.setChunkStates(id, ACTIVE_STATES, 'cancelled', now);
       return open;
     });
     await this.dispatcher.withdraw(id, pending);
@@ -176,7 +177,7 @@ export class SweepsService {
     if (s.status === 'archived') throw new ConflictError(`Sweep ${id} is archived and cannot be deleted`);
     let pending: number[] = [];
     if (s.status === 'queued' || s.status === 'running') {
-      pending = this.repo.chunks(id, ['queued', 'running']).map((c) => c.chunkIndex);
+      pending = this.repo.chunks(id, ACTIVE_STATES).map((c) => c.chunkIndex);
     }
     this.repo.delete(id);
     await this.dispatcher.withdraw(id, pending);

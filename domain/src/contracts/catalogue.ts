@@ -1,3 +1,4 @@
+import { SWEEP_STATUSES } from './sweeps.js';
 import { z } from 'zod';
 
 /*
@@ -6,15 +7,8 @@ import { z } from 'zod';
  * parameter is a 400 naming it rather than a silently ignored filter.
  */
 
-export const CATALOGUE_STATUSES = [
-  'draft',
-  'queued',
-  'running',
-  'completed',
-  'failed',
-  'cancelled',
-  'archived',
-] as const;
+/** Statuses a catalogue query may filter by: every sweep status. */
+export const CATALOGUE_STATUSES = SWEEP_STATUSES;
 export const CATALOGUE_SCOPES = ['all', 'mine', 'shared', 'archived'] as const;
 export const CATALOGUE_SORT_KEYS = ['name', 'createdAt', 'finishedAt', 'points', 'status', 'model'] as const;
 export type CatalogueScope = (typeof CATALOGUE_SCOPES)[number];

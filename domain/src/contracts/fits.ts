@@ -1,3 +1,4 @@
+import { ACTIVE_STATES } from './sweeps.js';
 import { z } from 'zod';
 import { FIT_MODEL_KINDS, type FitAdvice, type FitModelKind, type SigmaMode } from '../fit/types.js';
 
@@ -166,7 +167,7 @@ export type FitRequest = z.infer<typeof fitRequestSchema>;
 
 export type FitSourceKind = 'sweep' | 'dataset';
 export type FitStatus = 'queued' | 'running' | 'completed' | 'failed';
-export const LIVE_FIT_STATUSES: readonly FitStatus[] = ['queued', 'running'];
+export const LIVE_FIT_STATUSES: readonly FitStatus[] = ACTIVE_STATES;
 export type { FitModelKind, SigmaMode };
 
 /** Shapes of a stored fit shared by the api (which writes them) and the ui (which shows them). */

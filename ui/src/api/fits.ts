@@ -3,6 +3,7 @@
  * queryKeys.ts; reads have queryOptions() factories.
  */
 import { queryOptions, useMutation, useQueries, useQuery, useQueryClient } from '@tanstack/react-query';
+import { LIVE_FIT_STATUSES } from '@driftgrid/domain';
 // The fit shapes are the domain's contracts (domain/src/contracts/fits.ts), shared with the api's presenter.
 import type {
   FitCreatedView,
@@ -22,7 +23,7 @@ export type FitCreated = FitCreatedView;
 
 export type FitListQuery = { sourceKind?: FitSourceKind; sourceId?: number; page?: number; pageSize?: number };
 
-export const LIVE_FIT = new Set(['queued', 'running']);
+export const LIVE_FIT = new Set<string>(LIVE_FIT_STATUSES);
 
 export const fitsApi = {
   create: (body: FitRequestBody) => api.post<FitCreated>('/fits', body),

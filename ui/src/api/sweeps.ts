@@ -1,3 +1,4 @@
+import { ACTIVE_STATES } from '@driftgrid/domain';
 /**
  * Sweep reads and writes for the ui (SPEC §6): the catalogue, one sweep, its results and series, the
  * builder's preview, submit, cancel, sharing and archive. Keys come from queryKeys.ts; each read has a
@@ -103,7 +104,8 @@ export interface ArchivedSummary {
   archive?: { sha256: string; bytes: number | null; archivedAt: string | null };
 }
 
-export const ACTIVE = ['queued', 'running'];
+/** Statuses in which a sweep still runs (declared once in the domain's contracts). */
+export const ACTIVE: readonly string[] = ACTIVE_STATES;
 
 /**
  * Archived sweeps through the catalogue's `scope=archived`; a server without that scope answers

@@ -11,8 +11,10 @@ import {
   type Icon,
 } from '@tabler/icons-react';
 
-export const SWEEP_STATUSES = ['draft', 'queued', 'running', 'completed', 'failed', 'cancelled', 'archived'] as const;
-export type SweepStatus = (typeof SWEEP_STATUSES)[number];
+import { SWEEP_STATUSES, type SweepStatus } from '@driftgrid/domain';
+
+// Declared once in the domain's contracts; re-exported for the badge's callers.
+export { SWEEP_STATUSES, type SweepStatus };
 
 interface StatusLook {
   label: string;

@@ -1,9 +1,10 @@
+import { ACTIVE_STATES } from '@driftgrid/domain';
 import { Alert, Group, Progress, Stack, Text } from '@mantine/core';
 import { useSweepProgress } from '../../api/sweeps.js';
 import { formatCount, formatPercent } from '../../lib/format.js';
 import { StatusBadge } from '../StatusBadge/StatusBadge.js';
 
-const LIVE = new Set(['queued', 'running']);
+const LIVE = new Set<string>(ACTIVE_STATES);
 
 /**
  * Compact live progress of one sweep: status in words and icon, a bar, points persisted / total.
