@@ -1,3 +1,4 @@
+import { TokensModule } from '../tokens/tokens.module.js';
 import { Module } from '@nestjs/common';
 import { AuditModule } from '../admin/audit.module.js';
 import { AuthModule } from '../auth/auth.module.js';
@@ -10,7 +11,7 @@ import { PasswordChangeService } from './password-change.service.js';
 
 /** Invitations, password reset and change of password. */
 @Module({
-  imports: [AuthModule, AuditModule, LoginThrottlerModule],
+  imports: [AuthModule, AuditModule, LoginThrottlerModule, TokensModule],
   controllers: [AccountsAuthController, InvitationsController],
   providers: [AccountsRepository, InvitationsService, PasswordChangeService, LoginThrottleGuard],
   exports: [PasswordChangeService],

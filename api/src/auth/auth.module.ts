@@ -5,7 +5,9 @@ import { PassportModule } from '@nestjs/passport';
 import { LoginThrottlerModule } from '../accounts/login-throttle.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
 import { QuotaAccountFacts } from '../quotas/quota-account-facts.js';
+import { QuotasModule } from '../quotas/quotas.module.js';
 import { ApiTokenAuthenticator } from '../tokens/api-token.authenticator.js';
+import { TokensModule } from '../tokens/tokens.module.js';
 import { AccessGuard } from './access.guard.js';
 import { AuthController } from './auth.controller.js';
 import { AuthService } from './auth.service.js';
@@ -18,6 +20,8 @@ import { TokenAuthenticator } from './token-authenticator.js';
   imports: [
     PassportModule,
     LoginThrottlerModule,
+    TokensModule,
+    QuotasModule,
     JwtModule.registerAsync({
       inject: [APP_CONFIG],
       useFactory: (config: AppConfig) => ({
@@ -32,7 +36,7 @@ import { TokenAuthenticator } from './token-authenticator.js';
     PasswordHasher,
     JwtStrategy,
     MeService,
-    // Both come from global modules (tokens, quotas) registered by PeopleModule.
+    // Bound to the tokens' and quotas' own providers, from the modules imported above.
     { provide: TokenAuthenticator, useExisting: ApiTokenAuthenticator },
     { provide: AccountFacts, useExisting: QuotaAccountFacts },
     { provide: APP_GUARD, useClass: AccessGuard },
