@@ -1,3 +1,4 @@
+import { MailModule } from '../mail/mail.module.js';
 import { TokensModule } from '../tokens/tokens.module.js';
 import { Module } from '@nestjs/common';
 import { AuditModule } from '../admin/audit.module.js';
@@ -11,7 +12,7 @@ import { PasswordChangeService } from './password-change.service.js';
 
 /** Invitations, password reset and change of password. */
 @Module({
-  imports: [AuthModule, AuditModule, LoginThrottlerModule, TokensModule],
+  imports: [AuthModule, AuditModule, LoginThrottlerModule, TokensModule, MailModule],
   controllers: [AccountsAuthController, InvitationsController],
   providers: [AccountsRepository, InvitationsService, PasswordChangeService, LoginThrottleGuard],
   exports: [PasswordChangeService],

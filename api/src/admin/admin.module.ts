@@ -1,3 +1,4 @@
+import { MailModule } from '../mail/mail.module.js';
 import { Module } from '@nestjs/common';
 import { AdminUsersController } from './admin-users.controller.js';
 import { AdminUsersService } from './admin-users.service.js';
@@ -7,7 +8,7 @@ import { MailboxController } from './mailbox.controller.js';
 
 /** Admin console routes: users, audit log, mailbox (quotas live in quotas/, the queue in sweeps). */
 @Module({
-  imports: [AuditModule],
+  imports: [AuditModule, MailModule],
   controllers: [AdminUsersController, AuditController, MailboxController],
   providers: [AdminUsersService],
 })

@@ -1,10 +1,9 @@
-import { Global, Module } from '@nestjs/common';
+import { Module } from '@nestjs/common';
 import { MailRepository } from './mail.repository.js';
 import { Mailer } from './mailer.js';
 import { MailService } from './mail.service.js';
 
-/** Global: any module may inject MailService (or the Mailer port) to send a notice. */
-@Global()
+/** Outgoing mail and the stored mailbox; modules that send a notice or show the mailbox import it. */
 @Module({
   providers: [MailRepository, MailService, { provide: Mailer, useExisting: MailService }],
   exports: [MailService, Mailer, MailRepository],

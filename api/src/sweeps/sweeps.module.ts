@@ -1,3 +1,4 @@
+import { MailModule } from '../mail/mail.module.js';
 import { BullModule } from '@nestjs/bullmq';
 import { Module } from '@nestjs/common';
 import { CHUNK_QUEUE, RESULT_QUEUE } from '@driftgrid/worker';
@@ -17,7 +18,7 @@ import { SweepsRepository } from './sweeps.repository.js';
 import { SweepsService } from './sweeps.service.js';
 
 @Module({
-  imports: [BullModule.registerQueue({ name: CHUNK_QUEUE }, { name: RESULT_QUEUE }), AuditModule],
+  imports: [BullModule.registerQueue({ name: CHUNK_QUEUE }, { name: RESULT_QUEUE }), AuditModule, MailModule],
   controllers: [SweepsController, QueueAdminController],
   providers: [
     SweepsRepository,
