@@ -67,6 +67,10 @@ export class PooledHeavyReads extends HeavyReads implements OnModuleDestroy {
         maxThreads: options.threads,
         maxQueue: options.maxQueue,
         idleTimeout: Infinity,
+        // The pool loads its (ESM) entry with require() first. On Node 20 that synchronous require(esm)
+        // path can abort the whole process with a V8 fatal error when a thread is torn down while still
+        // loading; without it the pool falls back to import(), which fails softly.
+        execArgv: [...process.execArgv, '--no-experimental-require-module'],
         workerData: { dbFile: options.dbFile, loaded: this.loaded },
       });
       this.pool.on('workerDestroy', () => this.ended++);
