@@ -81,8 +81,11 @@ export const BLOCKED_FUNCTIONS: ReadonlySet<string> = new Set([
 /** Constants an expression may use besides its symbols. */
 const ALLOWED_CONSTANTS: ReadonlySet<string> = new Set(['pi']);
 
-/** Operator functions mathjs produces for the allowed operators (no `to`/`in` unit conversion). */
-const ALLOWED_OPERATORS: ReadonlySet<string> = new Set([
+/**
+ * Operator functions mathjs produces for the allowed operators (no `to`/`in` unit conversion). Shared by
+ * derived columns and fit expressions.
+ */
+export const ALLOWED_OPERATORS: ReadonlySet<string> = new Set([
   'add',
   'subtract',
   'multiply',

@@ -1,4 +1,5 @@
 import { all, create, type MathNode } from 'mathjs';
+import { ALLOWED_OPERATORS } from '../../derived/security.js';
 import { ValidationError, type ErrorDetail } from '../../errors.js';
 import { ambiguousSymbol, EXPRESSION_CONSTANT_NAMES, EXPRESSION_CONSTANT_VALUES } from '../../expression-constants.js';
 import { resolveBounds, validationFail, type CheckedData } from '../input.js';
@@ -51,29 +52,6 @@ const FUNCTIONS = new Set([
   'atanh',
   'erf',
 ]);
-const OPERATORS = new Set([
-  'add',
-  'subtract',
-  'multiply',
-  'divide',
-  'pow',
-  'unaryMinus',
-  'unaryPlus',
-  'mod',
-  'dotMultiply',
-  'dotDivide',
-  'dotPow',
-  'smaller',
-  'larger',
-  'smallerEq',
-  'largerEq',
-  'equal',
-  'unequal',
-  'and',
-  'or',
-  'not',
-  'xor',
-]);
 // A bare `e` is refused (ambiguous: elementary charge or Euler's number); physical constants come
 // from expression-constants.ts under unambiguous names (q_e, m_e, …), shadowed by x columns/params.
 const CONSTANTS = new Set(['pi', 'PI', 'E', 'tau', ...EXPRESSION_CONSTANT_NAMES]);
@@ -110,7 +88,8 @@ export function parseExpression(expr: string): ParsedExpression {
         return;
       case 'OperatorNode': {
         const fn = (nd as unknown as { fn: string }).fn;
-        if (!OPERATORS.has(fn)) problems.push(`operator ${(nd as unknown as { op: string }).op} is not allowed`);
+        if (!ALLOWED_OPERATORS.has(fn))
+          problems.push(`operator ${(nd as unknown as { op: string }).op} is not allowed`);
         return;
       }
       case 'FunctionNode': {
