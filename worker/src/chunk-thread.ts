@@ -1,6 +1,10 @@
 import { parentPort } from 'node:worker_threads';
 import type { ChunkJobData } from './chunk-job.js';
 import { computeChunk } from './compute-chunk.js';
+import { lowerThreadPriority } from './thread-priority.js';
+
+// Compute yields the cores to the api's request thread and to read threads (thread-priority.ts).
+lowerThreadPriority('compute');
 
 /** Thread entry: computes chunks off the main event loop and transfers the arrays back without copying. */
 parentPort!.on('message', (msg: { id: number; data: ChunkJobData }) => {

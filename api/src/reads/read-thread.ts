@@ -3,9 +3,13 @@
 import 'reflect-metadata';
 import Database from 'better-sqlite3';
 import { workerData } from 'node:worker_threads';
+import { lowerThreadPriority } from '@driftgrid/worker/thread-priority';
 import { ReadTaskRunner, type ReadReply, type ReadTask } from './read-tasks.js';
 
 const { dbFile, loaded } = workerData as { dbFile: string; loaded?: Int32Array };
+
+// A heavy read never takes the cores from the request thread (which answers health and catalogue).
+lowerThreadPriority('reads');
 
 // One read-only connection per thread: WAL lets it read while the api thread writes.
 const db = new Database(dbFile, { readonly: true, fileMustExist: true });
