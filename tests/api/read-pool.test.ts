@@ -1,4 +1,4 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { HeavyReads } from '../../api/src/reads/heavy-reads.js';
 import { ReadBudgetError } from '../../api/src/reads/read-errors.js';
 import { OrderCache } from '../../api/src/reads/order-cache.js';
@@ -202,6 +202,36 @@ describe('sorted pages (order computed once, later pages from the cache)', () =>
       .prepare(`SELECT COUNT(*) AS n FROM results WHERE id BETWEEN ? AND ? AND ${te} >= 5 AND ${te} <= 50`)
       .get(sweepId * 2 ** 32, (sweepId + 1) * 2 ** 32 - 1) as { n: number };
     expect(res.body.total).toBe(n.n);
+  });
+
+  it("reads a new view's next pages ahead with its first page: the following pages need no pool work", async () => {
+    await warm();
+    const reader = t.app.get(ResultsReader);
+    expect(await until(() => reader.buildsInProgress === 0, 30_000)).toBe(true);
+    const asked: string[] = [];
+    const run = reads.run.bind(reads);
+    const spy = vi.spyOn(reads, 'run').mockImplementation((userId, task, options) => {
+      asked.push(task.kind);
+      // No whole order is ever built here, so whatever the next pages get comes from the first page's pass.
+      if (task.kind === 'order') return Promise.reject(new Error('no whole order in this test'));
+      return run(userId, task, options);
+    });
+    try {
+      // A view nobody asked for yet: its first page is one top-k pass on the pool …
+      const first = await sorted(reviewer, 'vDe_ms:desc', 1);
+      expect(first.body.rows.map((r: { idx: number }) => r.idx)).toEqual(sqlPage('vDe_ms', true, 1));
+      expect(asked.filter((k) => k === 'page')).toHaveLength(1);
+      // … which also carried the next pages: asked at once, before the whole order exists, none goes to SQL.
+      const next = await Promise.all([2, 3, 11, 20].map((p) => sorted(researcher, 'vDe_ms:desc', p)));
+      next.forEach((res, i) => {
+        expect(res.status).toBe(200);
+        expect(res.body.total).toBe(1200);
+        expect(res.body.rows.map((r: { idx: number }) => r.idx)).toEqual(sqlPage('vDe_ms', true, [2, 3, 11, 20][i]!));
+      });
+      expect(asked.filter((k) => k === 'page')).toHaveLength(1);
+    } finally {
+      spy.mockRestore();
+    }
   });
 
   it('answers an uncached sorted page by SQL, then builds the whole order in the background for later pages', async () => {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { OrderCache, orderKey } from './order-cache.js';
+import { covers, OrderCache, orderKey } from './order-cache.js';
 
 const order = (n: number) => new Uint32Array(n);
 
@@ -17,12 +17,27 @@ describe('OrderCache (sorted orders, least recently used dropped first, bounded 
     expect(c.size).toBe(2);
   });
 
-  it('replaces an entry under the same key without counting it twice', () => {
+  it('replaces a leading part by a longer order under the same key without counting it twice', () => {
     const c = new OrderCache(1000);
+    c.set('a', order(50), 100);
+    expect(c.get('a')).toMatchObject({ total: 100 });
     c.set('a', order(100));
-    c.set('a', order(50));
-    expect(c.usedBytes).toBe(200);
-    expect(c.get('a')!.length).toBe(50);
+    expect(c.usedBytes).toBe(400);
+    expect(c.get('a')!.order.length).toBe(100);
+    // A later leading part (another first page of the same view) keeps the whole order.
+    c.set('a', order(20), 100);
+    expect(c.get('a')!.order.length).toBe(100);
+    expect(c.usedBytes).toBe(400);
+  });
+
+  it('answers a page from a leading part only inside it, and any page from a whole order', () => {
+    const part = { order: order(60), total: 1000 };
+    expect(covers(part, 0, 50)).toBe(true);
+    expect(covers(part, 10, 50)).toBe(true);
+    expect(covers(part, 50, 50)).toBe(false);
+    const whole = { order: order(120), total: 120 };
+    expect(covers(whole, 100, 50)).toBe(true); // the short last page
+    expect(covers(whole, 500, 50)).toBe(true); // past the end: an empty page
   });
 
   it('never stores an order larger than the whole budget (and a zero budget stores nothing)', () => {

@@ -18,6 +18,11 @@ import { layoutOf, type StoredColumn } from '../sweeps/sweep-layout.js';
 import type { SweepRow } from '../sweeps/sweeps.repository.js';
 import { OrderBuilder } from './sort-order.js';
 
+/** Pages of a sorted view read ahead with its first page (the top-k pass costs about the same). */
+const LEAD_PAGES = 20;
+/** At most this many leading indices read ahead (40 kB), however large the page size. */
+const LEAD_MAX = 10_000;
+
 /**
  * The heavy reads, as plain data in and out so they can run on a pool thread with its own read-only
  * connection (or inline on the api's own connection). Inputs are validated on the api thread first.
@@ -29,12 +34,15 @@ export interface PageTask {
   pageSize: number;
   sort?: string;
   filter: ResultFilter;
-  /** A cached order of this very view (sort and filter), when the api holds one. */
-  order?: Uint32Array;
 }
 export interface PageResult {
   rows: ResultRow[];
   total: number;
+  /**
+   * For a sorted page answered by SQL: the view's leading point indices (this page and the next few),
+   * which the api caches so the following pages are look-ups.
+   */
+  lead?: Uint32Array;
 }
 /** The whole order of a sorted view (point indices), for the api's order cache. */
 export interface OrderTask {
@@ -150,14 +158,13 @@ export class ReadTaskRunner {
       const rows = this.results.pageByIndex(s.id, layout, q, spec?.desc ?? false, t.pageSize, offset);
       return { rows: shapeRows(rows, layout), total: filtered ? this.results.count(q) : s.pointsDone };
     }
-    if (t.order) {
-      const rows = this.results.rowsAt(s.id, layout, t.order.subarray(offset, offset + t.pageSize));
-      return { rows: shapeRows(rows, layout), total: t.order.length };
-    }
-    // No order at hand: SQLite's ORDER BY … LIMIT answers this one page (same rules as the full order:
-    // NULLs last, ties by rowid); the api builds the whole order in the background for later pages.
-    const rows = this.results.pageSorted(s.id, layout, q, compileSort(layout, t.sort), t.pageSize, offset);
-    return { rows: shapeRows(rows, layout), total: filtered ? this.results.count(q) : s.pointsDone };
+    // No order at hand: one top-k pass of SQLite (same rules as the whole order: NULLs last, ties by
+    // rowid) answers this page and the view's next few pages at about the same cost; the api caches
+    // that lead and builds the whole order in the background for deeper pages.
+    const depth = Math.max(offset + t.pageSize, Math.min(LEAD_MAX, offset + t.pageSize * LEAD_PAGES));
+    const lead = this.results.sortedIndices(s.id, q, compileSort(layout, t.sort), depth);
+    const rows = this.results.rowsAt(s.id, layout, lead.subarray(offset, offset + t.pageSize));
+    return { rows: shapeRows(rows, layout), total: filtered ? this.results.count(q) : s.pointsDone, lead };
   }
 
   private order(sweepId: number, column: StoredColumn, desc: boolean, q: ReturnType<typeof compileFilter>) {

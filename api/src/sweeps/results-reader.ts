@@ -2,7 +2,7 @@ import { Inject, Injectable, Logger } from '@nestjs/common';
 import { DB_HANDLE } from '../db/db.module.js';
 import type { OpenedDatabase } from '../db/database.js';
 import { HeavyReads } from '../reads/heavy-reads.js';
-import { OrderCache, orderKey } from '../reads/order-cache.js';
+import { covers, OrderCache, orderKey } from '../reads/order-cache.js';
 import { shapeRows, type OrderTask } from '../reads/read-tasks.js';
 import { columnByName, parseSort, type ResultFilter } from './results-query.js';
 import { ResultsRepository, type ResultRow } from './results.repository.js';
@@ -68,18 +68,25 @@ export class ResultsReader {
     }
     const key = !byIndex && SETTLED.has(s.status) ? orderKey(s, spec.column.name, spec.desc, q.filter) : null;
     const cached = key ? this.orders.get(key) : undefined;
-    if (cached) {
-      const rows = this.repo.rowsAt(s.id, layout, cached.subarray(offset, offset + q.pageSize));
-      return { rows: shapeRows(rows, layout), total: cached.length, columns };
+    if (cached && covers(cached, offset, q.pageSize)) {
+      const rows = this.repo.rowsAt(s.id, layout, cached.order.subarray(offset, offset + q.pageSize));
+      return { rows: shapeRows(rows, layout), total: cached.total, columns };
     }
     const r = await this.reads.run(userId, { kind: 'page', sweep: s, ...q }, { signal });
+    if (key && r.lead) this.orders.set(key, r.lead, r.total);
     if (key && q.sort) this.buildOrder(key, { kind: 'order', sweep: s, sort: q.sort, filter: q.filter });
-    return { rows: r.rows as ResultRow[], total: r.total, columns };
+    return { rows: r.rows, total: r.total, columns };
   }
 
   /** Starts building a view's whole order on the pool unless it is cached, under way, or the builder is full. */
   private buildOrder(key: string, task: OrderTask): void {
-    if (this.orders.get(key) || this.building.has(key) || this.building.size >= MAX_BACKGROUND_BUILDS) return;
+    const held = this.orders.get(key);
+    if (
+      (held && held.order.length === held.total) ||
+      this.building.has(key) ||
+      this.building.size >= MAX_BACKGROUND_BUILDS
+    )
+      return;
     const done = this.reads
       .run(BACKGROUND_USER, task)
       .then((order) => this.orders.set(key, order))

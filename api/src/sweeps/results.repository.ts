@@ -63,21 +63,18 @@ export class ResultsRepository {
   }
 
   /**
-   * A page of a sorted view by SQLite's own ORDER BY … LIMIT/OFFSET (`orderBy` from compileSort: NULLs
-   * last, ties by rowid). Without an index on the slot this is one pass with a bounded top-(offset+limit)
-   * sorter: far cheaper for an early page than ordering every row.
+   * The first `limit` point indices of a sorted view, by SQLite's own ORDER BY … LIMIT (`orderBy` from
+   * compileSort: NULLs last, ties by rowid). Without an index on the slot this is one pass with a bounded
+   * top-k sorter, far cheaper than ordering every row; reading only the rowid keeps the sorter small,
+   * and the page's rows are then a few rowid look-ups (rowsAt).
    */
-  pageSorted(
-    sweepId: number,
-    layout: readonly StoredColumn[],
-    q: CompiledQuery,
-    orderBy: string,
-    limit: number,
-    offset: number,
-  ): ResultRow[] {
-    return this.prepare(
-      `SELECT ${selectList(sweepId, layout)} FROM results WHERE ${q.where} ORDER BY ${orderBy} LIMIT ? OFFSET ?`,
-    ).all(...q.params, limit, offset) as ResultRow[];
+  sortedIndices(sweepId: number, q: CompiledQuery, orderBy: string, limit: number): Uint32Array {
+    const ids = this.prepare(
+      `SELECT id - ${sweepId * ROW_SPAN} FROM results WHERE ${q.where} ORDER BY ${orderBy} LIMIT ?`,
+    )
+      .pluck(true)
+      .all(...q.params, limit) as number[];
+    return Uint32Array.from(ids);
   }
 
   count(q: CompiledQuery): number {
