@@ -5,7 +5,7 @@ import { HeavyReads } from '../reads/heavy-reads.js';
 import { covers, OrderCache, orderKey } from '../reads/order-cache.js';
 import { shapeRows, type OrderTask } from '../reads/read-tasks.js';
 import { columnByName, parseSort, type ResultFilter } from './results-query.js';
-import { ResultsRepository, type ResultRow } from './results.repository.js';
+import { ResultsRepository } from './results.repository.js';
 import { layoutOf } from './sweep-layout.js';
 import type { SweepRow } from './sweeps.repository.js';
 
