@@ -2,16 +2,13 @@ import { Module, type DynamicModule } from '@nestjs/common';
 import { APP_FILTER } from '@nestjs/core';
 import { PeopleModule } from './accounts/people.module.js';
 import { AuthModule } from './auth/auth.module.js';
-import { ClockModule } from './common/clock.js';
 import { HttpErrorFilter } from './common/http-error.filter.js';
 import type { AppConfig } from './config/app-config.js';
 import { ConfigModule } from './config/config.module.js';
 import { DbModule } from './db/db.module.js';
-import { ReadsModule } from './reads/reads.module.js';
 import { HealthModule } from './health/health.module.js';
 import { SeedModule } from './seed/seed.module.js';
-import { UsersModule } from './users/users.module.js';
-import { QueueModule } from './queue/queue.module.js';
+import { QueueRootModule } from './queue/queue.module.js';
 import { SweepsModule } from './sweeps/sweeps.module.js';
 import { ExportModule } from './export/export.module.js';
 import { ModelsModule } from './models/models.module.js';
@@ -26,15 +23,12 @@ export class AppModule {
       module: AppModule,
       imports: [
         ConfigModule.forRoot(config),
-        ClockModule,
         DbModule,
-        ReadsModule,
-        UsersModule,
         AuthModule,
         HealthModule,
         SeedModule,
         PeopleModule,
-        QueueModule.forRoot(config),
+        QueueRootModule.forRoot(config),
         SweepsModule,
         ModelsModule,
         CatalogueModule,

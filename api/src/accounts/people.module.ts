@@ -8,8 +8,8 @@ import { AccountsModule } from './accounts.module.js';
 
 /**
  * People management in one registration: mail, audit log, quotas, personal API tokens,
- * invitations and password reset, and the admin console routes. Mail, audit, quotas and tokens
- * are global modules, so their services are injectable everywhere once this is imported.
+ * invitations and password reset, and the admin console routes (their controllers). Each module that
+ * injects one of these services imports its module itself.
  */
 @Module({ imports: [MailModule, AuditModule, QuotasModule, TokensModule, AccountsModule, AdminModule] })
 export class PeopleModule {}

@@ -1,8 +1,8 @@
-import { Global, Module } from '@nestjs/common';
+import { Module } from '@nestjs/common';
+import { ClockModule } from '../common/clock.js';
 import { AuditRepository } from './audit.repository.js';
 import { AuditService } from './audit.service.js';
 
-/** Global so every module with admin actions (accounts, quotas, queue) can record them. */
-@Global()
-@Module({ providers: [AuditRepository, AuditService], exports: [AuditService] })
+/** The audit log; modules with admin actions (accounts, admin, quotas, sweeps' queue controls) import it. */
+@Module({ imports: [ClockModule], providers: [AuditRepository, AuditService], exports: [AuditService] })
 export class AuditModule {}

@@ -3,11 +3,13 @@ import { APP_GUARD } from '@nestjs/core';
 import { JwtModule } from '@nestjs/jwt';
 import { PassportModule } from '@nestjs/passport';
 import { LoginThrottlerModule } from '../accounts/login-throttle.js';
+import { ClockModule } from '../common/clock.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
 import { QuotaAccountFacts } from '../quotas/quota-account-facts.js';
 import { QuotasModule } from '../quotas/quotas.module.js';
 import { ApiTokenAuthenticator } from '../tokens/api-token.authenticator.js';
 import { TokensModule } from '../tokens/tokens.module.js';
+import { UsersModule } from '../users/users.module.js';
 import { AccessGuard } from './access.guard.js';
 import { AuthController } from './auth.controller.js';
 import { AuthService } from './auth.service.js';
@@ -22,6 +24,8 @@ import { TokenAuthenticator } from './token-authenticator.js';
     LoginThrottlerModule,
     TokensModule,
     QuotasModule,
+    UsersModule,
+    ClockModule,
     JwtModule.registerAsync({
       inject: [APP_CONFIG],
       useFactory: (config: AppConfig) => ({

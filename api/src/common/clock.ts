@@ -1,4 +1,4 @@
-import { Global, Module } from '@nestjs/common';
+import { Module } from '@nestjs/common';
 
 /** The clock is injected so tests can move time (token expiry, rolling quotas). */
 export abstract class Clock {
@@ -11,6 +11,6 @@ export class SystemClock extends Clock {
   }
 }
 
-@Global()
+/** Imported by every module whose providers read the time. */
 @Module({ providers: [{ provide: Clock, useClass: SystemClock }], exports: [Clock] })
 export class ClockModule {}

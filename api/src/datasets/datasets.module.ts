@@ -1,4 +1,5 @@
 import { Module } from '@nestjs/common';
+import { ClockModule } from '../common/clock.js';
 import { CsvUploadInterceptor } from './csv-upload.interceptor.js';
 import { DatasetsController } from './datasets.controller.js';
 import { DatasetsRepository } from './datasets.repository.js';
@@ -6,6 +7,7 @@ import { DatasetsService } from './datasets.service.js';
 
 /** Uploaded measurements. Exports DatasetsService (readable, columns, series) for fits and plots. */
 @Module({
+  imports: [ClockModule],
   controllers: [DatasetsController],
   providers: [DatasetsRepository, DatasetsService, CsvUploadInterceptor],
   exports: [DatasetsService, DatasetsRepository],

@@ -1,4 +1,5 @@
 import { Module } from '@nestjs/common';
+import { ClockModule } from '../common/clock.js';
 import { DatasetsModule } from '../datasets/datasets.module.js';
 import { SweepsModule } from '../sweeps/sweeps.module.js';
 import { DatasetExportBuilder } from './dataset-export.service.js';
@@ -10,7 +11,7 @@ import { SweepExportBuilder } from './sweep-export.service.js';
 
 /** Zipped-CSV exports of sweeps and datasets, and the archive action that freezes a sweep's export. */
 @Module({
-  imports: [SweepsModule, DatasetsModule],
+  imports: [SweepsModule, DatasetsModule, ClockModule],
   controllers: [SweepExportController, DatasetExportController],
   providers: [ExportRepository, SweepExportBuilder, DatasetExportBuilder, SweepArchiver, Downloads],
   exports: [SweepExportBuilder, SweepArchiver],

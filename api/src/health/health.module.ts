@@ -1,5 +1,6 @@
 import { Module } from '@nestjs/common';
+import { QueueModule } from '../queue/queue.module.js';
 import { HealthController } from './health.controller.js';
 
-@Module({ controllers: [HealthController] })
+@Module({ imports: [QueueModule], controllers: [HealthController] })
 export class HealthModule {}

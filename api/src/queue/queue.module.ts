@@ -1,5 +1,5 @@
 import { BullModule, InjectQueue } from '@nestjs/bullmq';
-import { Global, Inject, Injectable, Module, type DynamicModule, type OnApplicationShutdown } from '@nestjs/common';
+import { Inject, Injectable, Module, type DynamicModule, type OnApplicationShutdown } from '@nestjs/common';
 import type { Queue } from 'bullmq';
 import os from 'node:os';
 import {
@@ -10,7 +10,7 @@ import {
   RESULT_QUEUE,
   ResultTransport,
 } from '@driftgrid/worker';
-import type { AppConfig } from '../config/app-config.js';
+import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
 import { QueueProbe } from '../health/health.controller.js';
 import { createQueueConnection, type QueueConnection } from './queue-connection.js';
 
@@ -38,40 +38,59 @@ class ConnectionCloser implements OnApplicationShutdown {
   }
 }
 
-/** BullMQ wiring for the api: the connection, both queues and (embedded mode) the chunk processor. */
-@Global()
+/**
+ * The queue connection, both queues, the result transport and the health probe. A static module, so
+ * every importer (sweeps, health, the root wiring below) shares one connection and one transport.
+ */
+@Module({
+  imports: [BullModule.registerQueue({ name: CHUNK_QUEUE }, { name: RESULT_QUEUE })],
+  providers: [
+    { provide: QUEUE_CONNECTION, inject: [APP_CONFIG], useFactory: (c: AppConfig) => createQueueConnection(c) },
+    {
+      provide: ResultTransport,
+      inject: [QUEUE_CONNECTION],
+      // In-memory queue: processor and api share the process, so results move by reference.
+      useFactory: (conn: QueueConnection): ResultTransport =>
+        conn.mode === 'embedded' ? new InProcessResultTransport() : new InlineResultTransport(),
+    },
+    BullQueueProbe,
+    { provide: QueueProbe, useExisting: BullQueueProbe },
+    ConnectionCloser,
+  ],
+  exports: [QUEUE_CONNECTION, QueueProbe, BullModule, ResultTransport],
+})
+export class QueueModule {}
+
+/**
+ * Imported once, by the app module: BullMQ's root configuration on QueueModule's connection and, when
+ * this process computes chunks itself (embedded mode or EMBEDDED_WORKERS), the chunk processor.
+ */
 @Module({})
-export class QueueModule {
+export class QueueRootModule {
   static forRoot(config: AppConfig): DynamicModule {
-    const conn = createQueueConnection(config);
-    const embeddedWorkers = config.embeddedWorkers ?? (conn.mode === 'embedded' ? 1 : 0);
-    // In-memory queue: processor and api share the process, so results move by reference.
-    const transport = conn.mode === 'embedded' ? new InProcessResultTransport() : new InlineResultTransport();
+    // createQueueConnection picks the embedded queue exactly when no Redis URL is configured.
+    const embeddedWorkers = config.embeddedWorkers ?? (config.redisUrl ? 0 : 1);
     const imports: DynamicModule[] = [
-      BullModule.forRoot({ connection: conn.connection, prefix: config.queuePrefix }),
-      BullModule.registerQueue({ name: CHUNK_QUEUE }, { name: RESULT_QUEUE }),
+      BullModule.forRootAsync({
+        imports: [QueueModule],
+        inject: [QUEUE_CONNECTION],
+        useFactory: (conn: QueueConnection) => ({ connection: conn.connection, prefix: config.queuePrefix }),
+      }),
     ];
     if (embeddedWorkers > 0) {
       imports.push(
-        ChunkProcessingModule.forRoot({
-          concurrency: embeddedWorkers + 1,
-          threads: embeddedWorkers,
-          workerId: `${os.hostname()}:${process.pid}`,
-          transport,
+        ChunkProcessingModule.forRootAsync({
+          imports: [QueueModule],
+          inject: [ResultTransport],
+          useFactory: (transport: ResultTransport) => ({
+            concurrency: embeddedWorkers + 1,
+            threads: embeddedWorkers,
+            workerId: `${os.hostname()}:${process.pid}`,
+            transport,
+          }),
         }),
       );
     }
-    return {
-      module: QueueModule,
-      imports,
-      providers: [
-        { provide: QUEUE_CONNECTION, useValue: conn },
-        { provide: ResultTransport, useValue: transport },
-        BullQueueProbe,
-        { provide: QueueProbe, useExisting: BullQueueProbe },
-        ConnectionCloser,
-      ],
-      exports: [QUEUE_CONNECTION, QueueProbe, BullModule, ResultTransport],
-    };
+    return { module: QueueRootModule, imports: [QueueModule, ...imports], exports: [QueueModule] };
   }
 }

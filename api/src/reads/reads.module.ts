@@ -1,4 +1,4 @@
-import { Global, Module } from '@nestjs/common';
+import { Module } from '@nestjs/common';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
 import { DB_HANDLE } from '../db/db.module.js';
 import type { OpenedDatabase } from '../db/database.js';
@@ -6,8 +6,7 @@ import { HeavyReads } from './heavy-reads.js';
 import { OrderCache } from './order-cache.js';
 import { PooledHeavyReads } from './read-pool.js';
 
-/** The heavy-read pool and the cache of sorted orders, shared by every module that reads results. */
-@Global()
+/** The heavy-read pool and the cache of sorted orders; modules that read results (sweeps, catalogue, sensitivity) import it. */
 @Module({
   providers: [
     {

@@ -1,8 +1,11 @@
-import { MailModule } from '../mail/mail.module.js';
-import { BullModule } from '@nestjs/bullmq';
 import { Module } from '@nestjs/common';
-import { CHUNK_QUEUE, RESULT_QUEUE } from '@driftgrid/worker';
 import { AuditModule } from '../admin/audit.module.js';
+import { ClockModule } from '../common/clock.js';
+import { MailModule } from '../mail/mail.module.js';
+import { QueueModule } from '../queue/queue.module.js';
+import { QuotasModule } from '../quotas/quotas.module.js';
+import { ReadsModule } from '../reads/reads.module.js';
+import { UsersModule } from '../users/users.module.js';
 import { ChunkDispatcher } from './chunk-dispatcher.js';
 import { QuotasService } from '../quotas/quotas.service.js';
 import { MailSweepNotifier } from './mail-sweep-notifier.js';
@@ -18,7 +21,8 @@ import { SweepsRepository } from './sweeps.repository.js';
 import { SweepsService } from './sweeps.service.js';
 
 @Module({
-  imports: [BullModule.registerQueue({ name: CHUNK_QUEUE }, { name: RESULT_QUEUE }), AuditModule, MailModule],
+  // QueueModule brings both queues, the connection (queue controls) and the result transport.
+  imports: [QueueModule, AuditModule, MailModule, QuotasModule, UsersModule, ClockModule, ReadsModule],
   controllers: [SweepsController, QueueAdminController],
   providers: [
     SweepsRepository,

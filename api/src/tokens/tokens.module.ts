@@ -1,4 +1,5 @@
 import { Module } from '@nestjs/common';
+import { ClockModule } from '../common/clock.js';
 import { ApiTokenAuthenticator } from './api-token.authenticator.js';
 import { TokensController } from './tokens.controller.js';
 import { TokensRepository } from './tokens.repository.js';
@@ -6,6 +7,7 @@ import { TokensService } from './tokens.service.js';
 
 /** API tokens; imported by the auth module (ApiTokenAuthenticator) and accounts (revoking on password change). */
 @Module({
+  imports: [ClockModule],
   controllers: [TokensController],
   providers: [TokensRepository, TokensService, ApiTokenAuthenticator],
   exports: [TokensRepository, ApiTokenAuthenticator],

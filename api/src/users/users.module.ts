@@ -1,6 +1,6 @@
-import { Global, Module } from '@nestjs/common';
+import { Module } from '@nestjs/common';
 import { UsersRepository } from './users.repository.js';
 
-@Global()
+/** The users table; modules that look up or change accounts import it. */
 @Module({ providers: [UsersRepository], exports: [UsersRepository] })
 export class UsersModule {}
