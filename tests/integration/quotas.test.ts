@@ -12,6 +12,7 @@ import { AuditRepository } from '../../api/src/admin/audit.repository.js';
 import { AuditService } from '../../api/src/admin/audit.service.js';
 import { Clock } from '../../api/src/common/clock.js';
 import { openDatabase, type OpenedDatabase } from '../../api/src/db/database.js';
+import { Transactions } from '../../api/src/db/transactions.js';
 import { QuotasRepository } from '../../api/src/quotas/quotas.repository.js';
 import { QuotasService, ROLLING_WINDOW_MS } from '../../api/src/quotas/quotas.service.js';
 import { UsersRepository } from '../../api/src/users/users.repository.js';
@@ -72,7 +73,13 @@ beforeAll(() => {
   adminId = mk('ada@example.com', 'admin');
   rosa = mk('rosa@example.com', 'researcher');
   remy = mk('remy@example.com', 'reviewer');
-  quotas = new QuotasService(new QuotasRepository(h), users, new AuditService(new AuditRepository(h.db), clock), clock);
+  quotas = new QuotasService(
+    new QuotasRepository(h),
+    users,
+    new AuditService(new AuditRepository(h.db), clock),
+    clock,
+    new Transactions(h.sqlite),
+  );
   quotas.onModuleInit();
 });
 afterAll(() => {

@@ -17,8 +17,7 @@ import type { AuthUser } from '../auth/current-user.js';
 import { PasswordHasher } from '../auth/password-hasher.js';
 import { Clock } from '../common/clock.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
-import { DB_HANDLE } from '../db/db.module.js';
-import type { OpenedDatabase } from '../db/database.js';
+import { Transactions } from '../db/transactions.js';
 import { MailService } from '../mail/mail.service.js';
 import { invitationMail } from '../mail/templates.js';
 import { UsersRepository } from '../users/users.repository.js';
@@ -39,7 +38,6 @@ export class InvitationsService {
 
   constructor(
     @Inject(APP_CONFIG) private readonly config: AppConfig,
-    @Inject(DB_HANDLE) private readonly handle: OpenedDatabase,
     private readonly repo: AccountsRepository,
     private readonly users: UsersRepository,
     private readonly hasher: PasswordHasher,
@@ -47,6 +45,7 @@ export class InvitationsService {
     private readonly mail: MailService,
     private readonly audit: AuditService,
     private readonly clock: Clock,
+    private readonly tx: Transactions,
   ) {}
 
   private view(i: InvitationRow, by: Invitation['invitedBy'], now: number): Invitation {
@@ -71,7 +70,7 @@ export class InvitationsService {
     }
     const now = this.clock.now();
     const { token, hash } = newOneTimeToken();
-    const row = this.handle.sqlite.transaction(() => {
+    const row = this.tx.run(() => {
       this.repo.revokeOpenInvitations(req.email, now);
       const r = this.repo.insertInvitation({
         email: req.email,
@@ -83,7 +82,7 @@ export class InvitationsService {
       });
       this.audit.record(actor.id, 'invitation.create', `invitation:${r.id}`, { email: req.email, role: req.role });
       return r;
-    })();
+    });
     const url = `${this.config.publicUrl.replace(/\/+$/, '')}/accept-invite?token=${encodeURIComponent(token)}`;
     const m = invitationMail({ inviter: actor.name, role: req.role, url, expiresInDays: INVITATION_DAYS });
     let mailed = true;
@@ -140,7 +139,7 @@ export class InvitationsService {
     this.usable(req.token);
     const passwordHash = await this.hasher.hash(req.password);
     // Re-check after the (asynchronous) hashing, inside one transaction: a token is used once.
-    const user = this.handle.sqlite.transaction(() => {
+    const user = this.tx.run(() => {
       const inv = this.usable(req.token);
       if (this.users.findByEmail(inv.email))
         throw new ConflictError(`${inv.email} already has an account; sign in instead`);
@@ -161,7 +160,7 @@ export class InvitationsService {
         invitation: inv.id,
       });
       return u;
-    })();
+    });
     return this.auth.issue(user);
   }
 }

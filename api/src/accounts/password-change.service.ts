@@ -14,8 +14,7 @@ import { PasswordHasher } from '../auth/password-hasher.js';
 import { AuthService } from '../auth/auth.service.js';
 import { Clock } from '../common/clock.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
-import { DB_HANDLE } from '../db/db.module.js';
-import type { OpenedDatabase } from '../db/database.js';
+import { Transactions } from '../db/transactions.js';
 import { MailService } from '../mail/mail.service.js';
 import { TokensRepository } from '../tokens/tokens.repository.js';
 import { passwordResetMail } from '../mail/templates.js';
@@ -33,12 +32,12 @@ export class PasswordChangeService {
 
   constructor(
     @Inject(APP_CONFIG) private readonly config: AppConfig,
-    @Inject(DB_HANDLE) private readonly handle: OpenedDatabase,
     private readonly repo: AccountsRepository,
     private readonly users: UsersRepository,
     private readonly hasher: PasswordHasher,
     private readonly mail: MailService,
     private readonly clock: Clock,
+    private readonly tx: Transactions,
     private readonly auth: AuthService,
     private readonly tokens: TokensRepository,
   ) {}
@@ -83,7 +82,7 @@ export class PasswordChangeService {
     };
     check();
     const passwordHash = await this.hasher.hash(req.password);
-    const tokensRevoked = this.handle.sqlite.transaction(() => {
+    const tokensRevoked = this.tx.run(() => {
       const user = check();
       const now = this.clock.now();
       this.users.update(user.id, {
@@ -96,7 +95,7 @@ export class PasswordChangeService {
       });
       this.repo.useResets(user.id, now);
       return this.tokens.revokeAllForUser(user.id, now);
-    })();
+    });
     return {
       message: `Your password has been changed${revokedWords(tokensRevoked)}; sign in with the new one`,
       tokensRevoked,
@@ -119,7 +118,7 @@ export class PasswordChangeService {
     const passwordHash = await this.hasher.hash(req.next);
     const now = this.clock.now();
     // Read and raise the session version in one synchronous transaction (no lost increment).
-    const { updated, tokensRevoked } = this.handle.sqlite.transaction(() => {
+    const { updated, tokensRevoked } = this.tx.run(() => {
       const fresh = this.users.findById(user.id)!;
       const row = this.users.update(user.id, {
         passwordHash,
@@ -128,7 +127,7 @@ export class PasswordChangeService {
         sessionVersion: fresh.sessionVersion + 1,
       })!;
       return { updated: row, tokensRevoked: req.revokeTokens ? this.tokens.revokeAllForUser(user.id, now) : 0 };
-    })();
+    });
     return {
       message: `Your password has been changed; your other sessions have been signed out${revokedWords(tokensRevoked)}`,
       tokensRevoked,

@@ -1,4 +1,4 @@
-import { Inject, Injectable } from '@nestjs/common';
+import { Injectable } from '@nestjs/common';
 import {
   ConflictError,
   NotFoundError,
@@ -8,8 +8,7 @@ import {
   type PageOf,
 } from '@driftgrid/domain';
 import { Clock } from '../common/clock.js';
-import { DB_HANDLE } from '../db/db.module.js';
-import type { OpenedDatabase } from '../db/database.js';
+import { Transactions } from '../db/transactions.js';
 import { UsersRepository, type UserRow } from '../users/users.repository.js';
 import { AuditService } from './audit.service.js';
 
@@ -32,7 +31,7 @@ export class AdminUsersService {
     private readonly users: UsersRepository,
     private readonly audit: AuditService,
     private readonly clock: Clock,
-    @Inject(DB_HANDLE) private readonly handle: OpenedDatabase,
+    private readonly tx: Transactions,
   ) {}
 
   list(q: AdminUsersQuery): PageOf<AdminUser> {
@@ -52,7 +51,7 @@ export class AdminUsersService {
    * once cannot leave the server without one.
    */
   update(actorId: number, id: number, patch: AdminUserPatch): AdminUser {
-    const run = this.handle.sqlite.transaction(() => {
+    const updated = this.tx.run(() => {
       const user = this.users.findById(id);
       if (!user) throw new NotFoundError(`No user with id ${id}`);
       const losesAdmin =
@@ -77,11 +76,11 @@ export class AdminUsersService {
       if (patch.name !== undefined && patch.name !== user.name) changes.name = patch.name;
       if (Object.keys(changes).length === 0) return user;
       const now = this.clock.now();
-      const updated = this.users.update(id, { ...changes, updatedAt: now })!;
+      const changed = this.users.update(id, { ...changes, updatedAt: now })!;
       const before = Object.fromEntries(Object.keys(changes).map((k) => [k, user[k as keyof UserRow]]));
       this.audit.record(actorId, 'user.update', `user:${id}`, { email: user.email, before, after: changes });
-      return updated;
+      return changed;
     });
-    return toAdminUser(run(), this.clock.now());
+    return toAdminUser(updated, this.clock.now());
   }
 }

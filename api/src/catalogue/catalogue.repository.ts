@@ -2,6 +2,7 @@ import { Inject, Injectable } from '@nestjs/common';
 import type { CatalogueSortKey, SweepListQuery } from '@driftgrid/domain';
 import { DB_HANDLE } from '../db/db.module.js';
 import type { OpenedDatabase } from '../db/database.js';
+import { inTransaction } from '../db/transactions.js';
 import type { SweepRow } from '../sweeps/sweeps.repository.js';
 
 /** A catalogue row: the sweep's own columns plus what the list shows beside it. */
@@ -143,12 +144,12 @@ export class CatalogueRepository {
 
   /** Replaces visibility and named readers in one transaction. */
   setSharing(sweepId: number, visibility: 'private' | 'group', userIds: readonly number[]): void {
-    this.db.transaction(() => {
+    inTransaction(this.db, () => {
       this.db.prepare('UPDATE sweeps SET visibility = ? WHERE id = ?').run(visibility, sweepId);
       this.db.prepare('DELETE FROM sweep_shares WHERE sweep_id = ?').run(sweepId);
       const ins = this.db.prepare('INSERT INTO sweep_shares (sweep_id, user_id) VALUES (?, ?)');
       for (const u of new Set(userIds)) ins.run(sweepId, u);
-    })();
+    });
   }
 
   /** Which of these ids are active users (for validating a share list). */

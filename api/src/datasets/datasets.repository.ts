@@ -2,6 +2,7 @@ import { Inject, Injectable } from '@nestjs/common';
 import { and, eq, inArray, isNull } from 'drizzle-orm';
 import { DB } from '../db/db.module.js';
 import type { Db } from '../db/database.js';
+import { inTransaction } from '../db/transactions.js';
 import { datasetShares, datasets, users } from '../db/schema.js';
 import type { Cell } from './csv-reader.js';
 
@@ -32,13 +33,13 @@ export class DatasetsRepository {
 
   /** Inserts the metadata and every row in one transaction: a failure stores nothing. */
   insert(row: NewDataset, cells: Cell[][]): DatasetRow {
-    return this.sqlite.transaction(() => {
+    return inTransaction(this.sqlite, () => {
       const d = this.db.insert(datasets).values(row).returning().get();
       const ins = this.sqlite.prepare('INSERT INTO dataset_rows (id, cells) VALUES (?, ?)');
       const base = d.id * ROW_SPAN;
       for (let i = 0; i < cells.length; i++) ins.run(base + i, JSON.stringify(cells[i]));
       return d;
-    })();
+    });
   }
 
   findById(id: number): DatasetRow | undefined {
@@ -139,7 +140,7 @@ export class DatasetsRepository {
   }
 
   setSharing(id: number, patch: { visibility?: 'private' | 'group'; userIds?: number[] }): void {
-    this.sqlite.transaction(() => {
+    inTransaction(this.sqlite, () => {
       if (patch.visibility)
         this.db.update(datasets).set({ visibility: patch.visibility }).where(eq(datasets.id, id)).run();
       if (patch.userIds) {
@@ -151,16 +152,16 @@ export class DatasetsRepository {
             .values(unique.map((userId) => ({ datasetId: id, userId })))
             .run();
       }
-    })();
+    });
   }
 
   /** Drops the rows and shares; the metadata row stays (marked deleted) so fits can still name their source. */
   delete(id: number, now: number): void {
     const { lo, hi } = datasetRowRange(id);
-    this.sqlite.transaction(() => {
+    inTransaction(this.sqlite, () => {
       this.sqlite.prepare('DELETE FROM dataset_rows WHERE id BETWEEN ? AND ?').run(lo, hi);
       this.db.delete(datasetShares).where(eq(datasetShares.datasetId, id)).run();
       this.db.update(datasets).set({ deletedAt: now }).where(eq(datasets.id, id)).run();
-    })();
+    });
   }
 }

@@ -1,8 +1,7 @@
-import { Controller, Get, Inject, Optional } from '@nestjs/common';
+import { Controller, Get, Optional } from '@nestjs/common';
 import { ApiOperation, ApiTags } from '@nestjs/swagger';
 import { Public } from '../auth/access.decorators.js';
-import { DB_HANDLE } from '../db/db.module.js';
-import type { OpenedDatabase } from '../db/database.js';
+import { HealthRepository } from './health.repository.js';
 
 /** Anything that can report the queue's state for /api/health (the queue module provides one). */
 export abstract class QueueProbe {
@@ -13,7 +12,7 @@ export abstract class QueueProbe {
 @Controller('health')
 export class HealthController {
   constructor(
-    @Inject(DB_HANDLE) private readonly handle: OpenedDatabase,
+    private readonly database: HealthRepository,
     @Optional() private readonly queue?: QueueProbe,
   ) {}
 
@@ -23,7 +22,7 @@ export class HealthController {
   async health() {
     let db: 'ok' | 'down' = 'ok';
     try {
-      this.handle.sqlite.prepare('select 1').get();
+      this.database.answer();
     } catch {
       db = 'down';
     }

@@ -1,6 +1,7 @@
 import { Module } from '@nestjs/common';
 import { QueueModule } from '../queue/queue.module.js';
 import { HealthController } from './health.controller.js';
+import { HealthRepository } from './health.repository.js';
 
-@Module({ imports: [QueueModule], controllers: [HealthController] })
+@Module({ imports: [QueueModule], controllers: [HealthController], providers: [HealthRepository] })
 export class HealthModule {}

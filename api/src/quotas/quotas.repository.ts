@@ -1,10 +1,21 @@
 import { Inject, Injectable } from '@nestjs/common';
 import type Database from 'better-sqlite3';
-import { QUOTA_KEYS, type Quota, type QuotaUsage, type RoleName, type UserQuotaOverride } from '@driftgrid/domain';
+import {
+  ACTIVE_STATES,
+  QUOTA_KEYS,
+  type Quota,
+  type QuotaUsage,
+  type RoleName,
+  type UserQuotaOverride,
+} from '@driftgrid/domain';
 import { DB_HANDLE } from '../db/db.module.js';
 import type { OpenedDatabase } from '../db/database.js';
 
 export type OverrideFields = { [K in keyof Quota]: number | null };
+
+/** Named placeholders for the active states (@active0, @active1, …), bound by `activeParams`. */
+const ACTIVE_IN = ACTIVE_STATES.map((_, i) => `@active${i}`).join(', ');
+const activeParams = Object.fromEntries(ACTIVE_STATES.map((s, i) => [`active${i}`, s]));
 
 const COLS =
   'max_points_per_sweep AS maxPointsPerSweep, max_running_sweeps AS maxRunningSweeps, max_points_per_30_days AS maxPointsPer30Days, max_stored_points AS maxStoredPoints';
@@ -44,7 +55,7 @@ export class QuotasRepository {
       deleteUser: s.prepare('DELETE FROM user_quotas WHERE user_id = ?'),
       usage: s.prepare(
         `SELECT
-           COALESCE(SUM(CASE WHEN status IN ('queued', 'running') THEN 1 ELSE 0 END), 0) AS runningSweeps,
+           COALESCE(SUM(CASE WHEN status IN (${ACTIVE_IN}) THEN 1 ELSE 0 END), 0) AS runningSweeps,
            (SELECT COALESCE(SUM(points), 0) FROM quota_ledger WHERE user_id = @userId AND charged_at >= @since) AS pointsLast30Days,
            COALESCE(SUM(CASE WHEN status NOT IN ('draft', 'failed', 'cancelled') THEN points ELSE 0 END), 0) AS storedPoints
          FROM sweeps WHERE owner_id = @userId AND deleted_at IS NULL`,
@@ -53,10 +64,6 @@ export class QuotasRepository {
         'INSERT INTO quota_ledger (user_id, sweep_id, points, charged_at) VALUES (@userId, @sweepId, @points, @now)',
       ),
     };
-  }
-
-  transaction<T>(fn: () => T): T {
-    return this.sqlite.transaction(fn)();
   }
 
   roleCount(): number {
@@ -95,6 +102,6 @@ export class QuotasRepository {
   }
 
   usage(userId: number, since: number): QuotaUsage {
-    return this.st.usage.get({ userId, since }) as QuotaUsage;
+    return this.st.usage.get({ userId, since, ...activeParams }) as QuotaUsage;
   }
 }

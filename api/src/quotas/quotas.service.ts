@@ -15,6 +15,7 @@ import {
 } from '@driftgrid/domain';
 import { AuditService } from '../admin/audit.service.js';
 import { Clock } from '../common/clock.js';
+import { Transactions } from '../db/transactions.js';
 import { UsersRepository } from '../users/users.repository.js';
 import { DEFAULT_ROLE_QUOTAS } from './quota-defaults.js';
 import { findViolations, violationSentence } from './quota-messages.js';
@@ -42,11 +43,12 @@ export class QuotasService implements OnModuleInit {
     private readonly users: UsersRepository,
     private readonly audit: AuditService,
     private readonly clock: Clock,
+    private readonly tx: Transactions,
   ) {}
 
   onModuleInit(): void {
     const now = this.clock.now();
-    this.repo.transaction(() => {
+    this.tx.run(() => {
       for (const role of ROLE_NAMES)
         if (!this.repo.role(role)) this.repo.upsertRole(role, DEFAULT_ROLE_QUOTAS[role], now);
     });
@@ -101,7 +103,7 @@ export class QuotasService implements OnModuleInit {
   }
 
   setRoleDefault(actorId: number, role: RoleName, patch: RoleQuotaPatch): QuotasDocument {
-    this.repo.transaction(() => {
+    this.tx.run(() => {
       const before = this.roleDefault(role);
       const after = { ...before, ...patch };
       this.repo.upsertRole(role, after, this.clock.now());
@@ -111,7 +113,7 @@ export class QuotasService implements OnModuleInit {
   }
 
   setUserOverride(actorId: number, userId: number, patch: UserQuotaPatch): QuotasDocument {
-    this.repo.transaction(() => {
+    this.tx.run(() => {
       const user = this.users.findById(userId);
       if (!user) throw new NotFoundError(`No user with id ${userId}`);
       const before: OverrideFields = this.repo.user(userId) ?? {

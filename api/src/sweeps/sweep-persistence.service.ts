@@ -1,16 +1,13 @@
-import { Inject, Injectable, Logger } from '@nestjs/common';
-import type { Statement } from 'better-sqlite3';
+import { Injectable, Logger } from '@nestjs/common';
 import { decodeFloat64, decodeUint32, type ChunkResultPayload } from '@driftgrid/worker';
-import { ACTIVE_STATES, getModel } from '@driftgrid/domain';
+import { ACTIVE_STATES, getModel, isActiveState } from '@driftgrid/domain';
 import { Clock } from '../common/clock.js';
-import { DB_HANDLE } from '../db/db.module.js';
-import type { OpenedDatabase } from '../db/database.js';
+import { Transactions } from '../db/transactions.js';
+import { ChunksRepository } from './chunks.repository.js';
 import { SweepNotifier } from './ports.js';
+import { ResultsWriter } from './results-writer.repository.js';
 import { ROW_SPAN, slotColumns, type StoredColumn } from './sweep-layout.js';
 import { SweepsRepository } from './sweeps.repository.js';
-
-/** Rows per INSERT statement: multi-row VALUES cuts per-statement overhead several-fold. */
-const ROWS_PER_STATEMENT = 16;
 
 export interface ChunkFailure {
   sweepId: number;
@@ -26,36 +23,22 @@ export interface ChunkFailure {
 @Injectable()
 export class SweepPersistence {
   private readonly logger = new Logger('SweepPersistence');
-  private readonly statements = new Map<string, Statement>();
 
   constructor(
-    @Inject(DB_HANDLE) private readonly handle: OpenedDatabase,
+    private readonly tx: Transactions,
     private readonly sweeps: SweepsRepository,
+    private readonly chunks: ChunksRepository,
+    private readonly results: ResultsWriter,
     private readonly clock: Clock,
     private readonly notifier: SweepNotifier,
   ) {}
 
-  private insertStatement(slots: string[], rows: number): Statement {
-    const key = `${slots.join(',')}|${rows}`;
-    let st = this.statements.get(key);
-    if (!st) {
-      const one = `(${new Array(slots.length + 2).fill('?').join(',')})`;
-      st = this.handle.sqlite.prepare(
-        `INSERT OR REPLACE INTO results (id, flags, ${slots.join(', ')}) VALUES ${new Array(rows).fill(one).join(',')}`,
-      );
-      this.statements.set(key, st);
-    }
-    return st;
-  }
-
   persist(p: ChunkResultPayload): 'stored' | 'duplicate' | 'dropped' {
     const now = this.clock.now();
-    const outcome = this.sweeps.transaction(() => {
+    const outcome = this.tx.run(() => {
       const sweep = this.sweeps.findById(p.sweepId);
-      if (!sweep || (sweep.status !== 'queued' && sweep.status !== 'running')) return 'dropped' as const;
-      const chunk = this.handle.sqlite
-        .prepare('SELECT state, i0, i1 FROM sweep_chunks WHERE sweep_id = ? AND chunk_index = ?')
-        .get(p.sweepId, p.chunkIndex) as { state: string; i0: number; i1: number } | undefined;
+      if (!sweep || !isActiveState(sweep.status)) return 'dropped' as const;
+      const chunk = this.chunks.plan(p.sweepId, p.chunkIndex);
       if (!chunk || chunk.state === 'cancelled') return 'dropped' as const;
       if (chunk.i0 !== p.i0 || chunk.i1 - chunk.i0 !== p.n)
         throw new Error(`chunk ${p.chunkIndex} of sweep ${p.sweepId} does not match its plan`);
@@ -69,23 +52,13 @@ export class SweepPersistence {
         return decodeFloat64(enc);
       });
       const flags = decodeUint32(p.flags);
-      const slotNames = slots.map((s) => s.slot);
-      const width = slotNames.length + 2;
-      const base = p.sweepId * ROW_SPAN + p.i0;
-      const full = this.insertStatement(slotNames, ROWS_PER_STATEMENT);
-      const params = new Array(width * ROWS_PER_STATEMENT);
-      let r = 0;
-      for (; r + ROWS_PER_STATEMENT <= p.n; r += ROWS_PER_STATEMENT) {
-        for (let k = 0; k < ROWS_PER_STATEMENT; k++) fillRow(params, k * width, base + r + k, flags, arrays, r + k);
-        full.run(params);
-      }
-      if (r < p.n) {
-        const rest = p.n - r;
-        const tail = this.insertStatement(slotNames, rest);
-        const tp = new Array(width * rest);
-        for (let k = 0; k < rest; k++) fillRow(tp, k * width, base + r + k, flags, arrays, r + k);
-        tail.run(tp);
-      }
+      this.results.writeRows(
+        slots.map((s) => s.slot),
+        p.sweepId * ROW_SPAN + p.i0,
+        flags,
+        arrays,
+        p.n,
+      );
 
       // Flag statistics for the overview (how many points fall outside the ordering and why).
       const model = getModel(sweep.model);
@@ -100,11 +73,12 @@ export class SweepPersistence {
       }
       for (const f of model.flags) if (perBit[f.bit]) counts[f.code] = (counts[f.code] ?? 0) + perBit[f.bit];
 
-      this.handle.sqlite
-        .prepare(
-          "UPDATE sweep_chunks SET state = 'done', worker_id = ?, compute_ms = ?, attempts = ?, error = NULL, updated_at = ? WHERE sweep_id = ? AND chunk_index = ?",
-        )
-        .run(p.workerId, p.computeMs, p.attempt, now, p.sweepId, p.chunkIndex);
+      this.chunks.markDone(
+        p.sweepId,
+        p.chunkIndex,
+        { workerId: p.workerId, computeMs: p.computeMs, attempts: p.attempt },
+        now,
+      );
       const done = sweep.pointsDone + p.n;
       const complete = done >= sweep.points;
       this.sweeps.update(p.sweepId, {
@@ -131,12 +105,8 @@ export class SweepPersistence {
   /** A chunk that exhausted its attempts fails the sweep, keeping the reason. */
   fail(f: ChunkFailure): void {
     const now = this.clock.now();
-    const failed = this.sweeps.transaction(() => {
-      this.handle.sqlite
-        .prepare(
-          "UPDATE sweep_chunks SET state = 'failed', error = ?, worker_id = ?, updated_at = ? WHERE sweep_id = ? AND chunk_index = ? AND state != 'done'",
-        )
-        .run(f.reason.slice(0, 2000), f.workerId, now, f.sweepId, f.chunkIndex);
+    const failed = this.tx.run(() => {
+      this.chunks.markFailed(f.sweepId, f.chunkIndex, f.reason.slice(0, 2000), f.workerId, now);
       return this.sweeps.transition(f.sweepId, ACTIVE_STATES, {
         status: 'failed',
         error: `chunk ${f.chunkIndex}: ${f.reason}`.slice(0, 2000),
@@ -149,22 +119,5 @@ export class SweepPersistence {
         .sweepFinished({ sweepId: s.id, ownerId: s.ownerId, name: s.name, status: 'failed', error: s.error })
         .catch(() => undefined);
     }
-  }
-}
-
-function fillRow(
-  params: unknown[],
-  at: number,
-  id: number,
-  flags: Uint32Array,
-  arrays: Float64Array[],
-  i: number,
-): void {
-  params[at] = id;
-  params[at + 1] = flags[i];
-  for (let c = 0; c < arrays.length; c++) {
-    const v = arrays[c][i];
-    // SQLite stores ±Infinity as REAL but has no NaN: NaN is stored as NULL (answered as "NaN").
-    params[at + 2 + c] = Number.isNaN(v) ? null : v;
   }
 }

@@ -7,11 +7,13 @@ import { QuotasModule } from '../quotas/quotas.module.js';
 import { ReadsModule } from '../reads/reads.module.js';
 import { UsersModule } from '../users/users.module.js';
 import { ChunkDispatcher } from './chunk-dispatcher.js';
+import { ChunksRepository } from './chunks.repository.js';
 import { QuotasService } from '../quotas/quotas.service.js';
 import { MailSweepNotifier } from './mail-sweep-notifier.js';
 import { QuotaGate, SweepNotifier } from './ports.js';
 import { ResultsProcessor } from './results.processor.js';
 import { ResultsReader } from './results-reader.js';
+import { ResultsWriter } from './results-writer.repository.js';
 import { SweepAccess } from './sweep-access.js';
 import { SweepPersistence } from './sweep-persistence.service.js';
 import { SweepsController } from './sweeps.controller.js';
@@ -29,6 +31,8 @@ import { SweepsService } from './sweeps.service.js';
     SweepsService,
     SweepAccess,
     SweepPersistence,
+    ChunksRepository,
+    ResultsWriter,
     ChunkDispatcher,
     ResultsProcessor,
     ResultsReader,

@@ -3,6 +3,7 @@ import { Inject, Injectable } from '@nestjs/common';
 import { and, eq, inArray, sql } from 'drizzle-orm';
 import { DB } from '../db/db.module.js';
 import type { Db } from '../db/database.js';
+import { inTransaction } from '../db/transactions.js';
 import { sweepChunks, sweepShares, sweepTags, sweeps, type SweepStatus } from '../db/schema.js';
 import { rowRange } from './sweep-layout.js';
 
@@ -14,13 +15,8 @@ export type ChunkRow = typeof sweepChunks.$inferSelect;
 export class SweepsRepository {
   constructor(@Inject(DB) private readonly db: Db) {}
 
-  /** Runs fn in one SQLite transaction (synchronous: nothing else interleaves). */
-  transaction<T>(fn: () => T): T {
-    return this.db.$client.transaction(fn)();
-  }
-
   insert(row: NewSweep, tags: string[], chunks: { index: number; i0: number; i1: number }[], now: number): SweepRow {
-    return this.transaction(() => {
+    return inTransaction(this.db.$client, () => {
       const s = this.db.insert(sweeps).values(row).returning().get();
       if (tags.length)
         this.db
@@ -124,7 +120,7 @@ export class SweepsRepository {
   /** Deletes a sweep with its rows, chunks, tags and shares. */
   delete(id: number): void {
     const { lo, hi } = rowRange(id);
-    this.transaction(() => {
+    inTransaction(this.db.$client, () => {
       this.db.$client.prepare('DELETE FROM results WHERE id BETWEEN ? AND ?').run(lo, hi);
       this.db.delete(sweeps).where(eq(sweeps.id, id)).run();
     });

@@ -12,6 +12,7 @@ import {
 import type { AuthUser } from '../auth/current-user.js';
 import { Clock } from '../common/clock.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
+import { Transactions } from '../db/transactions.js';
 import { UsersRepository } from '../users/users.repository.js';
 import { ChunkDispatcher } from './chunk-dispatcher.js';
 import { QuotaGate } from './ports.js';
@@ -36,6 +37,7 @@ export class SweepsService {
     private readonly quotas: QuotaGate,
     private readonly users: UsersRepository,
     private readonly clock: Clock,
+    private readonly tx: Transactions,
   ) {}
 
   /** Everything the builder shows before submitting: counts, estimate, quota verdict, every error. */
@@ -108,7 +110,7 @@ export class SweepsService {
     const now = this.clock.now();
     const d = c.definition;
     // Quota check and insert in one synchronous transaction: concurrent submits cannot both pass.
-    const row = this.repo.transaction(() => {
+    const row = this.tx.run(() => {
       if (opts.enforceQuota !== false) this.quotas.assertAllowed(user.id, user.role, c.totalPoints);
       const inserted = this.repo.insert(
         {
@@ -160,7 +162,7 @@ export class SweepsService {
   async cancel(user: AuthUser, id: number) {
     const s = this.access.manageable(user, id);
     const now = this.clock.now();
-    const pending = this.repo.transaction(() => {
+    const pending = this.tx.run(() => {
       if (!this.repo.transition(id, [...ACTIVE_STATES, 'draft'], { status: 'cancelled', finishedAt: now })) {
         throw new ConflictError(`Sweep ${id} is ${s.status}; only queued or running sweeps can be cancelled`);
       }
