@@ -10,6 +10,9 @@ import { loadConfig } from '../../api/src/config/app-config.js';
 import { openDatabase, type OpenedDatabase } from '../../api/src/db/database.js';
 import { ExportRepository } from '../../api/src/export/export.repository.js';
 import { SweepExportBuilder } from '../../api/src/export/sweep-export.service.js';
+import { HeavyReads, type ReadOptions } from '../../api/src/reads/heavy-reads.js';
+import { PooledHeavyReads } from '../../api/src/reads/read-pool.js';
+import type { ReadResultOf, ReadTask } from '../../api/src/reads/read-tasks.js';
 import { layoutColumns, ROW_SPAN, slotColumns } from '../../api/src/sweeps/sweep-layout.js';
 import { SweepsRepository } from '../../api/src/sweeps/sweeps.repository.js';
 import { smallSweep } from '../support/sweeps.js';
@@ -23,6 +26,8 @@ const LONG = 120_000 + N / 2;
 let dir: string;
 let h: OpenedDatabase;
 let builder: SweepExportBuilder;
+/** The read pool the api uses (threads with read-only connections): batches are read and formatted there. */
+let reads: PooledHeavyReads;
 let sweeps: SweepsRepository;
 let sweepId: number;
 
@@ -71,16 +76,24 @@ function seedSweep(): number {
   return id;
 }
 
-beforeAll(() => {
+beforeAll(async () => {
   dir = tempDataDir('driftgrid-export-');
   const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: dir });
   h = openDatabase(config.dbFile);
   sweeps = new SweepsRepository(h.db);
-  builder = new SweepExportBuilder(config, new ExportRepository(h), sweeps);
   sweepId = seedSweep();
+  reads = new PooledHeavyReads(
+    { dbFile: config.dbFile, threads: 2, budgetMs: 60_000, perUser: 2, waitMs: 2000, maxQueue: 64 },
+    h.sqlite,
+  );
+  builder = new SweepExportBuilder(config, new ExportRepository(h), sweeps, reads);
+  // Threads load (domain, SQLite) in a second or two; the memory figure below is the export's, not theirs.
+  const deadline = Date.now() + 60_000;
+  while (reads.stats.ready < 2 && Date.now() < deadline) await new Promise((r) => setTimeout(r, 20));
 }, 300_000 + N);
 
-afterAll(() => {
+afterAll(async () => {
+  await reads?.onModuleDestroy();
   h?.sqlite.close();
   if (dir) fs.rmSync(dir, { recursive: true, force: true });
 });
@@ -97,7 +110,7 @@ describe(`streamed export of a ${N}-row sweep`, () => {
       let zipBytes = 0;
       const t0 = performance.now();
       const cpu0 = process.cpuUsage();
-      const { zip, csv } = builder.build(s, { exportedAt: 1700000700000 });
+      const { zip, csv } = builder.build(s, { exportedAt: 1700000700000, userId: 1 });
       await pipeline(
         zip,
         new Writable({
@@ -129,7 +142,7 @@ describe(`streamed export of a ${N}-row sweep`, () => {
     'writes a zip whose manifest counts and hashes results.csv (streamed unzip)',
     async () => {
       const s = sweeps.findById(sweepId)!;
-      const { zip } = builder.build(s, { exportedAt: 1700000700000 });
+      const { zip } = builder.build(s, { exportedAt: 1700000700000, userId: 1 });
       const hash = createHash('sha256');
       let csvBytes = 0;
       let lines = 0;
@@ -182,7 +195,7 @@ describe(`streamed export of a ${N}-row sweep`, () => {
 
   it('leaves the shared connection free for writes while a download is paused', async () => {
     const s = sweeps.findById(sweepId)!;
-    const { zip } = builder.build(s, { exportedAt: 1 });
+    const { zip } = builder.build(s, { exportedAt: 1, userId: 1 });
     // Read a little, then stall like a slow client.
     await new Promise<void>((resolve) =>
       zip.once('data', () => {
@@ -196,26 +209,29 @@ describe(`streamed export of a ${N}-row sweep`, () => {
     zip.destroy();
   });
 
-  it('stops reading rows once an abandoned download is destroyed', async () => {
-    // Count the rows the export pulls from the database through its repository.
+  it('reads on the pool threads, and stops reading rows once an abandoned download is destroyed', async () => {
+    expect(reads.mode).toBe('pool');
+    // Count the rows the export has the read pool read and format.
     let rowsRead = 0;
-    class CountingRepository extends ExportRepository {
-      override *sweepRows(s: Parameters<ExportRepository['sweepRows']>[0]) {
-        for (const batch of super.sweepRows(s)) {
-          rowsRead += batch.length;
-          yield batch;
-        }
+    class CountingReads extends HeavyReads {
+      async run<T extends ReadTask>(userId: number, task: T, options?: ReadOptions): Promise<ReadResultOf<T>> {
+        const r = await reads.run(userId, task, options);
+        if (task.kind === 'exportBatch') rowsRead += (r as ReadResultOf<{ kind: 'exportBatch' } & ReadTask>).rows;
+        return r;
       }
     }
     const config = loadConfig({ NODE_ENV: 'test', DATA_DIR: dir });
-    const counted = new SweepExportBuilder(config, new CountingRepository(h), sweeps);
-    const { zip } = counted.build(sweeps.findById(sweepId)!, { exportedAt: 1 });
-    // The client reads a little while the stream flows, then goes away.
-    await new Promise<void>((resolve) => zip.once('data', () => resolve()));
+    const counted = new SweepExportBuilder(config, new ExportRepository(h), sweeps, new CountingReads());
+    const { zip } = counted.build(sweeps.findById(sweepId)!, { exportedAt: 1, userId: 1 });
+    // The client reads while the first rows arrive, then goes away.
+    zip.resume();
+    const deadline = Date.now() + 30_000;
+    while (rowsRead === 0 && Date.now() < deadline) await new Promise((r) => setTimeout(r, 5));
     zip.destroy();
-    await new Promise((r) => setTimeout(r, 200));
+    // The batch asked ahead may still land; after that nothing more is read.
+    await new Promise((r) => setTimeout(r, 300));
     const settled = rowsRead;
-    await new Promise((r) => setTimeout(r, 500));
+    await new Promise((r) => setTimeout(r, 700));
     expect(rowsRead).toBe(settled); // nothing more is read after the download is gone
     expect(rowsRead).toBeGreaterThan(0);
     expect(rowsRead).toBeLessThan(N); // and the walk did not run to the end

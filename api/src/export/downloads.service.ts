@@ -48,7 +48,7 @@ export class Downloads {
       await this.send(fs.createReadStream(file), res, `archive of sweep ${id}`);
       return;
     }
-    const { zip } = this.sweepZip.build(s, { exportedAt: this.clock.now() });
+    const { zip } = this.sweepZip.build(s, { exportedAt: this.clock.now(), userId: user.id });
     this.startZip(res, fileName);
     await this.send(zip, res, `export of sweep ${id}`);
   }

@@ -49,7 +49,7 @@ export class SweepArchiver {
     this.busy.add(id);
     try {
       const now = this.clock.now();
-      const file = await this.writeArchive(id, now);
+      const file = await this.writeArchive(id, now, user.id);
       const ok = this.repo.transition(id, ['completed'], {
         status: 'archived',
         archivedAt: now,
@@ -72,6 +72,7 @@ export class SweepArchiver {
   private async writeArchive(
     id: number,
     now: number,
+    userId: number,
   ): Promise<{ name: string; fullPath: string; sha256: string; bytes: number }> {
     const s = this.repo.findById(id)!;
     await fs.promises.mkdir(this.config.archiveDir, { recursive: true });
@@ -85,7 +86,7 @@ export class SweepArchiver {
         cb(null, chunk);
       },
     });
-    const { zip } = this.builder.build(s, { exportedAt: now, archivedAt: now });
+    const { zip } = this.builder.build(s, { exportedAt: now, archivedAt: now, userId });
     try {
       await pipeline(zip, tap, fs.createWriteStream(tmp, { flags: 'wx', mode: 0o640 }));
       // fsync applies to the file, whichever descriptor asks: make the bytes durable before the rename.

@@ -9,6 +9,7 @@ import {
 } from '@driftgrid/domain';
 import { SeriesRepository } from '../catalogue/series.repository.js';
 import { SeriesService } from '../catalogue/series.service.js';
+import { formatBatch } from '../export/csv-format.js';
 import type { OpenedDatabase } from '../db/database.js';
 import { sensitivityReport, type SensitivityInputs } from '../sensitivity/sensitivity-report.js';
 import { SensitivityRepository } from '../sensitivity/sensitivity.repository.js';
@@ -17,6 +18,8 @@ import { ResultsRepository, type ResultRow } from '../sweeps/results.repository.
 import { layoutOf, type StoredColumn } from '../sweeps/sweep-layout.js';
 import type { SweepRow } from '../sweeps/sweeps.repository.js';
 import { OrderBuilder } from './sort-order.js';
+
+const UTF8 = new TextEncoder();
 
 /** Pages of a sorted view read ahead with its first page (the top-k pass costs about the same). */
 const LEAD_PAGES = 20;
@@ -75,19 +78,37 @@ export interface SensitivityTask {
   slot: string;
   params: SensitivityInputs;
 }
+/**
+ * One batch of a sweep's CSV export: rows after point index `after` (−1 for the first), read and
+ * formatted on the thread; the api thread only hashes, compresses and sends the text.
+ */
+export interface ExportBatchTask {
+  kind: 'exportBatch';
+  sweep: SweepRow;
+  after: number;
+  limit: number;
+}
+export interface ExportBatchResult {
+  /** The batch's CSV lines, UTF-8 encoded on the thread (moved to the api thread, not copied). */
+  bytes: Uint8Array;
+  rows: number;
+  /** Where the next batch starts; null once the sweep's rows are exhausted. */
+  next: number | null;
+}
 /** Test-only task: holds its thread for `ms` (checks of the budget, the limits and cancellation). */
 export interface SleepTask {
   kind: 'sleep';
   ms: number;
 }
 
-export type ReadTask = PageTask | OrderTask | SeriesTask | ColumnsTask | SensitivityTask | SleepTask;
+export type ReadTask = PageTask | OrderTask | SeriesTask | ColumnsTask | SensitivityTask | ExportBatchTask | SleepTask;
 export interface ReadResults {
   page: PageResult;
   order: Uint32Array;
   series: LineSeries | HeatmapSeries;
   columns: ColumnsResult;
   sensitivity: SensitivityReport;
+  exportBatch: ExportBatchResult;
   sleep: { slept: number };
 }
 export type ReadResultOf<T extends ReadTask> = ReadResults[T['kind']];
@@ -137,6 +158,8 @@ export class ReadTaskRunner {
           this.sensitivity.columnByIndex(task.sweepId, task.slot, task.params.points),
           task.params,
         );
+      case 'exportBatch':
+        return this.exportBatch(task);
       case 'sleep': {
         const until = Date.now() + task.ms;
         while (Date.now() < until) {
@@ -165,6 +188,14 @@ export class ReadTaskRunner {
     const lead = this.results.sortedIndices(s.id, q, compileSort(layout, t.sort), depth);
     const rows = this.results.rowsAt(s.id, layout, lead.subarray(offset, offset + t.pageSize));
     return { rows: shapeRows(rows, layout), total: filtered ? this.results.count(q) : s.pointsDone, lead };
+  }
+
+  private exportBatch(t: ExportBatchTask): ExportBatchResult {
+    const layout = layoutOf(t.sweep);
+    const booleans = layout.flatMap((c, j) => (c.type === 'boolean' ? [j] : []));
+    const { rows, last } = this.results.exportBatch(t.sweep.id, layout, t.after, t.limit);
+    const bytes = UTF8.encode(formatBatch(rows, booleans));
+    return { bytes, rows: rows.length, next: rows.length < t.limit ? null : last };
   }
 
   private order(sweepId: number, column: StoredColumn, desc: boolean, q: ReturnType<typeof compileFilter>) {

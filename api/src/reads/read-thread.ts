@@ -3,8 +3,9 @@
 import 'reflect-metadata';
 import Database from 'better-sqlite3';
 import { workerData } from 'node:worker_threads';
+import { move, transferableSymbol, valueSymbol } from 'piscina';
 import { lowerThreadPriority } from '@driftgrid/worker/thread-priority';
-import { ReadTaskRunner, type ReadReply, type ReadTask } from './read-tasks.js';
+import { ReadTaskRunner, type ReadTask } from './read-tasks.js';
 
 const { dbFile, loaded } = workerData as { dbFile: string; loaded?: Int32Array };
 
@@ -18,6 +19,40 @@ const runner = new ReadTaskRunner(db);
 // Tells the pool this thread has loaded (its readiness count; read-pool.ts).
 if (loaded) Atomics.add(loaded, 0, 1);
 
-export default function run(task: ReadTask): ReadReply {
-  return runner.run(task);
+/**
+ * Runs a task and hands its reply back. Typed arrays in the value (orders, whole columns, an export
+ * batch's bytes) are moved, not copied: the api thread receives them without a copy, and large
+ * copies would land in the api's old generation, which is collected rarely.
+ */
+export default function run(task: ReadTask): unknown {
+  const reply = runner.run(task);
+  const buffers = reply.ok ? ownedBuffers(reply.value) : [];
+  if (buffers.length === 0) return reply;
+  return move({
+    get [transferableSymbol]() {
+      return buffers;
+    },
+    get [valueSymbol]() {
+      return reply;
+    },
+  });
+}
+
+/**
+ * ArrayBuffers of the typed arrays in a value (top level and one object below, as in columns' data)
+ * that each own their whole buffer: a view into a shared buffer (Node's small-Buffer pool) must not be
+ * moved, or the rest of that buffer would vanish from this thread.
+ */
+function ownedBuffers(value: unknown): ArrayBuffer[] {
+  const found = new Set<ArrayBuffer>();
+  const visit = (v: unknown, depth: number) => {
+    if (ArrayBuffer.isView(v)) {
+      if (v.buffer instanceof ArrayBuffer && v.byteOffset === 0 && v.byteLength === v.buffer.byteLength)
+        found.add(v.buffer);
+    } else if (v && typeof v === 'object' && depth < 2 && !Array.isArray(v)) {
+      for (const x of Object.values(v)) visit(x, depth + 1);
+    }
+  };
+  visit(value, 0);
+  return [...found];
 }

@@ -77,6 +77,28 @@ export class ResultsRepository {
     return Uint32Array.from(ids);
   }
 
+  /**
+   * One keyset batch of a sweep's rows for an export: rows with point index > `after`, in index order,
+   * as arrays in layout order, and the last point index read (where the next batch starts; null at the
+   * end). Each batch is its own statement, so no iterator stays open on a connection between batches.
+   */
+  exportBatch(
+    sweepId: number,
+    layout: readonly StoredColumn[],
+    after: number,
+    limit: number,
+  ): { rows: (number | null)[][]; last: number | null } {
+    const base = sweepId * ROW_SPAN;
+    const rows = this.prepare(
+      `SELECT id - ${base}, ${selectList(sweepId, layout)} FROM results WHERE id > ? AND id < ? ORDER BY id LIMIT ?`,
+    )
+      .raw(true)
+      .all(base + after, base + ROW_SPAN, limit) as (number | null)[][];
+    const last = rows.length ? (rows[rows.length - 1]![0] as number) : null;
+    for (const r of rows) r.shift();
+    return { rows, last };
+  }
+
   count(q: CompiledQuery): number {
     return (this.prepare(`SELECT COUNT(*) AS n FROM results WHERE ${q.where}`).get(...q.params) as { n: number }).n;
   }
