@@ -1,5 +1,5 @@
 import { SetMetadata } from '@nestjs/common';
-import type { RoleName } from '@driftgrid/domain';
+import { ROLE_NAMES, type RoleName } from '@driftgrid/domain';
 
 export const ACCESS_KEY = 'driftgrid:access';
 
@@ -11,8 +11,8 @@ export const Public = () => SetMetadata(ACCESS_KEY, { kind: 'public' } satisfies
 /** Only these roles. A route without an access decorator is closed (403) for everyone. */
 export const Roles = (...roles: RoleName[]) => SetMetadata(ACCESS_KEY, { kind: 'roles', roles } satisfies Access);
 
-/** Any signed-in user. */
-export const SignedIn = () => Roles('admin', 'researcher', 'reviewer');
+/** Any signed-in user: every role (the domain's list, so a new role is not shut out by a stale copy). */
+export const SignedIn = () => Roles(...ROLE_NAMES);
 
 /** Marks a route that changes state; read-scope API tokens may not call it. */
 export const WRITE_KEY = 'driftgrid:writes';

@@ -2,11 +2,18 @@
  * The whole SQLite schema (Drizzle). Times are integer milliseconds since the epoch (UTC).
  * Migrations are generated from this file with `npm run db:generate` and committed in drizzle/.
  */
-import { ROLE_NAMES, SWEEP_STATUSES, type RoleName, type SweepStatus } from '@driftgrid/domain';
+import {
+  ACTIVE_STATES,
+  FIT_STATUSES,
+  ROLE_NAMES,
+  SWEEP_STATUSES,
+  type RoleName,
+  type SweepStatus,
+} from '@driftgrid/domain';
 import { sql } from 'drizzle-orm';
 import { index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 
-// Roles and sweep statuses are declared once, in the domain's contracts (shared with the ui).
+// Roles, sweep and fit statuses are declared once, in the domain's contracts (shared with the ui).
 export const ROLES = ROLE_NAMES;
 export type Role = RoleName;
 
@@ -103,7 +110,8 @@ export const sweepShares = sqliteTable(
   (t) => [primaryKey({ columns: [t.sweepId, t.userId] }), index('sweep_shares_user_idx').on(t.userId)],
 );
 
-export const CHUNK_STATES = ['queued', 'running', 'done', 'failed', 'cancelled'] as const;
+/** A chunk is active (queued, running) as a sweep is, then settles; these states never leave the api. */
+export const CHUNK_STATES = [...ACTIVE_STATES, 'done', 'failed', 'cancelled'] as const;
 
 export const sweepChunks = sqliteTable(
   'sweep_chunks',
@@ -182,8 +190,6 @@ export const datasetRows = sqliteTable('dataset_rows', {
   id: integer('id').primaryKey(),
   cells: text('cells').notNull(),
 });
-
-export const FIT_STATUSES = ['queued', 'running', 'completed', 'failed'] as const;
 
 export const fits = sqliteTable(
   'fits',

@@ -166,7 +166,8 @@ export const fitRequestSchema = z
 export type FitRequest = z.infer<typeof fitRequestSchema>;
 
 export type FitSourceKind = 'sweep' | 'dataset';
-export type FitStatus = 'queued' | 'running' | 'completed' | 'failed';
+export const FIT_STATUSES = [...ACTIVE_STATES, 'completed', 'failed'] as const;
+export type FitStatus = (typeof FIT_STATUSES)[number];
 export const LIVE_FIT_STATUSES: readonly FitStatus[] = ACTIVE_STATES;
 export type { FitModelKind, SigmaMode };
 
