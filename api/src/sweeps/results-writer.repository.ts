@@ -42,6 +42,11 @@ export class ResultsWriter {
     }
   }
 
+  /** Removes rows firstId … firstId + n − 1 (a chunk whose sweep went away while its rows were written). */
+  deleteRows(firstId: number, n: number): void {
+    this.handle.sqlite.prepare('DELETE FROM results WHERE id BETWEEN ? AND ?').run(firstId, firstId + n - 1);
+  }
+
   private insertStatement(slots: readonly string[], rows: number): Statement {
     const key = `${slots.join(',')}|${rows}`;
     let st = this.statements.get(key);

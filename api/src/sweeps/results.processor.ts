@@ -47,7 +47,7 @@ export class ResultsProcessor extends WorkerHost {
       return 'requeued';
     }
     try {
-      return this.persistence.persist(p);
+      return await this.persistence.persist(p);
     } catch (e) {
       const code = (e as { code?: string }).code ?? '';
       const reason = FINAL_STORAGE_ERRORS[code];
