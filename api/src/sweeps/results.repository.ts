@@ -1,4 +1,5 @@
 import type Database from 'better-sqlite3';
+import { inTransaction } from '../db/transactions.js';
 import type { CompiledQuery } from './results-query.js';
 import { selectList } from './results-query.js';
 import { ROW_SPAN, type StoredColumn } from './sweep-layout.js';
@@ -128,10 +129,10 @@ export class ResultsRepository {
     let after = base - 1;
     for (;;) {
       // Both reads in one read transaction: the same snapshot even while a running sweep is written.
-      const [idx, values] = this.db.transaction(() => [
+      const [idx, values] = inTransaction(this.db, () => [
         ids.all(after, hi, ...filterParams) as number[],
         vals.all(after, hi, ...filterParams) as (number | null)[],
-      ])() as [number[], (number | null)[]];
+      ]) as [number[], (number | null)[]];
       if (idx.length === 0) return;
       after = idx[idx.length - 1]!;
       for (let i = 0; i < idx.length; i++) idx[i] = idx[i]! - base;
