@@ -1,19 +1,16 @@
-import { Controller, Get, Optional } from '@nestjs/common';
+import { Controller, Get } from '@nestjs/common';
 import { ApiOperation, ApiTags } from '@nestjs/swagger';
 import { Public } from '../auth/access.decorators.js';
 import { HealthRepository } from './health.repository.js';
-
-/** Anything that can report the queue's state for /api/health (the queue module provides one). */
-export abstract class QueueProbe {
-  abstract probe(): Promise<{ status: 'ok' | 'down'; mode: string }>;
-}
+import { QueueProbe } from './queue-probe.js';
 
 @ApiTags('health')
 @Controller('health')
 export class HealthController {
   constructor(
     private readonly database: HealthRepository,
-    @Optional() private readonly queue?: QueueProbe,
+    // Required: HealthModule imports QueueModule, so a lost import fails at boot, not as a silent 'ok'.
+    private readonly queue: QueueProbe,
   ) {}
 
   @Get()
@@ -26,9 +23,7 @@ export class HealthController {
     } catch {
       db = 'down';
     }
-    const queue = this.queue
-      ? await this.queue.probe().catch(() => ({ status: 'down' as const, mode: 'unknown' }))
-      : { status: 'ok' as const, mode: 'none' };
+    const queue = await this.queue.probe().catch(() => ({ status: 'down' as const, mode: 'unknown' }));
     return { status: db === 'ok' && queue.status === 'ok' ? 'ok' : 'degraded', db, queue };
   }
 }

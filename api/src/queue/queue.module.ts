@@ -11,7 +11,7 @@ import {
   ResultTransport,
 } from '@driftgrid/worker';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
-import { QueueProbe } from '../health/health.controller.js';
+import { QueueProbe } from '../health/queue-probe.js';
 import { createQueueConnection, type QueueConnection } from './queue-connection.js';
 
 export const QUEUE_CONNECTION = Symbol('QUEUE_CONNECTION');
