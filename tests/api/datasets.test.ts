@@ -88,7 +88,7 @@ describe('POST /api/datasets', () => {
     expect(res.status).toBe(201);
     expect(res.body.columns.map((c: { canonicalUnit: string }) => c.canonicalUnit)).toEqual(['eV', 'T']);
     const me = t.sqlite().prepare('SELECT id FROM users WHERE email = ?').get(DEMO.researcher) as { id: number };
-    const cols = t.app
+    const cols = await t.app
       .get(DatasetsService)
       .columns(
         { id: me.id, email: DEMO.researcher, name: '', role: 'researcher', via: 'session', scope: 'read-write' },

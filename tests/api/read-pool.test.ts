@@ -136,6 +136,28 @@ describe('heavy reads run on the pool, bounded and fair', () => {
     expect((await sorted(researcher, 'vDi_ms:asc')).status).toBe(200);
   });
 
+  it("reads a dataset's columns (plot overlays, fit sources) on the pool, within the user's share", async () => {
+    const up = await t.http
+      .post('/api/datasets')
+      .set('authorization', `Bearer ${researcher}`)
+      .attach('file', Buffer.from('V,I,note\n-4,0.5,a\n-2,,b\n0,2.25,c\n2,,d\n4,8.5,e\n'), 'probe-sweep.csv');
+    expect(up.status).toBe(201);
+    const series = () =>
+      t.http.get(`/api/datasets/${up.body.id}/series?x=V&y=I`).set('authorization', `Bearer ${researcher}`);
+    await warm();
+    const mine = hold(researcherId, 2000);
+    await new Promise((r) => setTimeout(r, 50));
+    // The user's one heavy-read slot is taken: the overlay waits, then is refused like any heavy read.
+    const excess = await series();
+    expect(excess.status).toBe(429);
+    await mine;
+    const ok = await series();
+    expect(ok.status).toBe(200);
+    // Empty cells are gaps, skipped; the rest in row order.
+    expect(ok.body.points).toEqual({ x: [-4, 0, 4], y: [0.5, 2.25, 8.5] });
+    expect(ok.body.total).toBe(3);
+  });
+
   it('frees the slot and the queue place of a request whose client went away', async () => {
     await warm();
     const busy = [hold(9001, 3000), hold(9002, 3000)];

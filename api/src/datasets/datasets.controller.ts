@@ -29,6 +29,7 @@ import { Roles, SignedIn } from '../auth/access.decorators.js';
 import { CurrentUser, type AuthUser } from '../auth/current-user.js';
 import { openApiSchema } from '../common/openapi.js';
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
+import { ClientSignal } from '../reads/client-signal.js';
 import { CsvUploadInterceptor } from './csv-upload.interceptor.js';
 import { DatasetsService, type UploadedCsv } from './datasets.service.js';
 
@@ -104,8 +105,9 @@ export class DatasetsController {
     @CurrentUser() user: AuthUser,
     @Param('id', new IdParamPipe()) id: number,
     @Query(new ZodValidationPipe(datasetSeriesQuerySchema, 'query')) q: DatasetSeriesQuery,
+    @ClientSignal() signal: AbortSignal,
   ) {
-    return this.datasets.series(user, id, q);
+    return this.datasets.series(user, id, q, signal);
   }
 
   @Put(':id/sharing')

@@ -20,6 +20,7 @@ import type { AuthUser } from '../auth/current-user.js';
 import { Clock } from '../common/clock.js';
 import { APP_CONFIG, type AppConfig } from '../config/app-config.js';
 import { parseDatasetCsv } from './csv-reader.js';
+import { HeavyReads } from '../reads/heavy-reads.js';
 import { DatasetsRepository, type DatasetRow } from './datasets.repository.js';
 
 export interface UploadedCsv {
@@ -52,6 +53,7 @@ export class DatasetsService {
     @Inject(APP_CONFIG) private readonly config: AppConfig,
     private readonly repo: DatasetsRepository,
     private readonly clock: Clock,
+    private readonly reads: HeavyReads,
   ) {}
 
   upload(user: AuthUser, file: UploadedCsv | undefined, fields: DatasetUploadFields): DatasetUploadResult {
@@ -153,7 +155,12 @@ export class DatasetsService {
    * Whole numeric columns in canonical units, in row order (the input of fits). Missing cells are NaN.
    * 400 naming the column for a text column or a name the dataset does not have.
    */
-  columns(user: AuthUser, id: number, names: string[]): { n: number; data: Record<string, Float64Array> } {
+  async columns(
+    user: AuthUser,
+    id: number,
+    names: string[],
+    signal?: AbortSignal,
+  ): Promise<{ n: number; data: Record<string, Float64Array> }> {
     const d = this.readable(user, id);
     const cols = columnsOf(d);
     const idx = names.map((name, i) => {
@@ -172,25 +179,22 @@ export class DatasetsService {
         ]);
       return j;
     });
+    // Reading every row is a heavy read: on the read pool, within its budget and the user's share.
+    const read = await this.reads.run(
+      user.id,
+      { kind: 'datasetColumns', datasetId: id, cells: idx, rows: d.rows },
+      signal ? { signal } : {},
+    );
     const data: Record<string, Float64Array> = {};
-    for (const name of names) data[name] = new Float64Array(d.rows);
-    let r = 0;
-    for (const cells of this.repo.iterateRows(id)) {
-      names.forEach((name, k) => {
-        const v = cells[idx[k]];
-        data[name][r] = typeof v === 'number' ? v : NaN;
-      });
-      r++;
-    }
-    if (r !== d.rows) for (const name of names) data[name] = data[name].subarray(0, r);
-    return { n: r, data };
+    names.forEach((name, k) => (data[name] = read.columns[k]!));
+    return { n: read.n, data };
   }
 
   /** Points of two numeric columns for an overlay on a sweep plot (canonical units, gaps skipped). */
-  series(user: AuthUser, id: number, q: DatasetSeriesQuery): DatasetSeries {
+  async series(user: AuthUser, id: number, q: DatasetSeriesQuery, signal?: AbortSignal): Promise<DatasetSeries> {
     const d = this.readable(user, id);
     const cols = columnsOf(d);
-    const { data, n } = this.columns(user, id, q.x === q.y ? [q.x] : [q.x, q.y]);
+    const { data, n } = await this.columns(user, id, q.x === q.y ? [q.x] : [q.x, q.y], signal);
     const xs = data[q.x];
     const ys = data[q.y];
     const keep: number[] = [];

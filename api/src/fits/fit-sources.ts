@@ -150,7 +150,7 @@ export class FitSources {
       'dataset',
     );
     const all = [...new Set([...names, ...Object.keys(filter)])];
-    const raw = this.datasets.columns(user, id, all);
+    const raw = await this.datasets.columns(user, id, all);
     let { n, data } = raw;
     if (Object.keys(filter).length) {
       // Rows outside the filter are left out before counting rows dropped for missing values.

@@ -9,6 +9,7 @@ import {
 } from '@driftgrid/domain';
 import { SeriesRepository } from '../catalogue/series.repository.js';
 import { SeriesService } from '../catalogue/series.service.js';
+import { DatasetRowsRepository } from '../datasets/dataset-rows.repository.js';
 import { formatBatch } from '../export/csv-format.js';
 import type { OpenedDatabase } from '../db/database.js';
 import { sensitivityReport, type SensitivityInputs } from '../sensitivity/sensitivity-report.js';
@@ -78,6 +79,17 @@ export interface SensitivityTask {
   slot: string;
   params: SensitivityInputs;
 }
+/** Numeric cells of a dataset's columns (positions `cells`), in row order: fit sources and overlays. */
+export interface DatasetColumnsTask {
+  kind: 'datasetColumns';
+  datasetId: number;
+  cells: number[];
+  rows: number;
+}
+export interface DatasetColumnsResult {
+  n: number;
+  columns: Float64Array[];
+}
 /**
  * One batch of a sweep's CSV export: rows after point index `after` (−1 for the first), read and
  * formatted on the thread; the api thread only hashes, compresses and sends the text.
@@ -101,7 +113,8 @@ export interface SleepTask {
   ms: number;
 }
 
-export type ReadTask = PageTask | OrderTask | SeriesTask | ColumnsTask | SensitivityTask | ExportBatchTask | SleepTask;
+export type ReadTask =
+  PageTask | OrderTask | SeriesTask | ColumnsTask | DatasetColumnsTask | SensitivityTask | ExportBatchTask | SleepTask;
 export interface ReadResults {
   page: PageResult;
   order: Uint32Array;
@@ -109,6 +122,7 @@ export interface ReadResults {
   columns: ColumnsResult;
   sensitivity: SensitivityReport;
   exportBatch: ExportBatchResult;
+  datasetColumns: DatasetColumnsResult;
   sleep: { slept: number };
 }
 export type ReadResultOf<T extends ReadTask> = ReadResults[T['kind']];
@@ -122,9 +136,11 @@ export class ReadTaskRunner {
   private readonly results: ResultsRepository;
   private readonly series: SeriesService;
   private readonly sensitivity: SensitivityRepository;
+  private readonly datasets: DatasetRowsRepository;
 
   constructor(db: Database.Database) {
     this.results = new ResultsRepository(db);
+    this.datasets = new DatasetRowsRepository(db);
     this.sensitivity = new SensitivityRepository(db);
     this.series = new SeriesService(new SeriesRepository({ sqlite: db } as OpenedDatabase));
   }
@@ -160,6 +176,8 @@ export class ReadTaskRunner {
         );
       case 'exportBatch':
         return this.exportBatch(task);
+      case 'datasetColumns':
+        return this.datasets.numericColumns(task.datasetId, task.cells, task.rows);
       case 'sleep': {
         const until = Date.now() + task.ms;
         while (Date.now() < until) {

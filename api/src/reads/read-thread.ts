@@ -39,7 +39,7 @@ export default function run(task: ReadTask): unknown {
 }
 
 /**
- * ArrayBuffers of the typed arrays in a value (top level and one object below, as in columns' data)
+ * ArrayBuffers of the typed arrays in a value (top level and one object or array below, as in columns)
  * that each own their whole buffer: a view into a shared buffer (Node's small-Buffer pool) must not be
  * moved, or the rest of that buffer would vanish from this thread.
  */
@@ -49,8 +49,8 @@ function ownedBuffers(value: unknown): ArrayBuffer[] {
     if (ArrayBuffer.isView(v)) {
       if (v.buffer instanceof ArrayBuffer && v.byteOffset === 0 && v.byteLength === v.buffer.byteLength)
         found.add(v.buffer);
-    } else if (v && typeof v === 'object' && depth < 2 && !Array.isArray(v)) {
-      for (const x of Object.values(v)) visit(x, depth + 1);
+    } else if (v && typeof v === 'object' && depth < 2) {
+      for (const x of Array.isArray(v) ? v : Object.values(v)) visit(x, depth + 1);
     }
   };
   visit(value, 0);
