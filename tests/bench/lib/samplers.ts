@@ -1,5 +1,6 @@
 /** Background samplers: api RSS from /proc and GET /api/health latency, while a scenario runs. */
 import fs from 'node:fs';
+import { Worker } from 'node:worker_threads';
 import { max, percentile } from './stats.js';
 
 /** Resident set size of a process in bytes (Linux /proc), or NaN when unreadable. */
@@ -50,30 +51,50 @@ export interface LatencySummary {
   errors: number;
 }
 
-/** Sends GET /api/health one at a time, one every ~everyMs (back to back when a reply is late). */
-export function sampleHealth(baseUrl: string, everyMs = 50): { stop(): Promise<LatencySummary> } {
-  const lat: number[] = [];
-  let errors = 0;
-  let running = true;
-  const loop = (async () => {
-    while (running) {
-      const t0 = performance.now();
-      try {
-        const r = await fetch(`${baseUrl}/api/health`);
-        await r.arrayBuffer();
-        if (r.ok) lat.push(performance.now() - t0);
-        else errors++;
-      } catch {
-        errors++;
-      }
-      const wait = everyMs - (performance.now() - t0);
-      if (wait > 0 && running) await new Promise((r) => setTimeout(r, wait));
+/**
+ * The probe loop, run on a thread of its own: the bench's clients share the main thread, and a probe
+ * there would time their JSON parsing and callbacks too, not only the api's answer.
+ */
+const HEALTH_PROBE = `
+const { parentPort, workerData } = require('node:worker_threads');
+const { baseUrl, everyMs } = workerData;
+let running = true;
+const lat = [];
+let errors = 0;
+parentPort.on('message', () => { running = false; });
+(async () => {
+  while (running) {
+    const t0 = performance.now();
+    try {
+      const r = await fetch(baseUrl + '/api/health');
+      await r.arrayBuffer();
+      if (r.ok) lat.push(performance.now() - t0);
+      else errors++;
+    } catch {
+      errors++;
     }
-  })();
+    const wait = everyMs - (performance.now() - t0);
+    if (wait > 0 && running) await new Promise((r) => setTimeout(r, wait));
+  }
+  parentPort.postMessage({ lat, errors });
+})();
+`;
+
+/**
+ * Sends GET /api/health one at a time, one every ~everyMs (back to back when a reply is late), from a
+ * worker thread so that the latency is the api's, not the bench process's own event-loop delay.
+ */
+export function sampleHealth(baseUrl: string, everyMs = 50): { stop(): Promise<LatencySummary> } {
+  const probe = new Worker(HEALTH_PROBE, { eval: true, workerData: { baseUrl, everyMs } });
+  const result = new Promise<{ lat: number[]; errors: number }>((resolve, reject) => {
+    probe.once('message', resolve);
+    probe.once('error', reject);
+  });
   return {
     async stop() {
-      running = false;
-      await loop;
+      probe.postMessage('stop');
+      const { lat, errors } = await result;
+      await probe.terminate();
       return { n: lat.length, p50: percentile(lat, 50), p95: percentile(lat, 95), max: max(lat), errors };
     },
   };
