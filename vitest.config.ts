@@ -19,7 +19,12 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: 'unit',
-          include: ['domain/src/**/*.spec.ts', 'worker/src/**/*.spec.ts', 'api/src/**/*.spec.ts'],
+          include: [
+            'domain/src/**/*.spec.ts',
+            'worker/src/**/*.spec.ts',
+            'api/src/**/*.spec.ts',
+            'tests/unit/**/*.test.ts',
+          ],
           environment: 'node',
         },
       },

@@ -1,3 +1,4 @@
+import { isActiveState } from '@driftgrid/domain';
 import type { TestApp } from './app.js';
 
 /** A small cross-field grid in our demo scenario (argon column, Te × B). */
@@ -22,7 +23,7 @@ export async function waitForSweep(t: TestApp, token: string, id: number, timeou
   for (;;) {
     const res = await t.http.get(`/api/sweeps/${id}`).set('authorization', `Bearer ${token}`);
     if (res.status !== 200) throw new Error(`GET sweep ${id}: ${res.status} ${JSON.stringify(res.body)}`);
-    if (!['queued', 'running'].includes(res.body.status)) return res.body;
+    if (!isActiveState(res.body.status)) return res.body;
     if (Date.now() > deadline)
       throw new Error(`sweep ${id} still ${res.body.status} (${res.body.progress.done}/${res.body.progress.total})`);
     await new Promise((r) => setTimeout(r, 100));

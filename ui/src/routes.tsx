@@ -10,6 +10,7 @@ import {
   type Icon,
 } from '@tabler/icons-react';
 import type { ComponentType } from 'react';
+import { CREATOR_ROLES } from '@driftgrid/domain';
 import type { Role } from './auth/session.js';
 
 /**
@@ -32,8 +33,6 @@ export interface PageRoute {
   };
 }
 
-const CREATORS: readonly Role[] = ['admin', 'researcher'];
-
 export const pageRoutes: readonly PageRoute[] = [
   {
     path: '/',
@@ -44,7 +43,7 @@ export const pageRoutes: readonly PageRoute[] = [
   {
     path: '/sweeps/new',
     title: 'New sweep',
-    roles: CREATORS,
+    roles: CREATOR_ROLES,
     load: () => import('./pages/NewSweep.page.js'),
     nav: { label: 'New sweep', icon: IconPlus },
   },
@@ -58,7 +57,7 @@ export const pageRoutes: readonly PageRoute[] = [
   {
     path: '/datasets',
     title: 'Datasets',
-    roles: CREATORS,
+    roles: CREATOR_ROLES,
     load: () => import('./pages/Datasets.page.js'),
     nav: { label: 'Datasets', icon: IconDatabase, alsoActiveFor: ['/datasets/'] },
   },

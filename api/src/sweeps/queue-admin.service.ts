@@ -3,7 +3,7 @@ import { AuditService } from '../admin/audit.service.js';
 import { QUEUE_CONNECTION } from '../queue/queue.module.js';
 import type { QueueConnection } from '../queue/queue-connection.js';
 import { UsersRepository } from '../users/users.repository.js';
-import type { QueueSummary } from '@driftgrid/domain';
+import type { ActiveState, QueueSummary } from '@driftgrid/domain';
 import { queueSummary } from '../queue/queue-summary.js';
 import { ChunkDispatcher } from './chunk-dispatcher.js';
 import { SweepsRepository } from './sweeps.repository.js';
@@ -24,7 +24,7 @@ export class QueueAdminService {
     const sweeps = this.sweeps.unfinished().map((s) => ({
       id: s.id,
       name: s.name,
-      status: s.status as 'queued' | 'running',
+      status: s.status as ActiveState,
       owner: this.users.findById(s.ownerId)?.name ?? 'unknown',
       progress: { done: s.pointsDone, total: s.points },
       createdAt: new Date(s.createdAt).toISOString(),

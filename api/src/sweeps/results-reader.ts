@@ -1,4 +1,5 @@
 import { Inject, Injectable, Logger } from '@nestjs/common';
+import type { ResultsPage } from '@driftgrid/domain';
 import { DB_HANDLE } from '../db/db.module.js';
 import type { OpenedDatabase } from '../db/database.js';
 import { HeavyReads } from '../reads/heavy-reads.js';
@@ -6,7 +7,7 @@ import { covers, OrderCache, orderKey } from '../reads/order-cache.js';
 import { shapeRows, type OrderTask } from '../reads/read-tasks.js';
 import { columnByName, parseSort, type ResultFilter } from './results-query.js';
 import { ResultsRepository } from './results.repository.js';
-import { layoutOf } from './sweep-layout.js';
+import { columnViews, layoutOf } from './sweep-layout.js';
 import type { SweepRow } from './sweeps.repository.js';
 
 export { layoutOf };
@@ -53,10 +54,10 @@ export class ResultsReader {
     this.repo = new ResultsRepository(handle.sqlite);
   }
 
-  async page(userId: number, s: SweepRow, q: ResultsPageQuery, signal?: AbortSignal) {
+  async page(userId: number, s: SweepRow, q: ResultsPageQuery, signal?: AbortSignal): Promise<ResultsPage> {
     const layout = layoutOf(s);
     const spec = parseSort(layout, q.sort); // a bad sort is a 400 before any work
-    const columns = layout.map((c) => ({ name: c.name, unit: c.unit, kind: c.kind, meaning: c.meaning, type: c.type }));
+    const columns = columnViews(layout);
     const offset = (q.page - 1) * q.pageSize;
     const filtered = Object.keys(q.filter).length > 0;
     const byIndex = !spec || spec.column.kind === 'index';

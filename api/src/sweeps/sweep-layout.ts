@@ -1,4 +1,4 @@
-import type { SweepColumn } from '@driftgrid/domain';
+import type { SweepColumn, SweepColumnView } from '@driftgrid/domain';
 import { RESULT_SLOTS } from '../db/schema.js';
 
 /** A result column with where it lives in the results table. */
@@ -12,6 +12,11 @@ export const ROW_SPAN = 2 ** 32;
 /** A sweep's stored column layout (written once when the sweep is created). */
 export function layoutOf(s: { columns: string }): StoredColumn[] {
   return JSON.parse(s.columns) as StoredColumn[];
+}
+
+/** The columns as the api shows them (sweep and results pages alike): the layout without storage slots. */
+export function columnViews(layout: readonly StoredColumn[]): SweepColumnView[] {
+  return layout.map(({ slot: _slot, ...c }) => c);
 }
 
 /** rowid range of a sweep's rows: [sweepId·2^32, (sweepId+1)·2^32). */

@@ -1,4 +1,5 @@
-import type { StoredColumn } from './sweep-layout.js';
+import type { SweepDefinitionInput, SweepView } from '@driftgrid/domain';
+import { columnViews, layoutOf } from './sweep-layout.js';
 import type { SweepRow } from './sweeps.repository.js';
 
 export interface SweepOwner {
@@ -7,7 +8,7 @@ export interface SweepOwner {
   email: string;
 }
 
-/** The SPEC §6 sweep shape. */
+/** The SPEC §6 sweep shape (the domain's sweepViewSchema; tests/api/sweep-contracts.test.ts parses it strictly). */
 export function presentSweep(
   s: SweepRow,
   extra: {
@@ -16,8 +17,7 @@ export function presentSweep(
     workers: { id: string; chunks: number; points: number }[];
     sharedWith?: number[];
   },
-) {
-  const columns = (JSON.parse(s.columns) as StoredColumn[]).map(({ slot: _slot, ...c }) => c);
+): SweepView {
   return {
     id: s.id,
     name: s.name,
@@ -26,8 +26,8 @@ export function presentSweep(
     points: s.points,
     progress: { done: s.pointsDone, total: s.points, fraction: s.points ? s.pointsDone / s.points : 0 },
     chunks: s.chunkCount,
-    definition: JSON.parse(s.definition) as unknown,
-    columns,
+    definition: JSON.parse(s.definition) as SweepDefinitionInput,
+    columns: columnViews(layoutOf(s)),
     tags: extra.tags,
     owner: extra.owner,
     visibility: s.visibility,
@@ -54,5 +54,3 @@ export function presentSweep(
       : {}),
   };
 }
-
-export type SweepView = ReturnType<typeof presentSweep>;

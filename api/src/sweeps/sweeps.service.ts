@@ -8,6 +8,8 @@ import {
   ValidationError,
   type CompiledSweep,
   type ErrorDetail,
+  type SweepCreatedView,
+  type SweepPreviewView,
 } from '@driftgrid/domain';
 import type { AuthUser } from '../auth/current-user.js';
 import { Clock } from '../common/clock.js';
@@ -41,7 +43,7 @@ export class SweepsService {
   ) {}
 
   /** Everything the builder shows before submitting: counts, estimate, quota verdict, every error. */
-  preview(user: AuthUser, raw: unknown) {
+  preview(user: AuthUser, raw: unknown): SweepPreviewView {
     const checked = checkSweep(raw);
     if (!checked.ok)
       return {
@@ -91,11 +93,7 @@ export class SweepsService {
    * Submits a sweep. `enforceQuota: false` is for the demo seed only: it submits several example
    * sweeps at once on behalf of the demo researcher, which a user's own submissions may not.
    */
-  async create(
-    user: AuthUser,
-    raw: unknown,
-    opts: { enforceQuota?: boolean } = {},
-  ): Promise<{ id: number; status: string; points: number }> {
+  async create(user: AuthUser, raw: unknown, opts: { enforceQuota?: boolean } = {}): Promise<SweepCreatedView> {
     const checked = checkSweep(raw);
     if (!checked.ok) throw new ValidationError(summariseSweepErrors(checked.errors), checked.errors);
     // The raw body is stored as the definition, so nothing unchecked may ride along in it.

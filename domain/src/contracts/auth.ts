@@ -3,6 +3,12 @@ import { z } from 'zod';
 export const ROLE_NAMES = ['admin', 'researcher', 'reviewer'] as const;
 export type RoleName = (typeof ROLE_NAMES)[number];
 
+/**
+ * Roles that create work: submit sweeps, run fits, upload datasets, export, and pick readers to share with.
+ * Reviewers read and download only. The api's route guards and the ui's menus and buttons take this list.
+ */
+export const CREATOR_ROLES = ['admin', 'researcher'] as const satisfies readonly RoleName[];
+
 export const emailSchema = z
   .string()
   .trim()

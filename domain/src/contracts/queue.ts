@@ -3,6 +3,8 @@
  * states. Transient chunk states come from the queue; completed and failed chunks are counted in
  * SQLite, which keeps them (the queue trims its finished jobs, so its own counts would be wrong).
  */
+import type { ActiveState } from './sweeps.js';
+
 export interface QueueChunkCounts {
   /** Chunks handed to the queue and not yet picked up by a worker. */
   waiting: number;
@@ -19,7 +21,7 @@ export interface QueueChunkCounts {
 export interface QueueSweep {
   id: number;
   name: string;
-  status: 'queued' | 'running';
+  status: ActiveState;
   owner: string;
   progress: { done: number; total: number };
   createdAt: string;

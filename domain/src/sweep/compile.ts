@@ -1,6 +1,7 @@
 import { NotFoundError, ValidationError, type ErrorDetail } from '../errors.js';
 import { compileDerived } from '../derived/index.js';
 import { allocateChunk, getModel, models, checkInputValue, resolveThresholds } from '../models/index.js';
+import type { SweepColumnView } from '../contracts/sweeps.js';
 import type { ModelDefinition, Thresholds } from '../models/types.js';
 import { resolveAxis, type ResolvedAxis } from './axes.js';
 import { makeAxisFiller } from './design.js';
@@ -14,17 +15,8 @@ import { nearestName } from '../suggest.js';
 import { MAX_SOBOL_DIMENSIONS, MAX_SOBOL_INDEX } from './sampling/sobol.js';
 import type { SweepDefinition } from './schema.js';
 
-/** One column of a sweep's results, in storage/export order. */
-export interface SweepColumn {
-  name: string;
-  kind: 'index' | 'input' | 'output' | 'derived' | 'flags';
-  /** Canonical unit (mathjs string, `1` dimensionless); empty for derived columns (unit unknown). */
-  unit: string;
-  meaning: string;
-  type: 'int' | 'float' | 'boolean' | 'mask';
-  /** Inputs only: where the value comes from. */
-  source?: 'axis' | 'fixed' | 'expression' | 'default';
-}
+/** One column of a sweep's results, in storage/export order (declared once, with the api's response shapes). */
+export type SweepColumn = SweepColumnView;
 
 export interface ChunkResult {
   /** Index of the first point; point k of the chunk is idx0 + k. */

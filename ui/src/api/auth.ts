@@ -10,33 +10,17 @@ import {
   type Role,
   type SessionUser,
 } from '../auth/session.js';
+import type { LoginRequest, LoginResponse, Quota as QuotaLimits, QuotaUsage } from '@driftgrid/domain';
 import { api } from './client.js';
 import { queryKeys } from './queryKeys.js';
 
 export type { Role, SessionUser };
 
-export interface LoginRequest {
-  email: string;
-  password: string;
-}
-export interface LoginResponse {
-  accessToken: string;
-  user: SessionUser;
-}
+export type { LoginRequest, LoginResponse };
 
-/** SPEC §9 quota fields; every field optional because the api may send only some. */
-export interface Quota {
-  maxPointsPerSweep?: number;
-  maxRunningSweeps?: number;
-  maxPointsPer30Days?: number;
-  maxStoredPoints?: number;
-}
-export interface Usage {
-  runningSweeps?: number;
-  pointsLast30Days?: number;
-  storedPoints?: number;
-  [key: string]: number | undefined;
-}
+/** SPEC §9 quota limits and usage (the domain's shapes); every field optional because the api may send only some. */
+export type Quota = Partial<QuotaLimits>;
+export type Usage = Partial<QuotaUsage>;
 export interface Me extends SessionUser {
   quota?: Quota;
   usage?: Usage;

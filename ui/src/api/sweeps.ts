@@ -1,4 +1,3 @@
-import { ACTIVE_STATES } from '@driftgrid/domain';
 /**
  * Sweep reads and writes for the ui (SPEC §6): the catalogue, one sweep, its results and series, the
  * builder's preview, submit, cancel, sharing and archive. Keys come from queryKeys.ts; each read has a
@@ -14,95 +13,36 @@ import {
   type QueryClient,
 } from '@tanstack/react-query';
 import { useCallback } from 'react';
-import type { ErrorDetail, HeatmapSeries, LineSeries, QuotaVerdict, SweepSummary } from '@driftgrid/domain';
+import { ACTIVE_STATES } from '@driftgrid/domain';
+import type {
+  HeatmapSeries,
+  LineSeries,
+  ResultCell,
+  ResultRowView,
+  ResultsPage,
+  SweepColumnView,
+  SweepCreatedView,
+  SweepPreviewView,
+  SweepSummary,
+  SweepView,
+} from '@driftgrid/domain';
 import { api, ApiError, type Page, type Query } from './client.js';
 import { afterSuccess, type MutationHandlers } from './mutations.js';
 import { shouldRetry } from './queryClient.js';
 import { queryKeys } from './queryKeys.js';
 
-export type { HeatmapSeries, LineSeries, SweepSummary };
-
-export interface SweepColumnView {
-  name: string;
-  kind: 'index' | 'input' | 'output' | 'derived' | 'flags';
-  unit: string;
-  meaning: string;
-  type: 'int' | 'float' | 'boolean' | 'mask';
-  source?: string;
-}
-
-/** GET /api/sweeps/:id (SweepsService.present). */
-export interface SweepView {
-  id: number;
-  name: string;
-  model: string;
-  status: string;
-  points: number;
-  progress: { done: number; total: number; fraction: number };
-  chunks: number;
-  definition: {
-    description?: string;
-    fixed?: Record<string, unknown>;
-    axes?: {
-      param: string;
-      kind: string;
-      min?: number | string;
-      max?: number | string;
-      count?: number;
-      values?: unknown[];
-      unit?: string;
-    }[];
-    sampling?: { kind: string; samples?: number; seed?: number };
-    derived?: { name: string; expr: string }[];
-  };
-  columns: SweepColumnView[];
-  tags: string[];
-  owner: { id: number; name: string; email: string };
-  visibility: 'private' | 'group';
-  sharedWith: number[];
-  createdAt: string;
-  startedAt: string | null;
-  finishedAt: string | null;
-  error: string | null;
-  flagsSummary: { invalidPoints: number; byFlag: Record<string, number> };
-  provenance: {
-    modelVersion: string;
-    appVersion: string;
-    computeMs: number;
-    workers: { id: string; chunks: number; points: number }[];
-  };
-  archive?: { sha256: string; bytes: number | null; archivedAt: string | null };
-}
-
-export interface ResultsPage {
-  rows: Record<string, number | boolean | null>[];
-  total: number;
-  columns: SweepColumnView[];
-}
-
-/** The server's verdict from POST /api/sweeps/preview. */
-export interface ServerPreview {
-  ok: boolean;
-  /** Each with the field's label (`T_e axis · From`) beside the machine path. */
-  errors: ErrorDetail[];
-  points: number | null;
-  chunks: number | null;
-  estimate: { seconds: number; kernelPointsPerSecond: number; persistRowsPerSecond: number } | null;
-  /** Violations carry the admin's label of each limit. */
-  quota: QuotaVerdict | null;
-}
-
-/** One row of the archived-sweeps list (Downloads). */
-export interface ArchivedSummary {
-  id: number;
-  name: string;
-  model: string;
-  points: number;
-  owner: { id: number; name: string };
-  archivedAt?: string | null;
-  finishedAt?: string | null;
-  archive?: { sha256: string; bytes: number | null; archivedAt: string | null };
-}
+// Response shapes are declared once, in the domain's contracts (shared with the api's presenters).
+export type {
+  HeatmapSeries,
+  LineSeries,
+  ResultCell,
+  ResultRowView,
+  ResultsPage,
+  SweepColumnView,
+  SweepPreviewView,
+  SweepSummary,
+  SweepView,
+};
 
 /** Statuses in which a sweep still runs (declared once in the domain's contracts). */
 export const ACTIVE: readonly string[] = ACTIVE_STATES;
@@ -114,12 +54,12 @@ export const ACTIVE: readonly string[] = ACTIVE_STATES;
 async function fetchArchived(
   query: { page: number; pageSize: number; q?: string },
   signal?: AbortSignal,
-): Promise<Page<ArchivedSummary>> {
+): Promise<Page<SweepSummary>> {
   try {
-    return await api.get<Page<ArchivedSummary>>('/sweeps', { ...query, scope: 'archived' }, signal);
+    return await api.get<Page<SweepSummary>>('/sweeps', { ...query, scope: 'archived' }, signal);
   } catch (err) {
     if (!(err instanceof ApiError) || err.status !== 400) throw err;
-    return api.get<Page<ArchivedSummary>>('/sweeps', { ...query, status: 'archived' }, signal);
+    return api.get<Page<SweepSummary>>('/sweeps', { ...query, status: 'archived' }, signal);
   }
 }
 
@@ -152,7 +92,7 @@ export const sweepQueries = {
   preview: (definition: unknown) =>
     queryOptions({
       queryKey: queryKeys.sweeps.preview(definition),
-      queryFn: ({ signal }) => api.post<ServerPreview>('/sweeps/preview', definition, { signal }),
+      queryFn: ({ signal }) => api.post<SweepPreviewView>('/sweeps/preview', definition, { signal }),
     }),
 };
 
@@ -200,12 +140,10 @@ export function useSweepPreview(definition: unknown, enabled: boolean) {
   });
 }
 
-type Submitted = { id: number; status: string; points: number };
-
-export function useSubmitSweep(handlers?: MutationHandlers<Submitted, Record<string, unknown>>) {
+export function useSubmitSweep(handlers?: MutationHandlers<SweepCreatedView, Record<string, unknown>>) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (def: Record<string, unknown>) => api.post<Submitted>('/sweeps', def),
+    mutationFn: (def: Record<string, unknown>) => api.post<SweepCreatedView>('/sweeps', def),
     ...afterSuccess(() => {
       // Usage (quota meters) and the catalogue change with a new sweep.
       void qc.invalidateQueries({ queryKey: queryKeys.me() });
@@ -261,7 +199,7 @@ export function useSeriesList(id: string | number, queries: Query[], enabled = t
 // Stable, so the combined array keeps its identity while no series changes.
 const seriesData = (results: { data?: LineSeries | HeatmapSeries }[]) => results.map((r) => r.data);
 
-type Row = ResultsPage['rows'][number];
+type Row = ResultRowView;
 
 /** A function reading one stored point by index through the query cache (hover read-outs drawn by the chart). */
 export function useResultRowReader(id: string | number): (idx: number) => Promise<Row | null> {

@@ -1,7 +1,9 @@
 import { useSyncExternalStore } from 'react';
+import type { RoleName } from '@driftgrid/domain';
 
+/** A user's role (the list is declared once, in the domain's contracts). */
+export type Role = RoleName;
 /** The signed-in user as the api returns it from login and /auth/me. */
-export type Role = 'admin' | 'researcher' | 'reviewer';
 export interface SessionUser {
   id: string | number;
   email: string;

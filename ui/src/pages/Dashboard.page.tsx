@@ -1,6 +1,7 @@
 import { Anchor, Badge, Card, Group, SimpleGrid, Skeleton, Stack, Text, Title } from '@mantine/core';
 import { IconDatabase, IconMathFunction, IconPlus, IconStack2, IconTarget, type Icon } from '@tabler/icons-react';
 import { Link } from 'react-router-dom';
+import { CREATOR_ROLES, ROLE_NAMES } from '@driftgrid/domain';
 import { useMe, type Role } from '../api/auth.js';
 import { useAdminUsers, useQueueStatus } from '../api/admin.js';
 import { QuotaMeters } from '../components/QuotaMeters/QuotaMeters.js';
@@ -29,35 +30,35 @@ const SHORTCUTS: Shortcut[] = [
     label: 'New sweep',
     text: 'Scan a model over a grid or a random design.',
     icon: IconPlus,
-    roles: ['researcher', 'admin'],
+    roles: CREATOR_ROLES,
   },
   {
     to: '/catalogue',
     label: 'Catalogue',
     text: 'Find sweeps by model, status, owner or tag.',
     icon: IconStack2,
-    roles: ['researcher', 'reviewer', 'admin'],
+    roles: ROLE_NAMES,
   },
   {
     to: '/single-point',
     label: 'Single point',
     text: 'Evaluate one parameter set and read its validity flags.',
     icon: IconTarget,
-    roles: ['researcher', 'reviewer', 'admin'],
+    roles: ROLE_NAMES,
   },
   {
     to: '/datasets',
     label: 'Datasets',
     text: 'Upload measured profiles as CSV with units.',
     icon: IconDatabase,
-    roles: ['researcher', 'admin'],
+    roles: CREATOR_ROLES,
   },
   {
     to: '/fits',
     label: 'Fits',
     text: 'Fit scaling laws with standard errors.',
     icon: IconMathFunction,
-    roles: ['researcher', 'reviewer', 'admin'],
+    roles: ROLE_NAMES,
   },
 ];
 

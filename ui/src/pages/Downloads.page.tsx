@@ -4,7 +4,7 @@ import { IconArchive, IconDownload, IconSearch, IconShieldCheck, IconShieldX } f
 import { useState } from 'react';
 import { Link } from 'react-router-dom';
 import { useDownloadZip, type DownloadedFile } from '../api/downloads.js';
-import { useArchivedSweeps, useSweep, type ArchivedSummary } from '../api/sweeps.js';
+import { useArchivedSweeps, useSweep, type SweepSummary } from '../api/sweeps.js';
 import { ArchiveDigest } from '../components/ExportActions/ArchiveDigest.js';
 import { EmptyState } from '../components/EmptyState/EmptyState.js';
 import { PageHeader } from '../components/PageHeader/PageHeader.js';
@@ -13,10 +13,10 @@ import { formatDateTime } from '../lib/formatDate.js';
 
 const PAGE_SIZE = 25;
 
-function ArchivedRow({ s }: { s: ArchivedSummary }) {
+function ArchivedRow({ s }: { s: SweepSummary }) {
   // The catalogue summary has no digest; the sweep itself carries archive.sha256.
   const detail = useSweep(s.id);
-  const archive = s.archive ?? detail.data?.archive;
+  const archive = detail.data?.archive;
   const [got, setGot] = useState<DownloadedFile | null>(null);
   const download = useDownloadZip(`/sweeps/${s.id}/export`, `sweep-${s.id}.zip`, { onSuccess: (f) => setGot(f) });
   const archivedAt = archive?.archivedAt ?? s.archivedAt ?? null;

@@ -1,7 +1,9 @@
 import { Button, Paper, Stack, Text, Title } from '@mantine/core';
 import { IconMathFunction } from '@tabler/icons-react';
 import { useState } from 'react';
+import { CREATOR_ROLES } from '@driftgrid/domain';
 import { Link, useSearchParams } from 'react-router-dom';
+import { hasRole } from '../api/auth.js';
 import { useDatasetList } from '../api/datasets.js';
 import { useFitList } from '../api/fits.js';
 import { useSession } from '../auth/session.js';
@@ -56,7 +58,7 @@ function NewFit() {
 
 export default function FitsPage() {
   const session = useSession();
-  const canFit = session?.user.role === 'admin' || session?.user.role === 'researcher';
+  const canFit = hasRole(session?.user, CREATOR_ROLES);
   const any = useFitList({ page: 1, pageSize: 1 });
   return (
     <>

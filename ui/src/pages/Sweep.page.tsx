@@ -56,8 +56,7 @@ function duration(ms: number): string {
 }
 
 function axisText(a: NonNullable<SweepView['definition']['axes']>[number]): string {
-  if (a.kind === 'list')
-    return `list of ${a.values?.length ?? 0}: ${(a.values ?? []).join(', ')}${a.unit ? ` ${a.unit}` : ''}`;
+  if (a.kind === 'list') return `list of ${a.values.length}: ${a.values.join(', ')}${a.unit ? ` ${a.unit}` : ''}`;
   return `${a.kind}, ${a.min} to ${a.max}${a.unit ? ` ${a.unit}` : ''}, ${a.count ?? '?'} values`;
 }
 
@@ -232,8 +231,8 @@ function Overview({ sweep, canManage }: { sweep: SweepView; canManage: boolean }
               <Table.Td c="dimmed">Sampling</Table.Td>
               <Table.Td>
                 {d.sampling?.kind ?? 'grid'}
-                {d.sampling?.samples ? `, ${formatCount(d.sampling.samples)} samples` : ''}
-                {d.sampling?.seed !== undefined ? `, seed ${d.sampling.seed}` : ''}
+                {d.sampling && 'samples' in d.sampling ? `, ${formatCount(d.sampling.samples)} samples` : ''}
+                {d.sampling?.kind === 'latin-hypercube' ? `, seed ${d.sampling.seed}` : ''}
               </Table.Td>
             </Table.Tr>
             {(d.axes ?? []).map((a) => (

@@ -17,7 +17,11 @@ function sweep(patch: Partial<SweepView> = {}): SweepView {
     points: 35,
     progress: { done: 35, total: 35, fraction: 1 },
     chunks: 1,
-    definition: {},
+    definition: {
+      name: 'Argon column scan',
+      model: 'cross-field',
+      axes: [{ kind: 'linear', param: 'B_T', min: 0.05, max: 0.5, count: 5 }],
+    },
     columns: [],
     tags: [],
     owner: { id: 2, name: 'Ruth Researcher', email: 'researcher@example.com' },

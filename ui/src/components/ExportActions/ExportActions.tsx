@@ -2,14 +2,13 @@ import { Alert, Button, Group, Modal, Stack, Text } from '@mantine/core';
 import { notifications } from '@mantine/notifications';
 import { IconArchive, IconDownload, IconLock, IconShieldCheck } from '@tabler/icons-react';
 import { useRef, useState } from 'react';
+import { COMPLETE_STATES } from '@driftgrid/domain';
 import { useMe } from '../../api/auth.js';
 import { ApiError } from '../../api/client.js';
 import { useDownloadZip, type DownloadedFile } from '../../api/downloads.js';
 import { useArchiveSweep, type SweepView } from '../../api/sweeps.js';
 import { ArchiveDigest } from './ArchiveDigest.js';
 import { formatDateTime } from '../../lib/formatDate.js';
-
-const EXPORTABLE = ['completed', 'archived'];
 
 /**
  * Export and archive actions for one sweep (the GET /api/sweeps/:id shape): download the zipped CSV,
@@ -44,7 +43,7 @@ export function ExportActions({ sweep }: { sweep: SweepView }) {
     },
   });
 
-  const canExport = EXPORTABLE.includes(sweep.status);
+  const canExport = (COMPLETE_STATES as readonly string[]).includes(sweep.status);
   const matches =
     downloaded?.file.sha256 && downloaded.frozenSha256 ? downloaded.file.sha256 === downloaded.frozenSha256 : null;
 

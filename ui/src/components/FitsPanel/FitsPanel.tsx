@@ -1,5 +1,6 @@
 import { Alert, Progress, Stack, Text, Title } from '@mantine/core';
 import { IconEye } from '@tabler/icons-react';
+import { CREATOR_ROLES } from '@driftgrid/domain';
 import { hasRole, useMe } from '../../api/auth.js';
 import { useState } from 'react';
 import { useCreateFit, useFit } from '../../api/fits.js';
@@ -63,7 +64,7 @@ export function FitsPanel({ source, columns }: FitsPanelProps) {
     setPrefill((prev) => ({ state: fromRequest(fit.request, hasValid, values), nonce: (prev?.nonce ?? 0) + 1 }));
   // Reviewers read fits; the server refuses their runs, so the form is not offered at all.
   const { data: me } = useMe();
-  const mayFit = hasRole(me, ['admin', 'researcher']);
+  const mayFit = hasRole(me, CREATOR_ROLES);
   return (
     <Stack gap="md" data-testid="fits-panel" data-source-kind={source.kind} data-source-id={source.id}>
       {mayFit ? (

@@ -10,7 +10,7 @@ export interface ProfilePlotProps {
   a_m: number;
 }
 
-interface Series {
+interface ProfileSeries {
   key: string;
   label: string;
 }
@@ -18,7 +18,7 @@ interface Series {
 interface Panel {
   title: string;
   unit: string;
-  series: Series[];
+  series: ProfileSeries[];
 }
 
 const PANELS: Panel[] = [

@@ -8,14 +8,20 @@ import {
   type MRT_PaginationState,
   type MRT_SortingState,
 } from 'mantine-react-table';
-import { COLUMN_GROUP_LABELS, type ColumnGroup } from '@driftgrid/domain';
+import { cellNumber, COLUMN_GROUP_LABELS, type ColumnGroup } from '@driftgrid/domain';
 import { useMemo, useState } from 'react';
 import { formatCount, formatQuantity, prettyUnit } from '../../lib/format.js';
 import { Num } from '../Num/Num.js';
 import { loadVisibleGroups, saveVisibleGroups, tableLayout } from './tableLayout.js';
-import { useResults, type SweepColumnView, type SweepView } from '../../api/sweeps.js';
+import {
+  useResults,
+  type ResultCell,
+  type ResultRowView,
+  type SweepColumnView,
+  type SweepView,
+} from '../../api/sweeps.js';
 
-type Row = Record<string, number | boolean | null>;
+type Row = ResultRowView;
 
 export interface ResultsTableProps {
   sweep: Pick<SweepView, 'id' | 'model' | 'definition' | 'columns'>;
@@ -142,8 +148,8 @@ export function ResultsTable({ sweep, flagNames = [] }: ResultsTableProps) {
           mantineTableBodyCellProps: { align: 'right' },
           // The api answers non-finite values as "Infinity", "-Infinity" and "NaN" (JSON has no such numbers).
           Cell: ({ cell }) => {
-            const v = cell.getValue() as number | string | null;
-            return v === 'NaN' ? 'NaN' : <Num value={typeof v === 'string' ? Number(v) : v} align="right" />;
+            const v = cell.getValue<ResultCell>();
+            return v === 'NaN' ? 'NaN' : <Num value={cellNumber(v)} align="right" />;
           },
         };
       }),
@@ -152,7 +158,7 @@ export function ResultsTable({ sweep, flagNames = [] }: ResultsTableProps) {
 
   const table = useMantineReactTable({
     columns: defs,
-    data: (data?.rows ?? []) as Row[],
+    data: data?.rows ?? [],
     getRowId: (r) => String(r.idx),
     manualPagination: true,
     manualSorting: true,

@@ -1,8 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import { compileSweep } from '@driftgrid/domain';
+import { compileSweep, type SweepDefinitionInput } from '@driftgrid/domain';
 import { DEFAULT_VISIBLE, loadVisibleGroups, saveVisibleGroups, tableLayout, varyingInputs } from './tableLayout.js';
 
-const definition = {
+const definition: SweepDefinitionInput = {
+  name: 'Argon table layout',
+  model: 'cross-field',
   fixed: { n_m3: 1e19, mu: 40, Z: 1, Er_Vm: 0, gamma_i: 1, gamma_e: 1, Ti_eV: 'Te_eV' },
   axes: [
     { param: 'B_T', kind: 'linear', min: 0.05, max: 0.5, count: 5 },
@@ -12,7 +14,7 @@ const definition = {
   sampling: { kind: 'grid' },
   derived: [{ name: 'drift_ratio', expr: 'vE_ms / vDe_ms' }],
 };
-const compiled = compileSweep({ model: 'cross-field', name: 'Argon table layout', ...definition });
+const compiled = compileSweep(definition);
 const columns = compiled.columns.map((c) => ({ ...c, meaning: '', type: 'float' as const })) as never;
 
 describe('results table layout', () => {
@@ -72,12 +74,14 @@ describe('which inputs vary with the axes', () => {
   });
 
   it('lists unit-carrying and constant-only fixed values as held, not as table columns', () => {
-    const def = {
+    const def: SweepDefinitionInput = {
+      name: 'held with units',
+      model: 'cross-field',
       fixed: { Ti_eV: 'Te_eV / 20', Ln_m: '2 cm', mu: '39.948 * m_u / m_p', n_m3: '1e18 m^-3' },
       axes: [{ param: 'Te_eV', kind: 'log', min: 1, max: 20, count: 3 }],
       sampling: { kind: 'grid' },
     };
-    const c = compileSweep({ model: 'cross-field', name: 'held with units', ...def });
+    const c = compileSweep(def);
     const cols = c.columns.map((x) => ({ ...x, meaning: '', type: 'float' as const })) as never;
     const l = tableLayout({ model: 'cross-field', definition: def, columns: cols });
     const held = Object.fromEntries(l.held.map((h) => [h.name, h.value]));

@@ -49,7 +49,7 @@ export function tableLayout(sweep: Pick<SweepView, 'model' | 'definition' | 'col
   const held: HeldInput[] = [];
   let values: Record<string, number> | null = null;
   try {
-    values = compileSweep({ name: 'sweep', model: sweep.model, ...sweep.definition }).pointAt(0);
+    values = compileSweep({ ...sweep.definition, model: sweep.model }).pointAt(0);
   } catch {
     values = null;
   }

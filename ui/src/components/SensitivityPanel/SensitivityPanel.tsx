@@ -58,7 +58,8 @@ export function SensitivityPanel({ sweep }: { sweep: SweepView }) {
     for (const c of choices) by.set(c.group, [...(by.get(c.group) ?? []), { value: c.value, label: c.label }]);
     return [...by].map(([group, items]) => ({ group, items }));
   }, [choices]);
-  const samples = sweep.definition.sampling?.samples ?? 0;
+  const sampling = sweep.definition.sampling;
+  const samples = sampling && 'samples' in sampling ? sampling.samples : 0;
   const dims = sweep.definition.axes?.length ?? 0;
 
   return (

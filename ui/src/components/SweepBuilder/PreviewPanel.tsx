@@ -5,7 +5,7 @@ import { Num } from '../Num/Num.js';
 import { FlagList } from '../QuantityInput/ModelOutputs.js';
 import { QuotaMeters } from '../QuotaMeters/QuotaMeters.js';
 import { useMe } from '../../api/auth.js';
-import type { ServerPreview } from '../../api/sweeps.js';
+import type { SweepPreviewView } from '../../api/sweeps.js';
 import { formatCount, formatNumber } from '../../lib/format.js';
 
 export interface PreviewPanelProps {
@@ -14,7 +14,7 @@ export interface PreviewPanelProps {
   sampleError: string | null;
   /** Problems shown beside their fields, each with the field's label. */
   localErrors: { path: string; label?: string; message: string }[];
-  server: ServerPreview | undefined;
+  server: SweepPreviewView | undefined;
   serverLoading: boolean;
   serverError: string | null;
 }

@@ -1,14 +1,14 @@
 import { Anchor, Group, Loader, Paper, Text } from '@mantine/core';
 import { IconAlertTriangle, IconCircleCheck, IconFlag, IconHandStop } from '@tabler/icons-react';
 import { formatCount } from '../../lib/format.js';
-import type { ServerPreview } from '../../api/sweeps.js';
+import type { SweepPreviewView } from '../../api/sweeps.js';
 import classes from './SweepBuilder.module.css';
 
 export interface PreviewSummaryProps {
   points: number | null;
   /** Problems currently shown beside fields. */
   problems: number;
-  server: ServerPreview | undefined;
+  server: SweepPreviewView | undefined;
   serverLoading: boolean;
   /** Flags raised at the sample point; null without a sample. */
   sampleFlags: number | null;

@@ -70,7 +70,7 @@ export function plotContext(sweep: Pick<SweepView, 'definition' | 'columns' | 'm
   let flagNames: { bit: number; code: string }[];
   const symbols: Record<string, string> = {};
   try {
-    const c = compileSweep({ name: 'sweep', model: sweep.model, ...sweep.definition });
+    const c = compileSweep({ ...sweep.definition, model: sweep.model });
     axes = c.axes.map((a) => ({
       param: a.param,
       unit: a.unit,
@@ -88,7 +88,7 @@ export function plotContext(sweep: Pick<SweepView, 'definition' | 'columns' | 'm
       param: a.param,
       unit: a.unit ?? '',
       kind: a.kind === 'log' ? 'log' : a.kind === 'list' ? 'list' : 'linear',
-      count: a.count ?? a.values?.length ?? 0,
+      count: a.kind === 'list' ? a.values.length : (a.count ?? 0),
       values: null,
     }));
     try {

@@ -1,4 +1,4 @@
-import type { HeatmapSeries, LineSeries, SeriesAxis } from '@driftgrid/domain';
+import type { HeatmapSeries, LineSeries, ResultRowView, SeriesAxis } from '@driftgrid/domain';
 import { formatNumber, formatQuantity, prettyUnit } from '../../lib/format.js';
 import { VIRIDIS } from './colormap.js';
 
@@ -385,7 +385,7 @@ export interface ScatterPoint {
   y: number;
   z: number | null;
   flagged: boolean;
-  row: Record<string, number | boolean | null>;
+  row: ResultRowView;
 }
 
 export function scatterOption(
@@ -393,7 +393,7 @@ export function scatterOption(
   axes: { x: SeriesAxis; y: SeriesAxis; z: SeriesAxis },
   scales: Scales,
   text: string,
-  detail: (row: Record<string, number | boolean | null>) => string,
+  detail: (row: ResultRowView) => string,
 ) {
   const keep = points.filter((p) => (!scales.x || p.x > 0) && (!scales.y || p.y > 0));
   const zs = keep.map((p) => p.z).filter((z): z is number => z !== null && Number.isFinite(z));
@@ -411,7 +411,7 @@ export function scatterOption(
       trigger: 'item',
       confine: true,
       extraCssText: 'max-width: 460px; white-space: normal;',
-      formatter: (p: { data: { row: Record<string, number | boolean | null> } }) => detail(p.data.row),
+      formatter: (p: { data: { row: ResultRowView } }) => detail(p.data.row),
     },
     xAxis: valueAxis(axes.x, scales.x, text),
     yAxis: { ...valueAxis(axes.y, scales.y, text), nameGap: 56 },

@@ -1,18 +1,19 @@
-import type { SweepColumnView } from '../../api/sweeps.js';
+import { cellNumber } from '@driftgrid/domain';
+import type { ResultCell, ResultRowView, SweepColumnView } from '../../api/sweeps.js';
 import { formatQuantity } from '../../lib/format.js';
-
-type Row = Record<string, number | boolean | null>;
 
 const esc = (t: string) => t.replace(/[&<>"]/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;' })[c]!);
 
-function cell(c: SweepColumnView, v: number | boolean | null | undefined, flagNames: { bit: number; code: string }[]) {
+function cell(c: SweepColumnView, v: ResultCell | undefined, flagNames: { bit: number; code: string }[]) {
   if (v === null || v === undefined) return '—';
   if (c.kind === 'flags') {
     const raised = flagNames.filter((f) => Number(v) & (1 << f.bit)).map((f) => f.code);
     return raised.length ? esc(raised.join(', ')) : 'none';
   }
   if (typeof v === 'boolean' || c.type === 'boolean') return v ? 'yes' : 'no';
-  return esc(formatQuantity(v, c.unit));
+  // Non-finite values arrive as "Infinity", "-Infinity" or "NaN" (JSON has no such numbers).
+  if (v === 'NaN') return 'NaN';
+  return esc(formatQuantity(cellNumber(v), c.unit));
 }
 
 /**
@@ -20,7 +21,7 @@ function cell(c: SweepColumnView, v: number | boolean | null | undefined, flagNa
  * tooltip: inputs on the left, outputs and derived values on the right.
  */
 export function pointDetailHtml(
-  row: Row,
+  row: ResultRowView,
   columns: readonly SweepColumnView[],
   flagNames: { bit: number; code: string }[],
   heading = '',
