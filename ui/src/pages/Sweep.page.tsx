@@ -57,7 +57,8 @@ function duration(ms: number): string {
 
 function axisText(a: NonNullable<SweepView['definition']['axes']>[number]): string {
   if (a.kind === 'list') return `list of ${a.values.length}: ${a.values.join(', ')}${a.unit ? ` ${a.unit}` : ''}`;
-  return `${a.kind}, ${a.min} to ${a.max}${a.unit ? ` ${a.unit}` : ''}, ${a.count ?? '?'} values`;
+  // Random designs draw along an axis without a count: only grid axes have one.
+  return `${a.kind}, ${a.min} to ${a.max}${a.unit ? ` ${a.unit}` : ''}${a.count !== undefined ? `, ${a.count} values` : ''}`;
 }
 
 /** How many points are flagged and why, in the model's own words. */
