@@ -1,5 +1,5 @@
 import { Injectable } from '@nestjs/common';
-import { ConflictError, ValidationError, type ErrorDetail, type FitRequest } from '@driftgrid/domain';
+import { COMPLETE_STATES, ConflictError, ValidationError, type ErrorDetail, type FitRequest } from '@driftgrid/domain';
 import type { AuthUser } from '../auth/current-user.js';
 import { DatasetsService, columnsOf } from '../datasets/datasets.service.js';
 import { ResultsReader, layoutOf } from '../sweeps/results-reader.js';
@@ -26,7 +26,7 @@ export interface FitData {
 }
 
 /** Sweep statuses whose results are complete and may be fitted. */
-const FITTABLE_SWEEP = new Set(['completed', 'archived']);
+const FITTABLE_SWEEP = new Set<string>(COMPLETE_STATES);
 
 type Condition = { gte?: number; gt?: number; lte?: number; lt?: number; eq?: number | boolean | string };
 

@@ -4,6 +4,7 @@ import {
   type ErrorDetail,
   type HeatmapSeries,
   type LineSeries,
+  type ResultRowView,
   type SensitivityReport,
   type SeriesQuery,
 } from '@driftgrid/domain';
@@ -40,7 +41,7 @@ export interface PageTask {
   filter: ResultFilter;
 }
 export interface PageResult {
-  rows: ResultRow[];
+  rows: ResultRowView[];
   total: number;
   /**
    * For a sorted page answered by SQL: the view's leading point indices (this page and the next few),
@@ -242,11 +243,11 @@ export class ReadTaskRunner {
  * numeric values that are not finite are answered as the strings "Infinity" and "-Infinity", and
  * NULL (how SQLite keeps NaN) as "NaN": the three stay distinguishable (README: results and exports).
  */
-export function shapeRows(rows: ResultRow[], layout: readonly StoredColumn[]): ResultRow[] {
+export function shapeRows(rows: ResultRow[], layout: readonly StoredColumn[]): ResultRowView[] {
   const bools = layout.filter((c) => c.type === 'boolean');
   const numbers = layout.filter((c) => c.type !== 'boolean');
   for (const r of rows) {
-    const out = r as Record<string, unknown>;
+    const out = r as ResultRowView;
     for (const c of bools) if (r[c.name] !== null) out[c.name] = r[c.name] === 1;
     for (const c of numbers) {
       if (!(c.name in r)) continue;
@@ -256,5 +257,5 @@ export function shapeRows(rows: ResultRow[], layout: readonly StoredColumn[]): R
       else if (v === -Infinity) out[c.name] = '-Infinity';
     }
   }
-  return rows;
+  return rows as ResultRowView[];
 }
