@@ -6,7 +6,7 @@ import {
   type ChangePasswordRequest,
   type PasswordResetConfirm,
   type PasswordResetRequest,
-  type LoginResponse,
+  type PasswordChangedView,
   type TokensRevoked,
 } from '@driftgrid/domain';
 import type { AuthUser } from '../auth/current-user.js';
@@ -103,10 +103,7 @@ export class PasswordChangeService {
   }
 
   /** Ends the user's other sessions and returns a fresh one for the caller. */
-  async change(
-    user: AuthUser,
-    req: ChangePasswordRequest,
-  ): Promise<{ message: string } & TokensRevoked & LoginResponse> {
+  async change(user: AuthUser, req: ChangePasswordRequest): Promise<PasswordChangedView> {
     if (user.via !== 'session')
       throw new ForbiddenError('Change your password when signed in with it, not with an API token');
     const row = this.users.findById(user.id);

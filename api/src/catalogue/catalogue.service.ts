@@ -6,6 +6,7 @@ import {
   type SeriesQuery,
   type SweepListQuery,
   type SweepSharing,
+  type PageOf,
   type SweepSummary,
 } from '@driftgrid/domain';
 import type { AuthUser } from '../auth/current-user.js';
@@ -49,7 +50,7 @@ export class CatalogueService {
     private readonly reads: HeavyReads,
   ) {}
 
-  list(user: AuthUser, q: SweepListQuery) {
+  list(user: AuthUser, q: SweepListQuery): PageOf<SweepSummary> {
     const { rows, total } = this.repo.list(user, q);
     return { items: rows.map(summarise), total, page: q.page, pageSize: q.pageSize };
   }

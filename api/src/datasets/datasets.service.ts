@@ -14,6 +14,7 @@ import {
   type DatasetUploadFields,
   type DatasetUploadResult,
   type DatasetView,
+  type PageOf,
   unsafeNameProblem,
 } from '@driftgrid/domain';
 import type { AuthUser } from '../auth/current-user.js';
@@ -113,7 +114,7 @@ export class DatasetsService {
     };
   }
 
-  list(user: AuthUser, q: DatasetListQuery) {
+  list(user: AuthUser, q: DatasetListQuery): PageOf<DatasetView> {
     const { items, total } = this.repo.list(user, { page: q.page, pageSize: q.pageSize, text: q.q });
     return { items: items.map((d) => this.present(d)), total, page: q.page, pageSize: q.pageSize };
   }

@@ -8,6 +8,7 @@ import {
   type FitRequest,
   type FitResult,
   type FitView,
+  type PageOf,
 } from '@driftgrid/domain';
 import type { AuthUser } from '../auth/current-user.js';
 import { Clock } from '../common/clock.js';
@@ -165,7 +166,7 @@ export class FitsService implements OnApplicationBootstrap, OnModuleDestroy {
     return this.present(row, true);
   }
 
-  list(user: AuthUser, q: FitListQuery) {
+  list(user: AuthUser, q: FitListQuery): PageOf<FitView> {
     const { items, total } = this.repo.list(user, q);
     return { items: items.map((r) => this.present(r, false)), total, page: q.page, pageSize: q.pageSize };
   }

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { emailSchema, passwordSchema, ROLE_NAMES, type PublicUser, type RoleName } from './auth.js';
+import { emailSchema, passwordSchema, ROLE_NAMES, type LoginResponse, type PublicUser, type RoleName } from './auth.js';
 import { safeName } from './text-safety.js';
 
 /* ---------- quotas (SPEC §9) ---------- */
@@ -210,6 +210,9 @@ export type ChangePasswordRequest = z.infer<typeof changePasswordSchema>;
 export interface TokensRevoked {
   tokensRevoked: number;
 }
+
+/** POST /api/auth/password: the caller's fresh session (every other one is signed out). */
+export type PasswordChangedView = { message: string } & TokensRevoked & LoginResponse;
 
 /** A route that takes no query parameters (any given is refused by name). */
 export const noQuerySchema = z.object({});

@@ -3,14 +3,21 @@
  * invitation. Reset and invitation calls carry no session.
  */
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { setSession, type SessionUser } from '../auth/session.js';
-import type { LoginResponse } from './auth.js';
+import type {
+  AcceptInviteRequest,
+  ChangePasswordRequest,
+  LoginResponse,
+  PasswordChangedView,
+  PasswordResetConfirm,
+  PasswordResetRequest,
+} from '@driftgrid/domain';
+import { setSession } from '../auth/session.js';
 import { api } from './client.js';
 import { afterSuccess, type MutationHandlers } from './mutations.js';
 import { queryKeys } from './queryKeys.js';
 
-export type PasswordChanged = { message: string; tokensRevoked: number; accessToken: string; user: SessionUser };
-type ChangeBody = { current: string; next: string; revokeTokens: boolean };
+export type PasswordChanged = PasswordChangedView;
+type ChangeBody = ChangePasswordRequest;
 type Message = { message: string };
 
 /** Other sessions are signed out by the change; this one continues on the fresh token. */
@@ -25,22 +32,22 @@ export function useChangePassword(handlers?: MutationHandlers<PasswordChanged, C
   });
 }
 
-export function useRequestPasswordReset(handlers?: MutationHandlers<Message, { email: string }>) {
+export function useRequestPasswordReset(handlers?: MutationHandlers<Message, PasswordResetRequest>) {
   return useMutation({
-    mutationFn: (body: { email: string }) => api.post<Message>('/auth/password-reset', body, { auth: false }),
+    mutationFn: (body: PasswordResetRequest) => api.post<Message>('/auth/password-reset', body, { auth: false }),
     ...handlers,
   });
 }
 
-export function useConfirmPasswordReset(handlers?: MutationHandlers<Message, { token: string; password: string }>) {
+export function useConfirmPasswordReset(handlers?: MutationHandlers<Message, PasswordResetConfirm>) {
   return useMutation({
-    mutationFn: (body: { token: string; password: string }) =>
+    mutationFn: (body: PasswordResetConfirm) =>
       api.post<Message>('/auth/password-reset/confirm', body, { auth: false }),
     ...handlers,
   });
 }
 
-type AcceptBody = { token: string; name: string; password: string };
+type AcceptBody = AcceptInviteRequest;
 
 /** Accepting signs the new user in: start from an empty cache, store the session, seed `me`. */
 export function useAcceptInvite(handlers?: MutationHandlers<LoginResponse, AcceptBody>) {

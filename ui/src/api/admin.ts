@@ -5,8 +5,10 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type {
   AdminUser,
+  AdminUserPatch,
   AuditEntry,
   Invitation,
+  InvitationRequest,
   MailMessage,
   MailSummary,
   QueueSummary,
@@ -88,7 +90,7 @@ export function useQueueControl() {
   });
 }
 
-type UserPatch = { role?: Role; active?: boolean; name?: string };
+type UserPatch = AdminUserPatch;
 
 export function usePatchUser(handlers?: MutationHandlers<AdminUser, { id: number; patch: UserPatch }>) {
   const qc = useQueryClient();
@@ -111,10 +113,10 @@ function useRefreshInvitations() {
   };
 }
 
-export function useInvite(handlers?: MutationHandlers<Invitation, { email: string; role: Role }>) {
+export function useInvite(handlers?: MutationHandlers<Invitation, InvitationRequest>) {
   const refresh = useRefreshInvitations();
   return useMutation({
-    mutationFn: (body: { email: string; role: Role }) => api.post<Invitation>('/admin/invitations', body),
+    mutationFn: (body: InvitationRequest) => api.post<Invitation>('/admin/invitations', body),
     ...afterSuccess(refresh, handlers),
   });
 }

@@ -1,3 +1,4 @@
+import type { PageOf } from '@driftgrid/domain';
 import { getToken } from '../auth/session.js';
 
 /** One entry of an error's `details` (SPEC §6): a field path, or a CSV line and column. */
@@ -143,10 +144,5 @@ export async function apiDownload(
   return { blob: await res.blob(), filename: match ? decodeURIComponent(match[1]!) : null };
 }
 
-/** Lists share one shape (SPEC §6). */
-export interface Page<T> {
-  items: T[];
-  total: number;
-  page: number;
-  pageSize: number;
-}
+/** Lists share one shape (SPEC §6), declared in the domain's contracts. */
+export type Page<T> = PageOf<T>;

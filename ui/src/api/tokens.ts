@@ -1,13 +1,13 @@
 /** Personal API tokens (SPEC §6): list, create (the secret comes back once), revoke. */
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { ActiveTokenCount, ApiTokenSummary, CreatedApiToken } from '@driftgrid/domain';
+import type { ActiveTokenCount, ApiTokenSummary, CreatedApiToken, CreateTokenRequest } from '@driftgrid/domain';
 import { api, type Page } from './client.js';
 import { afterSuccess, type MutationHandlers } from './mutations.js';
 import { queryKeys } from './queryKeys.js';
 
 export type { ApiTokenSummary, CreatedApiToken };
 
-export type CreateTokenBody = { name: string; scope: 'read' | 'read-write'; expiresAt?: string | null };
+export type CreateTokenBody = CreateTokenRequest;
 
 export const tokenQueries = {
   list: () =>
