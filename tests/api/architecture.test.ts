@@ -62,6 +62,15 @@ const RULES: Rule[] = [
     allowed: () => false,
     sample: "COALESCE(SUM(CASE WHEN status IN ('queued', 'running') THEN 1 ELSE 0 END), 0)",
   },
+  {
+    // Route rules name roles through the domain's lists (ROLE_NAMES, CREATOR_ROLES): a route written
+    // @Roles('researcher', 'admin') keeps its old set when the product's notion of a creator changes.
+    // A single role (@Roles('admin')) is a fact of that route and stays literal.
+    what: 'a written-out list of several roles in @Roles(…)',
+    pattern: /Roles\(\s*'(admin|researcher|reviewer)'\s*,/,
+    allowed: () => false,
+    sample: "@Roles('researcher', 'admin')",
+  },
 ];
 
 describe('api source rules', () => {

@@ -1,6 +1,7 @@
 import { Body, Controller, Get, Param, Put, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiBody, ApiOperation, ApiTags } from '@nestjs/swagger';
 import {
+  CREATOR_ROLES,
   foldSliceParams,
   resultsQuerySchema,
   seriesQuerySchema,
@@ -67,7 +68,7 @@ export class CatalogueController {
   }
 
   @Put(':id/sharing')
-  @Roles('researcher', 'admin')
+  @Roles(...CREATOR_ROLES)
   @ApiOperation({
     summary: 'Share read-only with named users and/or the whole group (owner or admin; 409 when archived)',
   })

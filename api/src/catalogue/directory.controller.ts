@@ -1,6 +1,6 @@
 import { Controller, Get, Query } from '@nestjs/common';
 import { ApiBearerAuth, ApiOperation, ApiTags } from '@nestjs/swagger';
-import { directoryQuerySchema } from '@driftgrid/domain';
+import { CREATOR_ROLES, directoryQuerySchema } from '@driftgrid/domain';
 import type { z } from 'zod';
 import { Roles } from '../auth/access.decorators.js';
 import { ZodValidationPipe } from '../common/zod-validation.pipe.js';
@@ -14,7 +14,7 @@ export class DirectoryController {
   constructor(private readonly catalogue: CatalogueService) {}
 
   @Get('directory')
-  @Roles('researcher', 'admin')
+  @Roles(...CREATOR_ROLES)
   @ApiOperation({ summary: 'Active users by name for the share dialog: { items: [{ id, name, role }] }' })
   directory(@Query(new ZodValidationPipe(directoryQuerySchema, 'query')) q: z.infer<typeof directoryQuerySchema>) {
     return this.catalogue.directory(q.q, q.pageSize);

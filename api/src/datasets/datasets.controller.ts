@@ -13,6 +13,7 @@ import {
 } from '@nestjs/common';
 import { ApiBearerAuth, ApiBody, ApiConsumes, ApiOperation, ApiTags } from '@nestjs/swagger';
 import {
+  CREATOR_ROLES,
   datasetListQuerySchema,
   datasetRowsQuerySchema,
   datasetSeriesQuerySchema,
@@ -40,7 +41,7 @@ export class DatasetsController {
   constructor(private readonly datasets: DatasetsService) {}
 
   @Post()
-  @Roles('researcher', 'admin')
+  @Roles(...CREATOR_ROLES)
   @UseInterceptors(CsvUploadInterceptor)
   @ApiConsumes('multipart/form-data')
   @ApiOperation({
@@ -111,7 +112,7 @@ export class DatasetsController {
   }
 
   @Put(':id/sharing')
-  @Roles('researcher', 'admin')
+  @Roles(...CREATOR_ROLES)
   @ApiOperation({ summary: 'Set visibility (private | group) and the users it is shared with (owner or admin)' })
   @ApiBody({ schema: openApiSchema(datasetSharingSchema) })
   share(
@@ -124,7 +125,7 @@ export class DatasetsController {
 
   @Delete(':id')
   @HttpCode(204)
-  @Roles('researcher', 'admin')
+  @Roles(...CREATOR_ROLES)
   @ApiOperation({ summary: 'Delete a dataset and its rows (owner or admin)' })
   remove(@CurrentUser() user: AuthUser, @Param('id', new IdParamPipe()) id: number): void {
     this.datasets.remove(user, id);

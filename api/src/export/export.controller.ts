@@ -1,4 +1,5 @@
 import { Controller, Get, HttpCode, Param, Post, Req, Res } from '@nestjs/common';
+import { CREATOR_ROLES } from '@driftgrid/domain';
 import { ApiBearerAuth, ApiOperation, ApiProduces, ApiTags } from '@nestjs/swagger';
 import type { Request, Response } from 'express';
 import { IdParamPipe } from '../common/id-param.pipe.js';
@@ -34,7 +35,7 @@ export class SweepExportController {
 
   @Post(':id/archive')
   @HttpCode(200)
-  @Roles('researcher', 'admin')
+  @Roles(...CREATOR_ROLES)
   @ApiOperation({
     summary:
       'Freeze a completed sweep (owner or admin): builds the zip once, records its SHA-256; 409 unless completed',

@@ -1,6 +1,6 @@
 import { Body, Controller, Get, Param, Post, Query, Res } from '@nestjs/common';
 import { ApiBearerAuth, ApiBody, ApiOperation, ApiTags } from '@nestjs/swagger';
-import { fitRequestSchema, type FitRequest } from '@driftgrid/domain';
+import { CREATOR_ROLES, fitRequestSchema, type FitRequest } from '@driftgrid/domain';
 import type { Response } from 'express';
 import { Roles, SignedIn } from '../auth/access.decorators.js';
 import { IdParamPipe } from '../common/id-param.pipe.js';
@@ -17,7 +17,7 @@ export class FitsController {
   constructor(private readonly fits: FitsService) {}
 
   @Post()
-  @Roles('researcher', 'admin')
+  @Roles(...CREATOR_ROLES)
   @ApiOperation({
     summary:
       'Fit a reduced model to a sweep\'s results or a dataset: 201 with the result; 202 { id, status: "queued" } from 100,000 points on',
