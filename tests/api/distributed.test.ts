@@ -1,3 +1,4 @@
+import { isActiveState } from '@driftgrid/domain';
 import Database from 'better-sqlite3';
 import fs from 'node:fs';
 import path from 'node:path';
@@ -58,7 +59,7 @@ describe.runIf(redis)('scale-out: api plus two standalone workers on a real Redi
     let s;
     for (;;) {
       s = (await apiJson(baseUrl, token, 'GET', `/api/sweeps/${id}`)).body;
-      if (!['queued', 'running'].includes(s.status)) break;
+      if (!isActiveState(s.status)) break;
       if (Date.now() > deadline) throw new Error(`sweep still ${s.status}: ${JSON.stringify(s.progress)}`);
       await new Promise((r) => setTimeout(r, 100));
     }

@@ -1,3 +1,4 @@
+import { isActiveState } from '@driftgrid/domain';
 import Database from 'better-sqlite3';
 import { createHash } from 'node:crypto';
 import fs from 'node:fs';
@@ -85,7 +86,7 @@ describe.runIf(redis)('kill -9 of the api and of a standalone worker at seeded r
       const deadline = Date.now() + ms;
       for (;;) {
         const r = await apiJson(api.baseUrl, token, 'GET', `/api/sweeps/${id}`).catch(() => null);
-        if (r?.status === 200 && !['queued', 'running'].includes(r.body.status)) return r.body;
+        if (r?.status === 200 && !isActiveState(r.body.status)) return r.body;
         if (Date.now() > deadline)
           throw new Error(
             `sweep ${id} not finished: ${JSON.stringify(r?.body?.progress)}\napi:\n${api.proc.output()}\nworker:\n${worker.output()}`,
@@ -232,7 +233,7 @@ describe.runIf(redis)('a standalone worker killed while it holds a chunk', () =>
           expect(r.body.progress.done).toBe(6000);
           break;
         }
-        if (!['queued', 'running'].includes(r.body.status) || Date.now() > deadline)
+        if (!isActiveState(r.body.status) || Date.now() > deadline)
           throw new Error(`sweep ${id} ${r.body.status}: ${JSON.stringify(r.body.progress)}\n${survivor.output()}`);
         await new Promise((res) => setTimeout(res, 200));
       }
@@ -307,7 +308,7 @@ describe('a full database', () => {
         let last: { status: string; progress: { done: number; total: number } } | undefined;
         for (let i = 0; i < 50; i++) {
           last = (await t.http.get(`/api/sweeps/${created.body.id}`).set({ authorization: `Bearer ${token}` })).body;
-          if (!['queued', 'running'].includes(last!.status)) break;
+          if (!isActiveState(last!.status)) break;
           await new Promise((r) => setTimeout(r, 200));
         }
         console.log(`full database: sweep is ${last!.status} at ${last!.progress.done}/${last!.progress.total}`);

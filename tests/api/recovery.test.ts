@@ -1,3 +1,4 @@
+import { isActiveState } from '@driftgrid/domain';
 import Database from 'better-sqlite3';
 import fs from 'node:fs';
 import path from 'node:path';
@@ -61,7 +62,7 @@ describe('recovery after kill -9 of the api (embedded queue)', () => {
     const second = await startApiProcess(env);
     procs.push(second.proc);
     const token2 = await apiLogin(second.baseUrl, 'researcher@example.com');
-    const done = await poll(second.baseUrl, token2, id, (s) => !['queued', 'running'].includes(s.status), 120_000);
+    const done = await poll(second.baseUrl, token2, id, (s) => !isActiveState(s.status), 120_000);
     expect(done.status).toBe('completed');
     expect(done.progress.done).toBe(points);
     await second.proc.kill('SIGTERM');

@@ -14,7 +14,7 @@ import {
 } from '@mantine/core';
 import { useDebouncedValue } from '@mantine/hooks';
 import { IconSearch, IconStack2 } from '@tabler/icons-react';
-import { listModelSummaries } from '@driftgrid/domain';
+import { CATALOGUE_SCOPES, listModelSummaries, type CatalogueScope } from '@driftgrid/domain';
 import {
   MantineReactTable,
   useMantineReactTable,
@@ -32,12 +32,14 @@ import { STATUS_LOOK, StatusBadge, SWEEP_STATUSES } from '../components/StatusBa
 import { formatCount, formatPercent } from '../lib/format.js';
 import { formatDateTime } from '../lib/formatDate.js';
 
-const SCOPES = [
-  { value: 'all', label: 'All I can see' },
-  { value: 'mine', label: 'Mine' },
-  { value: 'shared', label: 'Shared with me' },
-  { value: 'archived', label: 'Archived' },
-];
+/** A label for every scope the api takes (a new scope in the contract fails the type check here). */
+const SCOPE_LABELS: Record<CatalogueScope, string> = {
+  all: 'All I can see',
+  mine: 'Mine',
+  shared: 'Shared with me',
+  archived: 'Archived',
+};
+const SCOPES = CATALOGUE_SCOPES.map((value) => ({ value, label: SCOPE_LABELS[value] }));
 
 /** The URL is the state: every filter, the page and the sort survive a reload and can be bookmarked. */
 const FILTER_KEYS = [
