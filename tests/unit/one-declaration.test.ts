@@ -1,11 +1,11 @@
 /**
  * Issue 16 §3: every response shape and enum is declared once, in domain/src/contracts, and the api and
- * the ui import it. Hand copies drift silently (the ui's SweepView once lacked keys the api sent, and
- * its cells were typed as numbers while the api sends "Infinity"), so this scans the sources and fails
- * when one comes back:
+ * the ui import it. Hand copies drift silently (results pages once listed columns without the `source`
+ * the sweep itself showed, and the ui typed cells as numbers while the api sends "Infinity"), so this
+ * scans the sources and fails when one comes back:
  *  - an `interface X` or `type X = { … }` elsewhere whose name the contracts already export;
- *  - a role list or union written out (`['admin', 'researcher']`, `'admin' | 'researcher'`): use
- *    ROLE_NAMES, CREATOR_ROLES or RoleName;
+ *  - a role list, union or guard written out (`['admin', 'researcher']`, `'admin' | 'researcher'`,
+ *    `@Roles('researcher', 'admin')`): use ROLE_NAMES, CREATOR_ROLES or RoleName;
  *  - the active states written out (`['queued', 'running']`, `'queued' | 'running'`): use ACTIVE_STATES
  *    or isActiveState.
  * tests/ is not scanned on purpose: tests such as role-matrix state the expected rules independently.
@@ -58,6 +58,8 @@ const contractNames = [
 const ROLE = `'(?:admin|researcher|reviewer)'`;
 const ROLE_LIST = new RegExp(`\\[\\s*${ROLE}\\s*,\\s*${ROLE}`);
 const ROLE_UNION = new RegExp(`${ROLE}\\s*\\|\\s*${ROLE}`);
+/** A route guard listing several roles by hand (`@Roles('researcher', 'admin')`). */
+const ROLE_ARGS = new RegExp(`Roles\\(\\s*${ROLE}\\s*,\\s*${ROLE}`);
 const ACTIVE_LIST = /\[\s*'queued'\s*,\s*'running'\s*\]|'queued'\s*\|\s*'running'/;
 /** An alias (`type FitCreated = FitCreatedView`) or a re-export is fine; a body is a copy. */
 const names = contractNames.join('|');
@@ -77,6 +79,7 @@ describe('one declaration per response shape and enum', () => {
   it('no role list or role union is written out', () => {
     expect(hits(ROLE_LIST, declaring)).toEqual([]);
     expect(hits(ROLE_UNION, declaring)).toEqual([]);
+    expect(hits(ROLE_ARGS, declaring)).toEqual([]);
   });
 
   it('the active states are not written out', () => {
@@ -92,6 +95,9 @@ describe('one declaration per response shape and enum', () => {
     expect(ROLE_LIST.test(`roles: ['researcher', 'reviewer', 'admin'],`)).toBe(true);
     expect(ROLE_LIST.test(`roles: ['admin'],`)).toBe(false);
     expect(ROLE_UNION.test(`type Role = 'admin' | 'researcher' | 'reviewer';`)).toBe(true);
+    expect(ROLE_ARGS.test(`@Roles('researcher', 'admin')`)).toBe(true);
+    expect(ROLE_ARGS.test(`@Roles(...CREATOR_ROLES)`)).toBe(false);
+    expect(ROLE_ARGS.test(`@Roles('admin')`)).toBe(false);
     expect(ACTIVE_LIST.test(`if (!['queued', 'running'].includes(s.status))`)).toBe(true);
     expect(ACTIVE_LIST.test(`status: 'queued' | 'running' | 'done'`)).toBe(true);
   });
