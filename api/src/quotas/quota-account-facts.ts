@@ -1,4 +1,5 @@
 import { Injectable } from '@nestjs/common';
+import type { MeResponse } from '@driftgrid/domain';
 import { AccountFacts } from '../auth/me.service.js';
 import type { AuthUser } from '../auth/current-user.js';
 import { QuotasService } from './quotas.service.js';
@@ -10,7 +11,7 @@ export class QuotaAccountFacts extends AccountFacts {
     super();
   }
 
-  facts(user: AuthUser): Record<string, unknown> {
+  facts(user: AuthUser): Pick<MeResponse, 'quota' | 'usage'> {
     return { quota: this.quotas.effectiveQuota(user.id, user.role), usage: this.quotas.usage(user.id) };
   }
 }

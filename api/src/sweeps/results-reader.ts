@@ -1,4 +1,5 @@
 import { Inject, Injectable, Logger } from '@nestjs/common';
+import { SETTLED_STATES } from '@driftgrid/domain';
 import type { ResultsPage } from '@driftgrid/domain';
 import { DB_HANDLE } from '../db/db.module.js';
 import type { OpenedDatabase } from '../db/database.js';
@@ -13,7 +14,7 @@ import type { SweepRow } from './sweeps.repository.js';
 export { layoutOf };
 
 /** Sweeps whose stored rows no longer change (their sorted orders may be cached). */
-const SETTLED = new Set(['completed', 'archived', 'failed', 'cancelled']);
+const SETTLED = new Set<string>(SETTLED_STATES);
 
 /**
  * Whole orders built in the background at once (each holds one pool thread): the rest of the pool stays

@@ -29,6 +29,12 @@ export type ActiveState = (typeof ACTIVE_STATES)[number];
 /** States in which a sweep's results are whole and final: what fits accept and the ui offers to export. */
 export const COMPLETE_STATES = ['completed', 'archived'] as const satisfies readonly SweepStatus[];
 
+/**
+ * States in which a sweep's stored rows no longer change (finished one way or another): what may be
+ * cached by its row count and finish time, such as the sorted orders of its results.
+ */
+export const SETTLED_STATES = [...COMPLETE_STATES, 'failed', 'cancelled'] as const satisfies readonly SweepStatus[];
+
 /** True for a status in ACTIVE_STATES (takes any string: statuses arrive as text from the api). */
 export function isActiveState(status: string): status is ActiveState {
   return (ACTIVE_STATES as readonly string[]).includes(status);

@@ -7,6 +7,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { apiJson, apiLogin, freePort, REPO, spawnNode, waitForHealth, type Proc } from '../../support/processes.js';
 import { removeDir, tempDir, track } from './resources.js';
+import { isActiveState } from '@driftgrid/domain';
 
 export const ROW_SPAN = 2 ** 32;
 
@@ -88,7 +89,7 @@ async function waitIdle(api: ApiHandle, timeoutMs = 60_000): Promise<void> {
   for (;;) {
     const r = await apiJson(api.baseUrl, api.token, 'GET', '/api/sweeps?pageSize=1000');
     if (r.status !== 200) return; // catalogue route missing: nothing to wait for
-    const busy = (r.body.items as { status: string }[]).filter((s) => s.status === 'queued' || s.status === 'running');
+    const busy = (r.body.items as { status: string }[]).filter((s) => isActiveState(s.status));
     if (!busy.length) return;
     if (Date.now() > deadline) throw new Error(`demo sweeps still running after ${timeoutMs} ms`);
     await new Promise((res) => setTimeout(res, 200));
@@ -135,7 +136,7 @@ export async function runSweep(api: ApiHandle, definition: unknown, timeoutMs = 
         workers: s.provenance?.workers ?? [],
       };
     }
-    if (!['queued', 'running'].includes(s.status)) {
+    if (!isActiveState(s.status)) {
       throw new Error(
         `sweep ${id} ended ${s.status}${s.error ? `: ${s.error}` : ''}\napi output:\n${api.proc.output().slice(-3000)}`,
       );

@@ -10,7 +10,7 @@ import {
   type Role,
   type SessionUser,
 } from '../auth/session.js';
-import type { LoginRequest, LoginResponse, Quota as QuotaLimits, QuotaUsage } from '@driftgrid/domain';
+import type { LoginRequest, LoginResponse, MeResponse, Quota as QuotaLimits, QuotaUsage } from '@driftgrid/domain';
 import { api } from './client.js';
 import { queryKeys } from './queryKeys.js';
 
@@ -30,17 +30,14 @@ export function login(body: LoginRequest): Promise<LoginResponse> {
   return api.post<LoginResponse>('/auth/login', body, { auth: false });
 }
 
-/** Accepts `{ …user, quota, usage }` or `{ user, quota, usage }`; quota and usage may be absent. */
-export function normaliseMe(raw: unknown): Me {
-  const r = (raw ?? {}) as Record<string, unknown>;
-  const user = (r.user && typeof r.user === 'object' ? r.user : r) as SessionUser;
-  const quota = (r.quota ?? (r.user as Record<string, unknown> | undefined)?.quota) as Quota | undefined;
-  const usage = (r.usage ?? (r.user as Record<string, unknown> | undefined)?.usage) as Usage | undefined;
-  return { id: user.id, email: user.email, name: user.name, role: user.role, quota, usage };
+/** The ui's flat view of GET /api/auth/me (the domain's MeResponse): the user with quota and usage. */
+export function meView(r: MeResponse): Me {
+  const { id, email, name, role } = r.user;
+  return { id, email, name, role, quota: r.quota, usage: r.usage };
 }
 
 export async function fetchMe(signal?: AbortSignal): Promise<Me> {
-  return normaliseMe(await api.get<unknown>('/auth/me', undefined, signal));
+  return meView(await api.get<MeResponse>('/auth/me', undefined, signal));
 }
 
 /** The signed-in user, fresh from the server; `undefined` while signed out. */

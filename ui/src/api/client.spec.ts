@@ -1,7 +1,7 @@
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { setSession } from '../auth/session.js';
 import { ApiError, api, buildUrl, setUnauthorizedHandler } from './client.js';
-import { normaliseMe } from './auth.js';
+import { meView } from './auth.js';
 import { queryKeys } from './queryKeys.js';
 
 const fetchMock = vi.fn<typeof fetch>();
@@ -75,15 +75,13 @@ describe('api client', () => {
   });
 });
 
-describe('normaliseMe', () => {
-  it('accepts the user at top level or nested, with or without quota and usage', () => {
+describe('meView', () => {
+  it('flattens GET /api/auth/me into the user with its quota and usage', () => {
     const user = { id: 2, email: 'r@example.com', name: 'Rosa Researcher', role: 'researcher' as const };
-    expect(normaliseMe(user)).toEqual({ ...user, quota: undefined, usage: undefined });
-    expect(normaliseMe({ user, quota: { maxPointsPerSweep: 1e6 }, usage: { storedPoints: 10 } })).toEqual({
-      ...user,
-      quota: { maxPointsPerSweep: 1e6 },
-      usage: { storedPoints: 10 },
-    });
+    const quota = { maxPointsPerSweep: 1e6, maxRunningSweeps: 3, maxPointsPer30Days: 2e7, maxStoredPoints: 5e7 };
+    const usage = { storedPoints: 10, runningSweeps: 0, pointsLast30Days: 10 };
+    const me = meView({ user, via: 'session', scope: 'read-write', quota, usage });
+    expect(me).toEqual({ ...user, quota, usage });
   });
 });
 
