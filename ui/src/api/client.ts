@@ -1,14 +1,8 @@
-import type { PageOf } from '@driftgrid/domain';
+import type { ErrorDetail, PageOf } from '@driftgrid/domain';
 import { getToken } from '../auth/session.js';
 
-/** One entry of an error's `details` (SPEC §6): a field path, or a CSV line and column. */
-export interface ApiErrorDetail {
-  path?: string;
-  field?: string;
-  message: string;
-  line?: number;
-  column?: string;
-}
+/** One entry of an error's `details` (SPEC §6): the domain's ErrorDetail, as the api's error filter sends it. */
+export type ApiErrorDetail = ErrorDetail;
 
 /** Any failed api call. `status` 0 means the server could not be reached. */
 export class ApiError extends Error {
@@ -25,7 +19,7 @@ export class ApiError extends Error {
 
   /** The message for one field (`axes.0.min`), if the server named it. */
   detailFor(path: string): string | undefined {
-    return this.details.find((d) => d.path === path || d.field === path)?.message;
+    return this.details.find((d) => d.path === path)?.message;
   }
 }
 
