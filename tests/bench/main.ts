@@ -56,11 +56,15 @@ export async function main(): Promise<number> {
     );
   }
   let failure: unknown;
-  // BENCH_ONLY=load runs one scenario alone (the load scenario starts its own api and sweeps).
+  // BENCH_ONLY=load or =redis runs one scenario alone (each starts its own api and sweeps).
   const only = process.env.BENCH_ONLY;
   try {
     if (only === 'load') {
       await step('load', () => benchLoad(cfg, report));
+      throw new OnlyDone();
+    }
+    if (only === 'redis') {
+      await step('redis', () => benchRedisSweep(cfg, report));
       throw new OnlyDone();
     }
     await step('kernels', () => benchKernels(cfg, report));
