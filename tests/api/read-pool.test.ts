@@ -86,6 +86,13 @@ describe('heavy reads run on the pool, bounded and fair', () => {
     expect(reads.mode).toBe('pool');
   });
 
+  it('says on /api/health how many read threads have loaded', async () => {
+    await warm();
+    const h = await t.http.get('/api/health');
+    expect(h.status).toBe(200);
+    expect(h.body.reads).toEqual({ mode: 'pool', threads: 2, ready: 2 });
+  });
+
   it('keeps /api/health and the catalogue answering while every pool thread is busy', async () => {
     let done = 0;
     const busy = [hold(9001, 2500), hold(9002, 2500)].map((p) => p.then(() => done++));

@@ -214,6 +214,7 @@ describe(`streamed export of a ${N}-row sweep`, () => {
     // Count the rows the export has the read pool read and format.
     let rowsRead = 0;
     class CountingReads extends HeavyReads {
+      readonly readiness = reads.readiness;
       async run<T extends ReadTask>(userId: number, task: T, options?: ReadOptions): Promise<ReadResultOf<T>> {
         const r = await reads.run(userId, task, options);
         if (task.kind === 'exportBatch') rowsRead += (r as ReadResultOf<{ kind: 'exportBatch' } & ReadTask>).rows;

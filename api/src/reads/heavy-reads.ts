@@ -22,6 +22,16 @@ export abstract class HeavyReads {
    * queue is full, ReadAbortedError when `signal` (the client went away) fires first.
    */
   abstract run<T extends ReadTask>(userId: number, task: T, options?: ReadOptions): Promise<ReadResultOf<T>>;
+
+  /** Where heavy reads run and how many threads have loaded (GET /api/health). */
+  abstract readonly readiness: ReadReadiness;
+}
+
+/** `pool`: on `threads` worker threads, of which `ready` have loaded; `inline`: on the api thread. */
+export interface ReadReadiness {
+  mode: 'pool' | 'inline';
+  threads: number;
+  ready: number;
 }
 
 export interface ReadOptions {

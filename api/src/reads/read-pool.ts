@@ -4,7 +4,7 @@ import { fileURLToPath } from 'node:url';
 import { Logger, type OnModuleDestroy } from '@nestjs/common';
 import type Database from 'better-sqlite3';
 import { Piscina } from 'piscina';
-import { HeavyReads, readFailure, rebuildError, type ReadOptions } from './heavy-reads.js';
+import { HeavyReads, readFailure, rebuildError, type ReadOptions, type ReadReadiness } from './heavy-reads.js';
 import { ReadAbortedError } from './read-errors.js';
 import { ReadTaskRunner, type ReadReply, type ReadResultOf, type ReadTask } from './read-tasks.js';
 import { UserSlots } from './user-slots.js';
@@ -123,6 +123,10 @@ export class PooledHeavyReads extends HeavyReads implements OnModuleDestroy {
         }
       }),
     );
+  }
+
+  get readiness(): ReadReadiness {
+    return { mode: this.mode, threads: this.pool ? this.options.threads : 0, ready: this.stats.ready };
   }
 
   /** Reads waiting for a thread, live threads, and threads loaded and ready (diagnostics and tests). */

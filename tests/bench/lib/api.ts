@@ -63,6 +63,8 @@ export async function startApi(label: string, env: Record<string, string> = {}):
   const baseUrl = `http://127.0.0.1:${port}`;
   try {
     await waitForHealth(baseUrl, proc, 60_000);
+    // Read-pool threads load for a second or two after the api answers: memory baselines come after.
+    await waitForReadThreads(baseUrl, 60_000);
     const token = await apiLogin(baseUrl, 'researcher@example.com');
     const api: ApiHandle = {
       baseUrl,
@@ -201,4 +203,15 @@ export async function timedGet(
     /* not JSON */
   }
   return { ms, status: r.status, body, bytes: text.length };
+}
+
+/** Waits until GET /api/health says every read-pool thread has loaded (or the pool is off). */
+async function waitForReadThreads(baseUrl: string, timeoutMs: number): Promise<void> {
+  const deadline = Date.now() + timeoutMs;
+  for (;;) {
+    const h = (await (await fetch(`${baseUrl}/api/health`)).json()) as { reads?: { threads: number; ready: number } };
+    if (!h.reads || h.reads.ready >= h.reads.threads) return;
+    if (Date.now() > deadline) throw new Error(`read threads not loaded after ${timeoutMs} ms`);
+    await new Promise((r) => setTimeout(r, 100));
+  }
 }
