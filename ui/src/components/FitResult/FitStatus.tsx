@@ -36,7 +36,8 @@ export function FitStatus({ fit }: { fit: Pick<FitView, 'status' | 'progress' | 
       fw={500}
       leftSection={<Glyph size={13} stroke={2} aria-hidden />}
       title={look.meaning}
-      style={{ flexShrink: 0, overflow: 'visible' }}
+      // max-content: a table column never squeezes the label into an ellipsis ("Co…").
+      style={{ flexShrink: 0, overflow: 'visible', minWidth: 'max-content' }}
       data-testid="fit-status"
       data-status={fit.status}
     >
