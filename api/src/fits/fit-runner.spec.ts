@@ -1,7 +1,8 @@
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import { afterAll, describe, expect, it } from 'vitest';
+import { Logger } from '@nestjs/common';
+import { afterAll, describe, expect, it, vi } from 'vitest';
 import { ValidationError } from '@driftgrid/domain';
 import { FIT_THREAD_PROTOCOL, FitRunner } from './fit-runner.js';
 
@@ -40,17 +41,24 @@ describe('FitRunner thread handling', () => {
   const input = { model: 'power-law' as const, x: { a: x }, xNames: ['a'], y: x.map((v) => 4 * v) };
 
   it('falls back inline for a stale thread build (another protocol) and stays inline', async () => {
+    // The fallback is announced once in the log (kept out of the test output, checked here).
+    const warn = vi.spyOn(Logger.prototype, 'warn').mockImplementation(() => undefined);
     const runner = new FitRunner().useThreadEntry(file('stale.mjs', 'parentPort.postMessage({ ready: 1 });'));
     const r = await runner.run(input);
     expect(r.parameters[0]!.value).toBeCloseTo(4, 10);
     expect(runner.mode).toBe('inline');
+    expect(warn).toHaveBeenCalledWith(expect.stringMatching(/stale thread build .*running the fit inline/));
+    warn.mockRestore();
     await runner.close();
   }, 30_000);
 
   it('falls back inline when the thread cannot load', async () => {
+    const warn = vi.spyOn(Logger.prototype, 'warn').mockImplementation(() => undefined);
     const runner = new FitRunner().useThreadEntry(file('broken.mjs', 'throw new Error("cannot load");'));
     const r = await runner.run(input);
     expect(r.converged).toBe(true);
+    expect(warn).toHaveBeenCalledWith(expect.stringMatching(/cannot load.*running the fit inline/));
+    warn.mockRestore();
     await runner.close();
   }, 30_000);
 
