@@ -1,6 +1,8 @@
 import { Alert, Anchor, Button, Code, Stack, Text } from '@mantine/core';
 import { IconArrowLeft } from '@tabler/icons-react';
-import { Link, useParams } from 'react-router-dom';
+import { CREATOR_ROLES } from '@driftgrid/domain';
+import { Link, useNavigate, useParams } from 'react-router-dom';
+import { hasRole, useMe } from '../api/auth.js';
 import { PageHeader } from '../components/PageHeader/PageHeader.js';
 import { useFit } from '../api/fits.js';
 import { FitDetail } from '../components/FitsPanel/FitsPanel.js';
@@ -11,6 +13,13 @@ export default function FitPage() {
   const fitId = Number(id);
   const q = useFit(Number.isInteger(fitId) && fitId > 0 ? fitId : null);
   const f = q.data;
+  const navigate = useNavigate();
+  const { data: me } = useMe();
+  // A fit that did not converge can be run again from its last iterate, in the Fits page's form.
+  const startAgain =
+    f && hasRole(me, CREATOR_ROLES)
+      ? () => void navigate(`/fits?sourceKind=${f.source.kind}&sourceId=${f.source.id}&from=${f.id}`)
+      : undefined;
   return (
     <>
       <PageHeader
@@ -44,7 +53,11 @@ export default function FitPage() {
       ) : null}
       {f ? (
         <Stack gap="md">
-          <FitDetail fit={f} />
+          <FitDetail
+            fit={f}
+            onStartFrom={startAgain}
+            startFromLabel="Start a new fit from the last iterate (opens the Fits form)"
+          />
           <div>
             <Text fz="sm" fw={500} mb={4}>
               Request

@@ -19,6 +19,8 @@ function NewFit() {
   const [params, setParams] = useSearchParams();
   const [kind, setKind] = useState<FitSourceKind>(params.get('sourceKind') === 'dataset' ? 'dataset' : 'sweep');
   const initial = Number(params.get('sourceId'));
+  // `from`: a saved fit to start again from (the saved-fit page's "start again" link).
+  const from = Number(params.get('from'));
   const [id, setId] = useState<number | null>(Number.isInteger(initial) && initial > 0 ? initial : null);
   const datasets = useDatasetList({ pageSize: 200 }, kind === 'dataset');
   const columns = useSourceColumns(kind, id, datasets.data?.items);
@@ -45,7 +47,12 @@ function NewFit() {
       />
       {id !== null && columns ? (
         <div style={{ marginTop: 16 }}>
-          <FitsPanel key={`${kind}-${id}`} source={{ kind, id }} columns={columns} />
+          <FitsPanel
+            key={`${kind}-${id}`}
+            source={{ kind, id }}
+            columns={columns}
+            startFromFit={Number.isInteger(from) && from > 0 ? from : null}
+          />
         </div>
       ) : (
         <Text fz="sm" c="dimmed" mt="sm">

@@ -29,10 +29,13 @@ function Stat({ label, children, testId }: { label: string; children: React.Reac
 export function FitResult({
   fit,
   onStartFrom,
+  startFromLabel = 'Fill the form with the last iterate as start values',
 }: {
   fit: FitView;
   /** Fills the fit form with these start values (offered when the fit did not converge). */
   onStartFrom?: (values: Record<string, number>) => void;
+  /** The button's words where the form is elsewhere (the saved-fit page opens the Fits page's form). */
+  startFromLabel?: string;
 }) {
   const live = fit.status === 'queued' || fit.status === 'running';
   const level = Math.round((fit.confidence?.level ?? 0.95) * 100);
@@ -87,7 +90,7 @@ export function FitResult({
                           data-testid="fit-start-from-last"
                           onClick={() => onStartFrom(fit.advice!.lastIterate)}
                         >
-                          Fill the form with the last iterate as start values
+                          {startFromLabel}
                         </Button>
                       </Group>
                     ) : null}

@@ -14,6 +14,11 @@ import { SavedFits } from './SavedFits.js';
 export interface FitsPanelProps {
   source: { kind: FitSourceKind; id: number };
   columns: FitColumn[];
+  /**
+   * A saved fit of this source to start again from (the saved-fit page links here): the form opens
+   * filled with its request, and with its last iterate as start values when it did not converge.
+   */
+  startFromFit?: number | null;
 }
 
 /** A fit's result with its plots, or its progress while it runs. */
@@ -21,10 +26,12 @@ export function FitDetail({
   fit,
   columns,
   onStartFrom,
+  startFromLabel,
 }: {
   fit: FitView;
   columns?: FitColumn[];
   onStartFrom?: (values: Record<string, number>) => void;
+  startFromLabel?: string;
 }) {
   const live = LIVE_FIT.has(fit.status);
   const unitOf = (name: string) => {
@@ -36,7 +43,7 @@ export function FitDetail({
       {live ? (
         <Progress value={fit.progress * 100} animated aria-label="Fit progress" data-testid="fit-progress" />
       ) : null}
-      <FitResult fit={fit} onStartFrom={onStartFrom} />
+      <FitResult fit={fit} onStartFrom={onStartFrom} startFromLabel={startFromLabel} />
       {fit.plot ? (
         <FitPlot
           plot={fit.plot}
@@ -53,7 +60,7 @@ export function FitDetail({
  * The fit builder and the saved fits of one sweep or dataset, as the sweep and dataset pages show it:
  * run a fit, read its parameters with errors and its plots, pick an earlier fit from the list.
  */
-export function FitsPanel({ source, columns }: FitsPanelProps) {
+export function FitsPanel({ source, columns, startFromFit = null }: FitsPanelProps) {
   const [selected, setSelected] = useState<number | null>(null);
   const create = useCreateFit({ onSuccess: (created) => setSelected(created.id) });
   const current = useFit(selected);
@@ -62,6 +69,12 @@ export function FitsPanel({ source, columns }: FitsPanelProps) {
   const hasValid = source.kind === 'sweep' && columns.some((c) => c.name === 'valid');
   const startFrom = (fit: FitView) => (values: Record<string, number>) =>
     setPrefill((prev) => ({ state: fromRequest(fit.request, hasValid, values), nonce: (prev?.nonce ?? 0) + 1 }));
+  // The fit to start from when the page was opened from a saved fit (only one of this very source).
+  const origin = useFit(startFromFit);
+  const fromOrigin =
+    origin.data && origin.data.source.kind === source.kind && origin.data.source.id === source.id
+      ? fromRequest(origin.data.request, hasValid, origin.data.advice?.lastIterate)
+      : undefined;
   // Reviewers read fits; the server refuses their runs, so the form is not offered at all.
   const { data: me } = useMe();
   const mayFit = hasRole(me, CREATOR_ROLES);
@@ -69,8 +82,8 @@ export function FitsPanel({ source, columns }: FitsPanelProps) {
     <Stack gap="md" data-testid="fits-panel" data-source-kind={source.kind} data-source-id={source.id}>
       {mayFit ? (
         <FitBuilder
-          key={prefill?.nonce ?? 0}
-          initial={prefill?.state}
+          key={prefill ? prefill.nonce : fromOrigin ? `from-${startFromFit}` : 0}
+          initial={prefill?.state ?? fromOrigin}
           source={source}
           columns={columns}
           pending={create.isPending}
