@@ -165,6 +165,30 @@ describe('heavy reads run on the pool, bounded and fair', () => {
     expect(ok.body.total).toBe(3);
   });
 
+  it("waits for room in the user's share instead of refusing an export partway through the file", async () => {
+    await warm();
+    // The user's one heavy-read slot is held for longer than a read may wait for it (READ_WAIT_MS).
+    const mine = hold(researcherId, 1200);
+    await new Promise((r) => setTimeout(r, 50));
+    const res = await t.http
+      .get(`/api/sweeps/${sweepId}/export`)
+      .set('authorization', `Bearer ${researcher}`)
+      .buffer(true)
+      .parse((response, done) => {
+        const parts: Buffer[] = [];
+        response.on('data', (c: Buffer) => parts.push(c));
+        response.on('end', () => done(null, Buffer.concat(parts)));
+      });
+    await mine;
+    expect(res.status).toBe(200);
+    const { unzipSync, strFromU8 } = await import('fflate');
+    const files = unzipSync(new Uint8Array(res.body as Buffer));
+    const csv = strFromU8(files['results.csv']!);
+    // Header plus every one of the 1,200 points: nothing was cut short by the wait.
+    expect(csv.trimEnd().split('\n')).toHaveLength(1201);
+    expect(JSON.parse(strFromU8(files['manifest.json']!)).results.rows).toBe(1200);
+  });
+
   it('frees the slot and the queue place of a request whose client went away', async () => {
     await warm();
     const busy = [hold(9001, 3000), hold(9002, 3000)];

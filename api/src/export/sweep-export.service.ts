@@ -7,7 +7,7 @@ import type { SweepRow } from '../sweeps/sweeps.repository.js';
 import { SweepsRepository } from '../sweeps/sweeps.repository.js';
 import { HeavyReads } from '../reads/heavy-reads.js';
 import type { ExportBatchTask, ReadResultOf } from '../reads/read-tasks.js';
-import { ReadBusyError, ReadLimitError } from '../reads/read-errors.js';
+import { ReadBudgetError, ReadBusyError, ReadLimitError } from '../reads/read-errors.js';
 import { csvLine, slugify, textLine } from './csv-format.js';
 import { sweepReadme } from './export-texts.js';
 import { ExportRepository } from './export.repository.js';
@@ -25,6 +25,11 @@ export const EXPORT_BATCH = 1000;
  */
 const EXPORT_PATIENCE_MS = 120_000;
 const RETRY_MS = 250;
+/**
+ * Time allowed per batch, the wait for a thread included. A batch is a few ms of work, so running out
+ * means it queued behind long sorts: it is asked again (within EXPORT_PATIENCE_MS) rather than failing.
+ */
+const BATCH_BUDGET_MS = 30_000;
 
 /** Format marker in manifest.json, bumped when its shape changes. */
 export const MANIFEST_FORMAT = { name: 'driftgrid-sweep-export', version: 1 } as const;
@@ -142,14 +147,19 @@ export class SweepExportBuilder {
     }
   }
 
-  /** One batch, waiting (up to EXPORT_PATIENCE_MS in all) while the pool or the user's share is full. */
+  /** One batch, waiting (up to EXPORT_PATIENCE_MS in all) while the pool or the user's share is full or slow. */
   private async batch(userId: number, s: SweepRow, after: number): Promise<ExportBatch> {
     const deadline = Date.now() + EXPORT_PATIENCE_MS;
     for (;;) {
       try {
-        return await this.reads.run(userId, { kind: 'exportBatch', sweep: s, after, limit: EXPORT_BATCH });
+        return await this.reads.run(
+          userId,
+          { kind: 'exportBatch', sweep: s, after, limit: EXPORT_BATCH },
+          { budgetMs: BATCH_BUDGET_MS },
+        );
       } catch (e) {
-        const busy = e instanceof ReadLimitError || e instanceof ReadBusyError;
+        // A batch is an idempotent read: asked again when the pool had no room for it in time.
+        const busy = e instanceof ReadLimitError || e instanceof ReadBusyError || e instanceof ReadBudgetError;
         if (!busy || Date.now() > deadline) throw e;
         await new Promise((r) => setTimeout(r, RETRY_MS));
       }
