@@ -56,11 +56,16 @@ export async function main(): Promise<number> {
     );
   }
   let failure: unknown;
-  // BENCH_ONLY=load or =redis runs one scenario alone (each starts its own api and sweeps).
+  // BENCH_ONLY=load, =embedded or =redis runs one scenario alone (each starts its own api and sweeps).
   const only = process.env.BENCH_ONLY;
   try {
     if (only === 'load') {
       await step('load', () => benchLoad(cfg, report));
+      throw new OnlyDone();
+    }
+    if (only === 'embedded') {
+      const kept = await step('embedded sweeps', () => benchEmbeddedSweep(cfg, report));
+      await kept.api.stop();
       throw new OnlyDone();
     }
     if (only === 'redis') {
