@@ -202,7 +202,14 @@ export function SweepPlot({ sweep }: { sweep: SweepView }) {
 
   const columns = useMemo(() => new Map(sweep.columns.map((c) => [c.name, c])), [sweep.columns]);
   const unitOf = useCallback((name: string) => columns.get(name)?.unit ?? '', [columns]);
-  const labelOf = (name: string) => `${name}${prettyUnit(unitOf(name)) ? ` (${prettyUnit(unitOf(name))})` : ''}`;
+  // A model's own columns go by their symbol and name ("ρ_i/L_n · rho_i_over_Ln"); derived ones by name.
+  const display = useCallback(
+    (name: string) => (symbols[name] && symbols[name] !== name ? `${symbols[name]} · ${name}` : name),
+    [symbols],
+  );
+  const symbolOnly = useCallback((name: string) => symbols[name] ?? name, [symbols]);
+  const labelOf = (name: string) =>
+    `${display(name)}${prettyUnit(unitOf(name)) ? ` (${prettyUnit(unitOf(name))})` : ''}`;
   const axisLog = (name: string) => axisOf(ctx, name)?.kind === 'log';
   const logX = state.log.x ?? axisLog(state.x);
   const logY = state.log.y ?? (state.kind === 'line' ? false : axisLog(state.y));
@@ -291,6 +298,8 @@ export function SweepPlot({ sweep }: { sweep: SweepView }) {
         { ...scales, z: false },
         text,
         (row) => pointDetailHtml(row, sweep.columns, flagNames),
+        display,
+        symbolOnly,
       );
     }
     if (!data) return null;
@@ -299,10 +308,13 @@ export function SweepPlot({ sweep }: { sweep: SweepView }) {
           colour,
           contours,
           cellDetail: detail,
+          label: display,
+          barLabel: symbolOnly,
         })
       : lineOption(data as LineSeries, { ...scales, z: false }, text, state.kind === 'line' ? overlay : null, {
           note: groupNote,
           pointDetail: detail,
+          label: display,
         });
   }, [
     state.kind,
@@ -323,6 +335,8 @@ export function SweepPlot({ sweep }: { sweep: SweepView }) {
     flagNames,
     unitOf,
     columns,
+    display,
+    symbolOnly,
   ]);
 
   const chart = useChart(option, { dark: scheme === 'dark' });

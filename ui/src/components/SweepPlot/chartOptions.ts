@@ -12,15 +12,19 @@ export interface Scales {
 export const FLAG_LABEL = 'Flagged: a validity flag is raised';
 const HATCH = 'rgba(120, 120, 120, 0.55)';
 
-function axisName(a: SeriesAxis): string {
+/** How a column is named on axes and colour bars (the plot passes symbol · name); the bare name by default. */
+export type ColumnLabel = (name: string) => string;
+const bareName: ColumnLabel = (name) => name;
+
+function axisName(a: SeriesAxis, label: ColumnLabel): string {
   const u = prettyUnit(a.unit);
-  return u ? `${a.name} (${u})` : a.name;
+  return u ? `${label(a.name)} (${u})` : label(a.name);
 }
 
-function valueAxis(a: SeriesAxis, log: boolean, text: string) {
+function valueAxis(a: SeriesAxis, log: boolean, text: string, label: ColumnLabel = bareName) {
   return {
     type: log ? 'log' : 'value',
-    name: axisName(a),
+    name: axisName(a, label),
     nameLocation: 'middle',
     nameGap: 34,
     scale: true,
@@ -61,6 +65,8 @@ export const OVERLAY_COLOR = '#d9480f';
 export interface LineExtras {
   /** Said on the plot itself (e.g. which of many group values are drawn). */
   note?: string;
+  /** Axis titles: how a column is named. */
+  label?: ColumnLabel;
   pointDetail?: (
     idx: number | null,
     quick: string,
@@ -162,8 +168,8 @@ export function lineOption(
         return extras.pointDetail ? extras.pointDetail(p.data.idx ?? null, quick, ticket, done) : quick;
       },
     },
-    xAxis: valueAxis(s.x, scales.x, text),
-    yAxis: { ...valueAxis(s.y, scales.y, text), nameGap: 56, nameLocation: 'middle' },
+    xAxis: valueAxis(s.x, scales.x, text, extras.label),
+    yAxis: { ...valueAxis(s.y, scales.y, text, extras.label), nameGap: 56, nameLocation: 'middle' },
     series,
   };
 }
@@ -213,6 +219,10 @@ export const CONTOUR_STYLES: { color: string; dash: ContourOverlay['dash'] }[] =
 
 export interface HeatmapExtras {
   colour: ColourScale;
+  /** Axis titles: how a column is named. */
+  label?: ColumnLabel;
+  /** The colour bar's title, which has little room beside the plot (the plot passes the bare symbol). */
+  barLabel?: ColumnLabel;
   contours?: ContourOverlay[];
   /** Tooltip body for a cell (point index or null): the full row when it is known. */
   cellDetail?: (
@@ -330,8 +340,14 @@ export function heatmapOption(
     grid: { left: 72, right: 150, top: 44, bottom: 52 },
     tooltip: { trigger: 'item', formatter: tip, confine: true, extraCssText: 'max-width: 460px; white-space: normal;' },
     // The axes end at cell edges: their end labels would be odd numbers crowding the next tick.
-    xAxis: { ...edgeAxis(valueAxis(s.x, scales.x, text)), min: xe[0], max: xe.at(-1), scale: false },
-    yAxis: { ...edgeAxis(valueAxis(s.y, scales.y, text)), min: ye[0], max: ye.at(-1), scale: false, nameGap: 56 },
+    xAxis: { ...edgeAxis(valueAxis(s.x, scales.x, text, extras.label)), min: xe[0], max: xe.at(-1), scale: false },
+    yAxis: {
+      ...edgeAxis(valueAxis(s.y, scales.y, text, extras.label)),
+      min: ye[0],
+      max: ye.at(-1),
+      scale: false,
+      nameGap: 56,
+    },
     visualMap: {
       type: 'continuous',
       dimension: 4,
@@ -346,7 +362,7 @@ export function heatmapOption(
       itemHeight: 200,
       align: 'left',
       inRange: { color: VIRIDIS },
-      text: [`${s.z.name}${u ? ` (${u})` : ''}${scaleWord}`, ''],
+      text: [`${(extras.barLabel ?? bareName)(s.z.name)}${u ? ` (${u})` : ''}${scaleWord}`, ''],
       textGap: 12,
       textStyle: { color: text },
       formatter: (v: number) =>
@@ -394,6 +410,8 @@ export function scatterOption(
   scales: Scales,
   text: string,
   detail: (row: ResultRowView) => string,
+  label: ColumnLabel = bareName,
+  barLabel: ColumnLabel = bareName,
 ) {
   const keep = points.filter((p) => (!scales.x || p.x > 0) && (!scales.y || p.y > 0));
   const zs = keep.map((p) => p.z).filter((z): z is number => z !== null && Number.isFinite(z));
@@ -413,8 +431,8 @@ export function scatterOption(
       extraCssText: 'max-width: 460px; white-space: normal;',
       formatter: (p: { data: { row: ResultRowView } }) => detail(p.data.row),
     },
-    xAxis: valueAxis(axes.x, scales.x, text),
-    yAxis: { ...valueAxis(axes.y, scales.y, text), nameGap: 56 },
+    xAxis: valueAxis(axes.x, scales.x, text, label),
+    yAxis: { ...valueAxis(axes.y, scales.y, text, label), nameGap: 56 },
     visualMap: {
       type: 'continuous',
       dimension: 2,
@@ -429,7 +447,7 @@ export function scatterOption(
       itemHeight: 200,
       align: 'left',
       inRange: { color: VIRIDIS },
-      text: [`${axes.z.name}${u ? ` (${u})` : ''}`, ''],
+      text: [`${barLabel(axes.z.name)}${u ? ` (${u})` : ''}`, ''],
       textGap: 12,
       textStyle: { color: text },
       formatter: (v: number) => formatNumber(v, 3),
