@@ -17,6 +17,17 @@ export function smallSweep(overrides: Record<string, unknown> = {}) {
   };
 }
 
+/**
+ * Derived columns whose every value is not finite, by IEEE 754 (x/0 is ±∞ by the sign of x, 0/0 is NaN),
+ * plus `finite` as a control: the three texts results and exports use for them.
+ */
+export const NON_FINITE_DERIVED = [
+  { name: 'up', expr: 'Te_eV / 0' },
+  { name: 'down', expr: '-Te_eV / 0' },
+  { name: 'undef', expr: '(Te_eV - Te_eV) / 0' },
+  { name: 'finite', expr: 'Te_eV * 2' },
+];
+
 /** Polls until the sweep leaves queued/running (or the deadline passes). */
 export async function waitForSweep(t: TestApp, token: string, id: number, timeoutMs = 60_000) {
   const deadline = Date.now() + timeoutMs;

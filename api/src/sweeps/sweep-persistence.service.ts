@@ -7,7 +7,7 @@ import { ChunksRepository } from './chunks.repository.js';
 import { SweepNotifier } from './ports.js';
 import { ResultsWriter } from './results-writer.repository.js';
 import { ROW_SPAN, slotColumns, type StoredColumn } from './sweep-layout.js';
-import { SweepsRepository } from './sweeps.repository.js';
+import { SweepsRepository, type SweepRow } from './sweeps.repository.js';
 
 export interface ChunkFailure {
   sweepId: number;
@@ -45,22 +45,25 @@ export class SweepPersistence {
     private readonly notifier: SweepNotifier,
   ) {}
 
-  /** Why a chunk's result is not (or no longer) taken, or null when it is. Throws when it contradicts the plan. */
-  private refusal(p: ChunkResultPayload): Exclude<Outcome, 'stored'> | null {
+  /**
+   * The sweep that takes a chunk's result, or why it is not (or no longer) taken. Throws when the
+   * result contradicts the chunk's plan.
+   */
+  private taker(p: ChunkResultPayload): { sweep: SweepRow } | { refused: Exclude<Outcome, 'stored'> } {
     const sweep = this.sweeps.findById(p.sweepId);
-    if (!sweep || !isActiveState(sweep.status)) return 'dropped';
+    if (!sweep || !isActiveState(sweep.status)) return { refused: 'dropped' };
     const chunk = this.chunks.plan(p.sweepId, p.chunkIndex);
-    if (!chunk || chunk.state === 'cancelled') return 'dropped';
+    if (!chunk || chunk.state === 'cancelled') return { refused: 'dropped' };
     if (chunk.i0 !== p.i0 || chunk.i1 - chunk.i0 !== p.n)
       throw new Error(`chunk ${p.chunkIndex} of sweep ${p.sweepId} does not match its plan`);
-    if (chunk.state === 'done') return 'duplicate';
-    return null;
+    if (chunk.state === 'done') return { refused: 'duplicate' };
+    return { sweep };
   }
 
   async persist(p: ChunkResultPayload): Promise<Outcome> {
-    const early = this.refusal(p);
-    if (early) return early;
-    const sweep = this.sweeps.findById(p.sweepId)!;
+    const early = this.taker(p);
+    if ('refused' in early) return early.refused;
+    const { sweep } = early;
     const layout = JSON.parse(sweep.columns) as StoredColumn[];
     const slots = slotColumns(layout);
     const arrays = slots.map((s) => {
@@ -81,13 +84,13 @@ export class SweepPersistence {
 
     const now = this.clock.now();
     const outcome = this.tx.run(() => {
-      const refused = this.refusal(p);
-      if (refused) {
+      const last = this.taker(p);
+      if ('refused' in last) {
         // Cancelled or deleted while the rows were written: they must not outlive their chunk.
-        if (refused === 'dropped') this.results.deleteRows(firstId, p.n);
-        return refused;
+        if (last.refused === 'dropped') this.results.deleteRows(firstId, p.n);
+        return last.refused;
       }
-      const current = this.sweeps.findById(p.sweepId)!;
+      const current = last.sweep;
       const counts = JSON.parse(current.flagCounts) as Record<string, number>;
       const invalid = tallyFlags(current.model, flags, p.n, counts);
       this.chunks.markDone(

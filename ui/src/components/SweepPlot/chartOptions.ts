@@ -275,7 +275,6 @@ export function heatmapOption(
   const zs = data.map((d) => d.value[4] as number);
   const lo = zs.length ? Math.min(...zs) : 0;
   const hi = zs.length ? Math.max(...zs) : 1;
-  const u = prettyUnit(s.z.unit);
   const rect =
     (fill: 'cell' | 'hatch') =>
     (params: unknown, api: { value(i: number): number; coord(p: number[]): number[]; visual(k: string): string }) => {
@@ -362,7 +361,7 @@ export function heatmapOption(
       itemHeight: 200,
       align: 'left',
       inRange: { color: VIRIDIS },
-      text: [`${(extras.barLabel ?? bareName)(s.z.name)}${u ? ` (${u})` : ''}${scaleWord}`, ''],
+      text: [`${axisName(s.z, extras.barLabel ?? bareName)}${scaleWord}`, ''],
       textGap: 12,
       textStyle: { color: text },
       formatter: (v: number) =>
@@ -417,7 +416,6 @@ export function scatterOption(
   const zs = keep.map((p) => p.z).filter((z): z is number => z !== null && Number.isFinite(z));
   const lo = zs.length ? Math.min(...zs) : 0;
   const hi = zs.length ? Math.max(...zs) : 1;
-  const u = prettyUnit(axes.z.unit);
   const item = (p: ScatterPoint) => ({ value: [p.x, p.y, p.z], row: p.row });
   return {
     backgroundColor: 'transparent',
@@ -447,7 +445,7 @@ export function scatterOption(
       itemHeight: 200,
       align: 'left',
       inRange: { color: VIRIDIS },
-      text: [`${barLabel(axes.z.name)}${u ? ` (${u})` : ''}`, ''],
+      text: [axisName(axes.z, barLabel), ''],
       textGap: 12,
       textStyle: { color: text },
       formatter: (v: number) => formatNumber(v, 3),
